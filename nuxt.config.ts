@@ -1,0 +1,60 @@
+// Setwell's Nuxt configuration. Everything runs on this machine: no telemetry, no font or CDN hosts.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-07-01',
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
+  devtools: { enabled: false },
+  telemetry: false,
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en-GB' },
+      title: 'Setwell',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
+        { name: 'theme-color', content: '#26313B' },
+        { name: 'description', content: 'Setwell: the back office for small plastering firms.' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  css: ['~/assets/css/main.css'],
+  tailwindcss: {
+    // our own file holds the @tailwind directives; without cssPath the base styles ship twice
+    cssPath: '~/assets/css/main.css',
+    viewer: false,
+  },
+  runtimeConfig: {
+    // Each of these is overridden at run time by NUXT_<NAME> (for example NUXT_DATABASE_URL).
+    databaseUrl: '',
+    databasePoolMax: 10,
+    appUrl: 'http://127.0.0.1:3000',
+    mailFrom: 'Setwell <no-reply@setwell.invalid>',
+    smtpHost: '127.0.0.1',
+    smtpPort: 1025,
+    smtpSecure: false,
+    smtpUser: '',
+    smtpPass: '',
+    session: {
+      name: 'setwell-session',
+      maxAge: 60 * 60 * 24 * 14,
+      cookie: { sameSite: 'lax' },
+    },
+  },
+  // SETWELL_OUTPUT_DIR lets two builds live side by side (a second checkout of the tests); normally .output
+  ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}/.nuxt` } : {}),
+  nitro: {
+    output: process.env.SETWELL_OUTPUT_DIR ? { dir: process.env.SETWELL_OUTPUT_DIR } : undefined,
+  },
+  typescript: {
+    strict: true,
+  },
+  eslint: {
+    config: { stylistic: true },
+  },
+  hooks: {
+    // `nuxt dev --host 127.0.0.1` still opens Vite's HMR socket on every interface
+    'vite:extendConfig'(config) {
+      const server = (config.server ??= {})
+      if (typeof server.hmr !== 'boolean') server.hmr = { ...(server.hmr ?? {}), host: '127.0.0.1' }
+    },
+  },
+})

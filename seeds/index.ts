@@ -1,0 +1,56 @@
+// npm run db:seed: the demo firm, once. Runs outside Nitro as the owner role; row-level security
+// still applies (FORCE), so every firm write sets app.firm_id first, as the server does.
+import { randomUUID } from 'node:crypto'
+import { Hash } from '@adonisjs/hash'
+import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
+import { eq, sql } from 'drizzle-orm'
+import { drizzle } from 'drizzle-orm/node-postgres'
+import pg from 'pg'
+import * as schema from '../server/db/schema'
+import { DEMO_FIRM, DEMO_PEOPLE, SECOND_FIRM } from './demo'
+
+// the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
+const hash = new Hash(new Scrypt({}))
+
+export async function seed(url: string): Promise<'seeded' | 'already'> {
+  const pool = new pg.Pool({ connectionString: url, max: 1 })
+  const db = drizzle({ client: pool, schema, casing: 'snake_case' })
+  try {
+    const [existing] = await db.select({ id: schema.users.id }).from(schema.users).where(eq(schema.users.email, DEMO_PEOPLE[0]!.email))
+    if (existing) return 'already'
+    await db.transaction(async (tx) => {
+      const userIds: Record<string, string> = {}
+      for (const p of [...DEMO_PEOPLE, { key: 'second-owner', ...SECOND_FIRM.owner }]) {
+        const [u] = await tx.insert(schema.users).values({ email: p.email, name: p.name, passwordHash: await hash.make(p.password) }).returning({ id: schema.users.id })
+        userIds[p.key] = u!.id
+      }
+      const firmId = randomUUID()
+      await tx.execute(sql`select set_config('app.firm_id', ${firmId}, true)`)
+      await tx.insert(schema.firms).values({ id: firmId, ...DEMO_FIRM })
+      for (const p of DEMO_PEOPLE) await tx.insert(schema.memberships).values({ firmId, userId: userIds[p.key]!, role: p.role })
+      await tx.insert(schema.auditLog).values({ firmId, actorUserId: userIds.owner, action: 'firm.created', entity: 'firm', entityId: firmId, detail: { seeded: true } })
+
+      const secondId = randomUUID()
+      const { owner: _o, ...second } = SECOND_FIRM
+      await tx.execute(sql`select set_config('app.firm_id', ${secondId}, true)`)
+      await tx.insert(schema.firms).values({ id: secondId, ...second })
+      await tx.insert(schema.memberships).values({ firmId: secondId, userId: userIds['second-owner']!, role: 'owner' })
+      await tx.insert(schema.memberships).values({ firmId: secondId, userId: userIds.accountant!, role: 'accountant' })
+    })
+    return 'seeded'
+  }
+  finally {
+    await pool.end()
+  }
+}
+
+const isMain = process.argv[1] && import.meta.url.endsWith(process.argv[1].replace(/^.*\/seeds\//, '/seeds/'))
+if (isMain) {
+  const url = process.env.NUXT_DATABASE_OWNER_URL
+  if (!url) {
+    console.error('NUXT_DATABASE_OWNER_URL is not set (npm start sets it)')
+    process.exit(1)
+  }
+  const result = await seed(url)
+  console.log(result === 'seeded' ? '[seed] demo firm created' : '[seed] demo firm already there')
+}

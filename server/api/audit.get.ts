@@ -1,0 +1,21 @@
+import { desc, eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { auditLog, users } from '../db/schema'
+
+const query = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
+
+/** Who changed what in this firm, newest first. */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event, 'audit:read')
+  const { limit } = await readQueryWith(event, query)
+  return withFirm(auth, f => f.tx.select({
+    id: auditLog.id,
+    at: auditLog.at,
+    action: auditLog.action,
+    entity: auditLog.entity,
+    entityId: auditLog.entityId,
+    detail: auditLog.detail,
+    actor: users.name,
+  }).from(auditLog).leftJoin(users, eq(users.id, auditLog.actorUserId))
+    .where(f.where(auditLog)).orderBy(desc(auditLog.at)).limit(limit))
+})

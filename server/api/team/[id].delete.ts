@@ -1,0 +1,17 @@
+import { eq } from 'drizzle-orm'
+import { memberships } from '../../db/schema'
+import { idParam } from '#shared/schemas/common'
+
+/** Remove someone from the firm. Their sessions in this firm end on their next request. */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event, 'team:manage')
+  const { id } = await readParamsWith(event, idParam)
+  await withFirm(auth, async (f) => {
+    const m = await findMembership(f, id)
+    if (m.role === 'owner') await assertAnotherOwner(f, id)
+    await f.tx.delete(memberships).where(f.where(memberships, eq(memberships.id, id)))
+    await f.audit('member.removed', 'membership', id, { userId: m.userId, role: m.role })
+  })
+  setResponseStatus(event, 204)
+  return null
+})

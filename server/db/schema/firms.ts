@@ -1,0 +1,36 @@
+import { sql } from 'drizzle-orm'
+import { boolean, integer, pgEnum, pgPolicy, pgTable, text, uuid } from 'drizzle-orm/pg-core'
+import { timestamps } from './common'
+
+export const cisStatus = pgEnum('cis_status', ['not-registered', 'registered', 'gross'])
+
+/** A plastering firm: the tenant. Everything firm-owned points here through firm_id. */
+export const firms = pgTable('firms', {
+  id: uuid().primaryKey().defaultRandom(),
+  tradingName: text().notNull(),
+  addressLine1: text().notNull().default(''),
+  addressLine2: text().notNull().default(''),
+  town: text().notNull().default(''),
+  postcode: text().notNull().default(''),
+  email: text().notNull().default(''),
+  phone: text().notNull().default(''),
+  vatRegistered: boolean().notNull().default(false),
+  vatNumber: text(),
+  cisStatus: cisStatus().notNull().default('not-registered'),
+  utr: text(),
+  dayRatePence: integer().notNull().default(0),
+  paymentTermsDays: integer().notNull().default(30),
+  invoicePrefix: text().notNull().default('INV-'),
+  ...timestamps,
+}, () => [
+  // A firm is visible when it is the current firm, or one the signed-in person belongs to (the firm switcher).
+  pgPolicy('firms_visible', {
+    for: 'select',
+    using: sql`id = app_firm_id() or id in (select m.firm_id from memberships m where m.user_id = app_user_id())`,
+  }),
+  pgPolicy('firms_write', {
+    for: 'all',
+    using: sql`id = app_firm_id()`,
+    withCheck: sql`id = app_firm_id()`,
+  }),
+]).enableRLS()

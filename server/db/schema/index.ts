@@ -1,0 +1,4 @@
+// The whole schema. Add a file per area and export it here; then `npm run db:generate`.
+export * from './firms'
+export * from './users'
+export * from './team'

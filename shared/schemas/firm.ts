@@ -1,0 +1,33 @@
+import { z } from 'zod'
+import { nameField } from './common'
+
+const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
+
+/** UK VAT registration number: GB then 9 digits (12 for a branch), spaces allowed. */
+const vatNumber = z.string().trim().toUpperCase().transform(v => v.replace(/\s+/g, ''))
+  .pipe(z.string().regex(/^(GB)?(\d{9}|\d{12})$/, { error: 'A UK VAT number is GB then 9 digits, for example GB123456789.' }))
+
+/** Unique Taxpayer Reference: 10 digits. */
+const utr = z.string().trim().transform(v => v.replace(/\s+/g, ''))
+  .pipe(z.string().regex(/^\d{10}$/, { error: 'A UTR is 10 digits.' }))
+
+export const firmSettingsSchema = z.object({
+  tradingName: nameField('the trading name'),
+  addressLine1: text(200),
+  addressLine2: text(200),
+  town: text(100),
+  postcode: text(10),
+  email: z.union([z.literal(''), z.string().trim().toLowerCase().pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' }))]),
+  phone: text(40),
+  vatRegistered: z.boolean(),
+  vatNumber: z.union([z.literal('').transform(() => null), vatNumber]).nullable(),
+  cisStatus: z.enum(['not-registered', 'registered', 'gross'], { error: 'Choose a CIS status.' }),
+  utr: z.union([z.literal('').transform(() => null), utr]).nullable(),
+  dayRatePence: z.int({ error: 'Enter the day rate in pounds.' }).min(0, { error: 'The day rate cannot be negative.' }).max(10_000_00, { error: 'That day rate looks too high.' }),
+  paymentTermsDays: z.int({ error: 'Enter the payment terms in days.' }).min(0, { error: 'Payment terms cannot be negative.' }).max(120, { error: 'Keep payment terms to 120 days or fewer.' }),
+  invoicePrefix: z.string().trim().max(12, { error: 'Keep the prefix to 12 characters.' }).regex(/^[A-Z0-9/-]*$/i, { error: 'Use letters, digits, - or / only.' }),
+}).superRefine((v, ctx) => {
+  if (v.vatRegistered && !v.vatNumber) ctx.addIssue({ code: 'custom', path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.' })
+  if (v.cisStatus !== 'not-registered' && !v.utr) ctx.addIssue({ code: 'custom', path: ['utr'], message: 'CIS registration needs the firm\'s UTR.' })
+})
+export type FirmSettingsInput = z.infer<typeof firmSettingsSchema>

@@ -1,0 +1,115 @@
+// Start the built server (.output) against the test database, with an in-process SMTP server
+// that catches what it sends. One per test file: each gets its own ports and its own mailbox.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { createServer } from 'node:net'
+import { setTimeout as sleep } from 'node:timers/promises'
+import { simpleParser, type ParsedMail } from 'mailparser'
+import { SMTPServer } from 'smtp-server'
+
+export interface TestApp {
+  url: string
+  mails: ParsedMail[]
+  /** Wait for a message to this address (and matching `subject` when given). */
+  waitForMail(to: string, subject?: RegExp, timeoutMs?: number): Promise<ParsedMail>
+  /** Server output so far, for debugging a failure. */
+  output(): string
+  stop(): Promise<void>
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = createServer()
+    s.on('error', reject)
+    s.listen(0, '127.0.0.1', () => {
+      const address = s.address()
+      const port = typeof address === 'object' && address ? address.port : 0
+      s.close(() => resolve(port))
+    })
+  })
+}
+
+export function requiredEnv(name: string): string {
+  const v = process.env[name]
+  if (!v) throw new Error(`${name} is not set: run the tests with npm test (scripts/test.mjs prepares the database and the build)`)
+  return v
+}
+
+export async function startApp(extraEnv: Record<string, string> = {}): Promise<TestApp> {
+  const mails: ParsedMail[] = []
+  const waiters: (() => void)[] = []
+  const smtp = new SMTPServer({
+    authOptional: true,
+    disabledCommands: ['STARTTLS'],
+    logger: false,
+    onData(stream, _session, callback) {
+      simpleParser(stream).then((mail) => {
+        mails.push(mail)
+        waiters.splice(0).forEach(w => w())
+        callback()
+      }, callback)
+    },
+  })
+  const smtpPort = await freePort()
+  await new Promise<void>(resolve => smtp.listen(smtpPort, '127.0.0.1', resolve))
+
+  const port = await freePort()
+  const url = `http://127.0.0.1:${port}`
+  let out = ''
+  const child: ChildProcess = spawn('node', [`${process.env.SETWELL_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      NITRO_HOST: '127.0.0.1',
+      NITRO_PORT: String(port),
+      NUXT_DATABASE_URL: requiredEnv('SETWELL_TEST_DATABASE_URL'),
+      NUXT_SESSION_PASSWORD: requiredEnv('SETWELL_TEST_SESSION_PASSWORD'),
+      NUXT_APP_URL: url,
+      NUXT_SMTP_HOST: '127.0.0.1',
+      NUXT_SMTP_PORT: String(smtpPort),
+      ...extraEnv,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  child.stdout!.on('data', (d) => { out += d })
+  child.stderr!.on('data', (d) => { out += d })
+
+  const until = Date.now() + 30_000
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited with ${child.exitCode}:\n${out}`)
+    try {
+      const res = await fetch(`${url}/api/health`)
+      if (res.ok) break
+    }
+    catch { /* not listening yet */ }
+    if (Date.now() > until) throw new Error(`server did not start:\n${out}`)
+    await sleep(100)
+  }
+
+  return {
+    url,
+    mails,
+    output: () => out,
+    async waitForMail(to, subject, timeoutMs = 10_000) {
+      const find = () => mails.find(m => [m.to].flat().some(a => a?.text.toLowerCase().includes(to.toLowerCase())) && (!subject || subject.test(m.subject ?? '')))
+      const until = Date.now() + timeoutMs
+      for (;;) {
+        const found = find()
+        if (found) return found
+        if (Date.now() > until) throw new Error(`no mail to ${to} within ${timeoutMs} ms (got ${mails.length})`)
+        await new Promise<void>((resolve) => {
+          waiters.push(resolve)
+          setTimeout(resolve, 200)
+        })
+      }
+    },
+    async stop() {
+      if (child.exitCode === null) {
+        child.kill('SIGTERM')
+        await new Promise(resolve => child.once('exit', resolve))
+      }
+      await new Promise<void>(resolve => smtp.close(() => resolve()))
+    },
+  }
+}

@@ -1,0 +1,64 @@
+// A small HTTP client for the API tests, with a cookie jar (one per signed-in person).
+import { randomUUID } from 'node:crypto'
+
+export interface ApiResponse<T = any> { status: number, body: T, headers: Headers }
+
+export class Client {
+  private cookies = new Map<string, string>()
+  constructor(readonly base: string, readonly defaults: Record<string, string> = {}) {}
+
+  async request<T = any>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<ApiResponse<T>> {
+    const h: Record<string, string> = { ...this.defaults, ...headers }
+    if (this.cookies.size) h.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
+    let payload: string | undefined
+    if (body !== undefined) {
+      payload = typeof body === 'string' ? body : JSON.stringify(body)
+      h['content-type'] ??= 'application/json'
+    }
+    const res = await fetch(this.base + path, { method, headers: h, body: payload, redirect: 'manual' })
+    for (const c of res.headers.getSetCookie()) {
+      const [pair] = c.split(';')
+      const i = pair!.indexOf('=')
+      const name = pair!.slice(0, i)
+      const value = pair!.slice(i + 1)
+      if (value === '' || /max-age=0/i.test(c) || /expires=thu, 01 jan 1970/i.test(c)) this.cookies.delete(name)
+      else this.cookies.set(name, value)
+    }
+    const text = await res.text()
+    let parsed: any = text
+    try { parsed = text ? JSON.parse(text) : null }
+    catch { /* not JSON */ }
+    return { status: res.status, body: parsed, headers: res.headers }
+  }
+
+  get<T = any>(path: string, headers?: Record<string, string>) { return this.request<T>('GET', path, undefined, headers) }
+  post<T = any>(path: string, body?: unknown, headers?: Record<string, string>) { return this.request<T>('POST', path, body ?? {}, headers) }
+  put<T = any>(path: string, body?: unknown, headers?: Record<string, string>) { return this.request<T>('PUT', path, body ?? {}, headers) }
+  patch<T = any>(path: string, body?: unknown, headers?: Record<string, string>) { return this.request<T>('PATCH', path, body ?? {}, headers) }
+  delete<T = any>(path: string, headers?: Record<string, string>) { return this.request<T>('DELETE', path, undefined, headers) }
+
+  /** The sealed session cookie, to replay it from another client. */
+  cookieHeader() { return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') }
+  setCookieHeader(header: string) {
+    for (const part of header.split('; ')) {
+      const i = part.indexOf('=')
+      this.cookies.set(part.slice(0, i), part.slice(i + 1))
+    }
+  }
+}
+
+/** A unique e-mail address for a test, so files running at once never collide. */
+export function uniqueEmail(label: string) {
+  return `${label}-${randomUUID().slice(0, 8)}@test.example`
+}
+
+export const GOOD_PASSWORD = 'wet-edge-trowel-42'
+
+/** Sign up a new firm; returns its owner's client. */
+export async function signUpFirm(base: string, firmName = 'Test Firm') {
+  const client = new Client(base)
+  const email = uniqueEmail('owner')
+  const res = await client.post('/api/auth/sign-up', { firmName, name: 'Test Owner', email, password: GOOD_PASSWORD })
+  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`)
+  return { client, email, firmId: res.body.firmId as string }
+}
