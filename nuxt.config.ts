@@ -1,9 +1,7 @@
 // Setwell's Nuxt configuration. Everything runs on this machine: no telemetry, no font or CDN hosts.
 export default defineNuxtConfig({
-  compatibilityDate: '2026-07-01',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
   devtools: { enabled: false },
-  telemetry: false,
   app: {
     head: {
       htmlAttrs: { lang: 'en-GB' },
@@ -17,11 +15,6 @@ export default defineNuxtConfig({
     },
   },
   css: ['~/assets/css/main.css'],
-  tailwindcss: {
-    // our own file holds the @tailwind directives; without cssPath the base styles ship twice
-    cssPath: '~/assets/css/main.css',
-    viewer: false,
-  },
   runtimeConfig: {
     // Each of these is overridden at run time by NUXT_<NAME> (for example NUXT_DATABASE_URL).
     databaseUrl: '',
@@ -39,6 +32,13 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax' },
     },
   },
+  compatibilityDate: '2026-07-01',
+  telemetry: false,
+  tailwindcss: {
+    // our own file holds the @tailwind directives; without cssPath the base styles ship twice
+    cssPath: '~/assets/css/main.css',
+    viewer: false,
+  },
   // SETWELL_OUTPUT_DIR lets two builds live side by side (a second checkout of the tests); normally .output
   ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}/.nuxt` } : {}),
   nitro: {
@@ -47,14 +47,14 @@ export default defineNuxtConfig({
   typescript: {
     strict: true,
   },
-  eslint: {
-    config: { stylistic: true },
-  },
   hooks: {
     // `nuxt dev --host 127.0.0.1` still opens Vite's HMR socket on every interface
     'vite:extendConfig'(config) {
-      const server = (config.server ??= {})
-      if (typeof server.hmr !== 'boolean') server.hmr = { ...(server.hmr ?? {}), host: '127.0.0.1' }
+      const server = config.server as { hmr?: boolean | Record<string, unknown> } | undefined
+      if (server && typeof server.hmr !== 'boolean') server.hmr = { ...(server.hmr ?? {}), host: '127.0.0.1' }
     },
+  },
+  eslint: {
+    config: { stylistic: true },
   },
 })

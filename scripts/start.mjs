@@ -48,7 +48,7 @@ const server = background('node', ['.output/server/index.mjs'], {
   }),
 })
 server.on('exit', code => process.exit(code ?? 0))
-for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => { server.kill('SIGTERM') })
+for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => server.kill('SIGTERM'))
 
 await waitForHttp(`${appUrl}/api/health`)
 const pad = s => s.padEnd(12)

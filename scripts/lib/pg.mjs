@@ -139,8 +139,7 @@ export async function startCluster(p) {
   const res = runPg(bin, 'pg_ctl', ['-D', dir, '-l', logFile, '-w', '-t', '30', 'start'], { stdio: 'pipe' })
   if (res.status !== 0 && !isReady(bin, p)) {
     console.error(res.stdout, res.stderr)
-    try { console.error(readFileSync(logFile, 'utf8').split('\n').slice(-20).join('\n')) }
-    catch { /* no log yet */ }
+    if (existsSync(logFile)) console.error(readFileSync(logFile, 'utf8').split('\n').slice(-20).join('\n'))
     throw new Error('PostgreSQL did not start')
   }
   for (let i = 0; i < 60 && !isReady(bin, p); i++) await sleep(250)
@@ -170,8 +169,12 @@ export function removeCluster(p) {
 async function withClient(url, fn) {
   const client = new pg.Client({ connectionString: url })
   await client.connect()
-  try { return await fn(client) }
-  finally { await client.end() }
+  try {
+    return await fn(client)
+  }
+  finally {
+    await client.end()
+  }
 }
 
 const ident = s => `"${s.replaceAll('"', '""')}"`

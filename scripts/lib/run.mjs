@@ -63,7 +63,9 @@ export async function waitForHttp(url, timeoutMs = 30_000) {
 /** Start a long-running child; it dies with us. */
 export function background(cmd, args, opts = {}) {
   const child = spawn(cmd, args, { cwd: root, stdio: 'inherit', ...opts })
-  const stop = () => { if (child.exitCode === null) child.kill('SIGTERM') }
+  const stop = () => {
+    if (child.exitCode === null) child.kill('SIGTERM')
+  }
   process.on('exit', stop)
   return child
 }

@@ -18,8 +18,12 @@ export default defineEventHandler((event) => {
     const origin = getRequestHeader(event, 'origin')
     if (origin && origin !== 'null') {
       let host: string | null = null
-      try { host = new URL(origin).host }
-      catch { host = null }
+      try {
+        host = new URL(origin).host
+      }
+      catch {
+        host = null
+      }
       if (host !== getRequestHost(event, { xForwardedHost: false })) {
         throw createError({ statusCode: 403, statusMessage: 'Cross-site request refused' })
       }

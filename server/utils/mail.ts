@@ -10,7 +10,7 @@ function useTransport(): Transporter {
     transport = nodemailer.createTransport({
       host: c.smtpHost,
       port: Number(c.smtpPort),
-      secure: c.smtpSecure === true || c.smtpSecure === 'true',
+      secure: c.smtpSecure === true, // NUXT_SMTP_SECURE=true arrives parsed as a boolean
       auth: c.smtpUser ? { user: c.smtpUser, pass: c.smtpPass } : undefined,
       // the local catcher has no certificate; a provider on 587 upgrades with STARTTLS
       ignoreTLS: c.smtpHost === '127.0.0.1' || c.smtpHost === 'localhost',
@@ -28,4 +28,3 @@ export async function sendMail(mail: OutgoingMail) {
   const c = useRuntimeConfig()
   return useTransport().sendMail({ from: c.mailFrom, ...mail })
 }
-

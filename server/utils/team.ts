@@ -16,4 +16,3 @@ export async function findMembership(f: FirmScope, id: string) {
   if (!m) notFound()
   return m
 }
-

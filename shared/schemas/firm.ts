@@ -26,8 +26,8 @@ export const firmSettingsSchema = z.object({
   dayRatePence: z.int({ error: 'Enter the day rate in pounds.' }).min(0, { error: 'The day rate cannot be negative.' }).max(10_000_00, { error: 'That day rate looks too high.' }),
   paymentTermsDays: z.int({ error: 'Enter the payment terms in days.' }).min(0, { error: 'Payment terms cannot be negative.' }).max(120, { error: 'Keep payment terms to 120 days or fewer.' }),
   invoicePrefix: z.string().trim().max(12, { error: 'Keep the prefix to 12 characters.' }).regex(/^[A-Z0-9/-]*$/i, { error: 'Use letters, digits, - or / only.' }),
-}).superRefine((v, ctx) => {
-  if (v.vatRegistered && !v.vatNumber) ctx.addIssue({ code: 'custom', path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.' })
-  if (v.cisStatus !== 'not-registered' && !v.utr) ctx.addIssue({ code: 'custom', path: ['utr'], message: 'CIS registration needs the firm\'s UTR.' })
 })
+  // `when` runs these even while other fields have errors, so every problem shows at once
+  .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: () => true })
+  .refine(v => !(v.cisStatus !== 'not-registered' && !v.utr), { path: ['utr'], message: 'CIS registration needs the firm\'s UTR.', when: () => true })
 export type FirmSettingsInput = z.infer<typeof firmSettingsSchema>

@@ -72,8 +72,12 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
-  child.stdout!.on('data', (d) => { out += d })
-  child.stderr!.on('data', (d) => { out += d })
+  child.stdout!.on('data', (d) => {
+    out += d
+  })
+  child.stderr!.on('data', (d) => {
+    out += d
+  })
 
   const until = Date.now() + 30_000
   for (;;) {

@@ -26,7 +26,9 @@ export class Client {
     }
     const text = await res.text()
     let parsed: any = text
-    try { parsed = text ? JSON.parse(text) : null }
+    try {
+      parsed = text ? JSON.parse(text) : null
+    }
     catch { /* not JSON */ }
     return { status: res.status, body: parsed, headers: res.headers }
   }

@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
 
   const retryAfter = await signInRetryAfter(input.email, ip)
   if (retryAfter > 0) {
-    setResponseHeader(event, 'Retry-After', String(retryAfter))
+    setResponseHeader(event, 'Retry-After', retryAfter)
     throw createError({ statusCode: 429, statusMessage: 'Too many attempts', data: { retryAfter, message: `Too many attempts. Try again in ${Math.ceil(retryAfter / 60)} minutes.` } })
   }
 

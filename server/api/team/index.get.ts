@@ -1,4 +1,4 @@
-import { and, asc, eq, gt, isNull } from 'drizzle-orm'
+import { asc, eq, gt, isNull } from 'drizzle-orm'
 import { invitations, memberships, users } from '../../db/schema'
 
 /** The firm's people and the invitations still open. Owner only. */

@@ -1,4 +1,4 @@
-import { and, eq, isNull, sql } from 'drizzle-orm'
+import { eq, isNull, sql } from 'drizzle-orm'
 import { firms, invitations, memberships, users } from '../../../db/schema'
 import { inviteSchema } from '#shared/schemas/auth'
 import { ROLE_LABELS, ROLE_SUMMARIES } from '#shared/utils/roles'
