@@ -185,9 +185,19 @@ export async function screenshot(page: Page, name: string) {
   return path
 }
 
-/** What a person's browser went through: no uncaught errors and nothing fetched off the machine. */
+/**
+ * Script errors the page logged. Vue hands errors in rendering to its error handler, which logs
+ * them instead of throwing, so they never reach pageerror. A refused request ("Failed to load
+ * resource: ... 401") is the app working as meant and is left out.
+ */
+export function scriptErrors(person: Person): string[] {
+  return person.consoleErrors.filter(m => !/^Failed to load resource\b/.test(m))
+}
+
+/** What a person's browser went through: no script errors and nothing fetched off the machine. */
 export function expectCleanRun(person: Person) {
   expect(person.pageErrors, 'uncaught errors in the page').toEqual([])
+  expect(scriptErrors(person), 'script errors logged in the page').toEqual([])
   expect(person.offHostRequests, 'requests to hosts other than the app').toEqual([])
 }
 
