@@ -40,7 +40,7 @@ export default defineNuxtConfig({
     viewer: false,
   },
   // SETWELL_OUTPUT_DIR lets two builds live side by side (a second checkout of the tests); normally .output
-  ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}/.nuxt` } : {}),
+  ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}-nuxt` } : {}),
   nitro: {
     output: process.env.SETWELL_OUTPUT_DIR ? { dir: process.env.SETWELL_OUTPUT_DIR } : undefined,
   },

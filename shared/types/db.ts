@@ -7,3 +7,12 @@ export type Membership = typeof memberships.$inferSelect
 export type Invitation = Omit<typeof invitations.$inferSelect, 'tokenHash'>
 export type Session = typeof sessions.$inferSelect
 export type AuditEntry = typeof auditLog.$inferSelect
+
+/** What an invitation link shows before it is accepted (GET /api/invitations/:token). */
+export interface InvitationPreview {
+  firmName: string
+  email: string
+  role: Membership['role']
+  expiresAt: string
+  hasAccount: boolean
+}

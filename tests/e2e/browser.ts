@@ -94,13 +94,10 @@ export async function openPerson(appUrl: string, options: OpenOptions = {}): Pro
  * Nuxt renders on the server first; typing before Vue has hydrated the page is lost (or the form
  * submits natively). Wait until the app is mounted and hydration is over. Call after every full
  * page load (goto, reload); client-side navigations need nothing.
- * The app has no hook of its own for this, so this reads the Nuxt app on the root element.
+ * The app marks <html data-hydrated> when it is ready (app/plugins/hydrated.client.ts).
  */
 export async function waitForHydration(page: Page) {
-  await page.waitForFunction(() => {
-    const app = (document.querySelector('#__nuxt') as any)?.__vue_app__
-    return Boolean(app?.$nuxt && !app.$nuxt.isHydrating)
-  }, undefined, { timeout: WAIT_MS })
+  await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached', timeout: WAIT_MS })
 }
 
 export async function visit(page: Page, url: string) {

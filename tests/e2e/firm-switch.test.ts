@@ -11,7 +11,7 @@ describe('switching firm', () => {
     const priya = await e2e.open({ desktop: true })
     const { page } = priya
     await signInToDashboard(page, e2e.url, ACCOUNTANT.email, ACCOUNTANT.password)
-    await expectText(page.getByTestId('dashboard-heading'), `Morning, ${firstName(ACCOUNTANT)}`)
+    await expectText(page.getByTestId('dashboard-heading'), `Hello, ${firstName(ACCOUNTANT)}`)
     await expectVisible(page.getByTestId('dashboard-accountant'))
     // an accountant reads; no Team, no Firm (here in the sidebar)
     expect(await menuLabels(page)).toEqual(['Today', 'Account'])

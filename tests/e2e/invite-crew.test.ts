@@ -33,7 +33,7 @@ describe('inviting a crew member', () => {
     expect(await form.getByRole('radio').count()).toBe(4)
     await form.getByRole('button', { name: 'Send invitation' }).click()
 
-    await expectText(owner.getByRole('status'), `Invitation sent to ${email}.`)
+    await expectText(owner.getByRole('status').filter({ hasText: 'Invitation sent' }), `Invitation sent to ${email}.`)
     const pending = owner.getByTestId('pending-invitation').filter({ hasText: email })
     await expectText(pending, /Crew · link works until/)
     expect(await form.getByLabel('Their e-mail').inputValue()).toBe('')
@@ -60,7 +60,7 @@ describe('inviting a crew member', () => {
     await invitee.getByRole('button', { name: `Join ${FIRM_NAME}` }).click()
 
     await expectPath(invitee, '/')
-    await expectText(invitee.getByTestId('dashboard-heading'), 'Morning, Tamsin')
+    await expectText(invitee.getByTestId('dashboard-heading'), 'Hello, Tamsin')
     await expectVisible(invitee.getByTestId('dashboard-crew'))
     await expectText(invitee.getByTestId('dashboard-crew'), 'Your work today')
     expect(await invitee.getByTestId('dashboard-owner').count()).toBe(0)

@@ -18,7 +18,7 @@ describe('sign in', () => {
 
     await signIn(page, e2e.url, OWNER.email, OWNER.password)
     await expectPath(page, '/')
-    await expectText(page.getByTestId('dashboard-heading'), `Morning, ${firstName(OWNER)}`)
+    await expectText(page.getByTestId('dashboard-heading'), `Hello, ${firstName(OWNER)}`)
     await expectVisible(page.getByTestId('dashboard-owner'))
     expect(await page.getByTestId('dashboard-crew').count()).toBe(0)
     await expectText(page.getByText(`${FIRM_NAME} · Owner`), FIRM_NAME)
@@ -55,7 +55,7 @@ describe('sign in', () => {
     await page.getByLabel('Password').fill(OWNER.password)
     await page.getByRole('button', { name: 'Sign in' }).click()
     await expectPath(page, '/')
-    await expectText(page.getByTestId('dashboard-heading'), `Morning, ${firstName(OWNER)}`)
+    await expectText(page.getByTestId('dashboard-heading'), `Hello, ${firstName(OWNER)}`)
     expectCleanRun(someone)
   })
 })

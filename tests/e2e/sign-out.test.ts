@@ -11,7 +11,7 @@ describe('signing out', () => {
     const jess = await e2e.open()
     const { page, context } = jess
     await signInToDashboard(page, e2e.url, OWNER.email, OWNER.password)
-    await expectText(page.getByTestId('dashboard-heading'), `Morning, ${firstName(OWNER)}`)
+    await expectText(page.getByTestId('dashboard-heading'), `Hello, ${firstName(OWNER)}`)
     const session = (await context.cookies(e2e.url)).find(c => c.name === 'setwell-session')
     expect(session, 'a session cookie after signing in').toBeDefined()
 
