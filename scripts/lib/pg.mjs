@@ -69,7 +69,7 @@ export function clusterDir(p) {
 function runPg(bin, tool, args, opts = {}) {
   const cmd = join(bin, tool)
   const res = isRoot
-    ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args], { encoding: 'utf8', ...opts })
+    ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args], { encoding: 'utf8', cwd: '/', ...opts })
     : spawnSync(cmd, args, { encoding: 'utf8', ...opts })
   return res
 }

@@ -128,8 +128,12 @@ describe('roles', () => {
     ]
     for (const [what, , call] of denied) expect((await call()).status, what).toBe(403)
 
-    // and what they may do
-    expect((await crew.get('/api/firm')).status).toBe(200)
+    // and what they may do; crew see the firm but never its money
+    const crewView = await crew.get('/api/firm')
+    expect(crewView.status).toBe(200)
+    expect(crewView.body.tradingName).toBe(firm.tradingName)
+    expect(crewView.body).not.toHaveProperty('dayRatePence')
+    expect((await accountant.get('/api/firm')).body).toHaveProperty('dayRatePence')
     expect((await accountant.get('/api/audit')).status).toBe(200)
     expect((await owner.patch('/api/firm', settings)).status).toBe(200)
   })
