@@ -21,12 +21,15 @@ export const firms = pgTable('firms', {
   dayRatePence: integer().notNull().default(0),
   paymentTermsDays: integer().notNull().default(30),
   invoicePrefix: text().notNull().default('INV-'),
+  /** The secret part of the firm's public enquiry form link; the owner can reset it. */
+  enquiryFormKey: text().notNull().unique('firms_enquiry_form_key_unique').default(sql`replace(gen_random_uuid()::text, '-', '')`),
   ...timestamps,
 }, () => [
   // A firm is visible when it is the current firm, or one the signed-in person belongs to (the firm switcher).
   pgPolicy('firms_visible', {
     for: 'select',
-    using: sql`id = app_firm_id() or id in (select m.firm_id from memberships m where m.user_id = app_user_id())`,
+    // ...and the firm behind a public enquiry form link, to someone holding that link (app.enquiry_form_key)
+    using: sql`id = app_firm_id() or id in (select m.firm_id from memberships m where m.user_id = app_user_id()) or enquiry_form_key = nullif(current_setting('app.enquiry_form_key', true), '')`,
   }),
   pgPolicy('firms_write', {
     for: 'all',

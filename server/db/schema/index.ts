@@ -2,3 +2,5 @@
 export * from './firms'
 export * from './users'
 export * from './team'
+export * from './ledger'
+export * from './visits'
