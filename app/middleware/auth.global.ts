@@ -1,9 +1,12 @@
 import type { Permission } from '#shared/utils/roles'
 
 // Convenience only: sends signed-out visitors to the sign-in page. The server protects the data.
-const PUBLIC = ['/sign-in', '/sign-up', '/invite/']
+const PUBLIC = ['/sign-in', '/sign-up', '/invite/', '/enquire/']
 
 export default defineNuxtRouteMiddleware(async (to) => {
+  // an /api path no server route answered reaches the page renderer: it is a 404, not a sign-in page
+  // (a catch-all server route would do it too, but it makes Nitro's typed fetch paths too deep to check)
+  if (to.path.startsWith('/api/')) return abortNavigation(createError({ statusCode: 404, statusMessage: 'Not found' }))
   const isPublic = PUBLIC.some(p => to.path === p || (p.endsWith('/') && to.path.startsWith(p)))
   const shell = useShellStore()
   if (!shell.loaded) await shell.load()

@@ -1,11 +1,26 @@
 import type { Permission } from '#shared/utils/roles'
 
-export interface NavItem { to: string, label: string, icon: 'today' | 'team' | 'firm' | 'account', permission?: Permission }
+export type NavIcon = 'today' | 'enquiries' | 'visits' | 'customers' | 'team' | 'firm' | 'account' | 'settings'
+export interface NavItem { to: string, label: string, icon: NavIcon, permission?: Permission, anyOf?: Permission[] }
 
 /** The sections of the shell. Each shows only to roles with its permission (the server checks again). */
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Today', icon: 'today' },
-  { to: '/team', label: 'Team', icon: 'team', permission: 'team:manage' },
-  { to: '/firm', label: 'Firm', icon: 'firm', permission: 'firm:manage' },
-  { to: '/account', label: 'Account', icon: 'account' },
+  { to: '/enquiries', label: 'Enquiries', icon: 'enquiries', permission: 'ledger:write' },
+  { to: '/visits', label: 'Visits', icon: 'visits', anyOf: ['ledger:write', 'jobs:read-assigned'] },
+  { to: '/customers', label: 'Customers', icon: 'customers', permission: 'customers:read' },
+  { to: '/settings', label: 'Settings', icon: 'settings' },
 ]
+
+/** What Settings holds, by permission. */
+export const SETTINGS_ITEMS: NavItem[] = [
+  { to: '/firm', label: 'Firm', icon: 'firm', permission: 'firm:manage' },
+  { to: '/team', label: 'Team', icon: 'team', permission: 'team:manage' },
+  { to: '/account', label: 'Your account', icon: 'account' },
+]
+
+export function navAllows(item: NavItem, allows: (p: Permission) => boolean) {
+  if (item.permission && !allows(item.permission)) return false
+  if (item.anyOf && !item.anyOf.some(allows)) return false
+  return true
+}

@@ -26,6 +26,7 @@ export const PERMISSIONS = [
   'firm:read', // see the firm's name and address
   'firm:manage', // change firm settings
   'team:manage', // invite, change roles, remove people
+  'customers:read', // customers and their billing details (read only)
   'ledger:write', // customers, enquiries, visits, quotes
   'jobs:read-all', // every job in the firm
   'jobs:read-assigned', // the jobs a person is put on
@@ -39,9 +40,9 @@ export type Permission = (typeof PERMISSIONS)[number]
 
 const GRANTS: Record<Role, readonly Permission[]> = {
   owner: PERMISSIONS,
-  office: ['firm:read', 'ledger:write', 'jobs:read-all', 'jobs:read-assigned', 'work:log', 'money:read', 'money:write', 'exports:download'],
+  office: ['firm:read', 'customers:read', 'ledger:write', 'jobs:read-all', 'jobs:read-assigned', 'work:log', 'money:read', 'money:write', 'exports:download'],
   crew: ['firm:read', 'jobs:read-assigned', 'work:log'],
-  accountant: ['firm:read', 'money:read', 'exports:download', 'audit:read'],
+  accountant: ['firm:read', 'customers:read', 'money:read', 'exports:download', 'audit:read'],
 }
 
 export function can(role: Role | null | undefined, permission: Permission): boolean {

@@ -13,8 +13,8 @@ describe('switching firm', () => {
     await signInToDashboard(page, e2e.url, ACCOUNTANT.email, ACCOUNTANT.password)
     await expectText(page.getByTestId('dashboard-heading'), `Hello, ${firstName(ACCOUNTANT)}`)
     await expectVisible(page.getByTestId('dashboard-accountant'))
-    // an accountant reads; no Team, no Firm (here in the sidebar)
-    expect(await menuLabels(page)).toEqual(['Today', 'Account'])
+    // an accountant reads customers; no enquiries or visits to run (here in the sidebar)
+    expect(await menuLabels(page)).toEqual(['Today', 'Customers', 'Settings'])
 
     const select = page.getByTestId('firm-switch')
     await expectVisible(select)

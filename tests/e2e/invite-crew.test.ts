@@ -18,11 +18,13 @@ describe('inviting a crew member', () => {
     const name = 'Tamsin Hollybrook'
     const password = 'hawk-and-trowel-77'
 
-    // the owner sends the invitation from Team
+    // the owner sends the invitation from Settings, Team
     const jess = await e2e.open()
     const owner = jess.page
     await signInToDashboard(owner, e2e.url, OWNER.email, OWNER.password)
-    await owner.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Team' }).click()
+    await owner.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Settings' }).click()
+    await expectPath(owner, '/settings')
+    await owner.getByRole('main').getByRole('link', { name: 'Team' }).click()
     await expectPath(owner, '/team')
     const form = owner.getByTestId('invite-form')
     await expectVisible(form)
@@ -66,14 +68,20 @@ describe('inviting a crew member', () => {
     expect(await invitee.getByTestId('dashboard-owner').count()).toBe(0)
     await expectText(invitee.getByText(`${FIRM_NAME} · Crew`), 'Crew')
 
-    // the crew's menu: Today and Account, no Team, no Firm
-    expect(await menuLabels(invitee)).toEqual(['Today', 'Account'])
+    // the crew's menu: Today, their visits and Settings; no enquiries or customers
+    expect(await menuLabels(invitee)).toEqual(['Today', 'Visits', 'Settings'])
     const nav = invitee.getByRole('navigation', { name: 'Sections' })
     await expectVisible(nav.getByRole('link', { name: 'Today' }))
-    await expectVisible(nav.getByRole('link', { name: 'Account' }))
-    expect(await nav.getByRole('link', { name: 'Team' }).count()).toBe(0)
-    expect(await nav.getByRole('link', { name: 'Firm' }).count()).toBe(0)
+    expect(await nav.getByRole('link', { name: 'Customers' }).count()).toBe(0)
+    expect(await nav.getByRole('link', { name: 'Enquiries' }).count()).toBe(0)
     await screenshot(invitee, 'crew-dashboard')
+    // and Settings holds only their own account: no Team, no Firm
+    await nav.getByRole('link', { name: 'Settings' }).click()
+    await expectPath(invitee, '/settings')
+    const settings = invitee.getByRole('main')
+    await expectVisible(settings.getByRole('link', { name: 'Your account' }))
+    expect(await settings.getByRole('link', { name: 'Team' }).count()).toBe(0)
+    expect(await settings.getByRole('link', { name: 'Firm' }).count()).toBe(0)
 
     // typing the address of Team does not get crew in either
     await visit(invitee, `${e2e.url}/team`)

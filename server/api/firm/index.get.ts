@@ -1,12 +1,16 @@
 import { eq } from 'drizzle-orm'
 import { firms } from '../../db/schema'
 
-/** The current firm's details. Roles that never see money (crew) get them without the day rate. */
+/** The current firm's details, less what the role may not see. */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'firm:read')
   const [firm] = await withFirm(auth, f => f.tx.select().from(firms).where(eq(firms.id, f.firmId)))
   if (!firm) notFound()
-  if (can(auth.role, 'money:read')) return firm
-  const { dayRatePence: _hidden, ...rest } = firm
-  return rest
+  // crew see the firm, but not its money; the enquiry form link is for those who run the ledger
+  const { dayRatePence, enquiryFormKey, ...rest } = firm
+  return {
+    ...rest,
+    ...(can(auth.role, 'money:read') ? { dayRatePence } : {}),
+    ...(can(auth.role, 'ledger:write') ? { enquiryFormKey } : {}),
+  }
 })

@@ -1,0 +1,29 @@
+import { asc, eq, gte, lt } from 'drizzle-orm'
+import { customers, sites, users, visits } from '../../db/schema'
+import { visitListQuery } from '#shared/schemas/visit'
+
+/** Visits in a period (default: from now on), soonest first. Crew see only their own. */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event)
+  if (!can(auth.role, 'ledger:write') && !can(auth.role, 'jobs:read-assigned')) throw createError({ statusCode: 403, statusMessage: 'Your role does not allow this' })
+  const q = await readQueryWith(event, visitListQuery)
+  const crewOnly = !can(auth.role, 'jobs:read-all')
+  return withFirm(auth, f => f.tx.select({
+    id: visits.id,
+    startsAt: visits.startsAt,
+    durationMinutes: visits.durationMinutes,
+    status: visits.status,
+    customer: { id: customers.id, name: customers.name },
+    site: { id: sites.id, line1: sites.line1, town: sites.town, postcode: sites.postcode },
+    visitor: { id: users.id, name: users.name },
+  }).from(visits)
+    .innerJoin(customers, f.where(customers, eq(customers.id, visits.customerId)))
+    .innerJoin(sites, f.where(sites, eq(sites.id, visits.siteId)))
+    .leftJoin(users, eq(users.id, visits.visitorUserId))
+    .where(f.where(visits,
+      gte(visits.startsAt, new Date(q.from ?? Date.now() - 12 * 3600_000)),
+      q.to ? lt(visits.startsAt, new Date(q.to)) : undefined,
+      crewOnly ? eq(visits.visitorUserId, auth.userId) : undefined,
+    ))
+    .orderBy(asc(visits.startsAt)).limit(q.limit))
+})
