@@ -7,7 +7,8 @@ import { eq, sql } from 'drizzle-orm'
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import * as schema from '../server/db/schema'
-import { DEMO_FIRM, DEMO_PEOPLE, SECOND_FIRM } from './demo'
+import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, SECOND_FIRM } from './demo'
+import { seedVisit } from './visit'
 
 // the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
 const hash = new Hash(new Scrypt({}))
@@ -29,6 +30,31 @@ export async function seed(url: string): Promise<'seeded' | 'already'> {
       await tx.insert(schema.firms).values({ id: firmId, ...DEMO_FIRM })
       for (const p of DEMO_PEOPLE) await tx.insert(schema.memberships).values({ firmId, userId: userIds[p.key]!, role: p.role })
       await tx.insert(schema.auditLog).values({ firmId, actorUserId: userIds.owner, action: 'firm.created', entity: 'firm', entityId: firmId, detail: { seeded: true } })
+
+      // customers, sites and enquiries, each with its history
+      const customerIds: Record<string, { id: string, sites: string[] }> = {}
+      for (const { key, sites, ...c } of DEMO_CUSTOMERS) {
+        const [row] = await tx.insert(schema.customers).values({ firmId, ...c }).returning({ id: schema.customers.id })
+        const siteIds: string[] = []
+        for (const site of sites) {
+          const [s] = await tx.insert(schema.sites).values({ firmId, customerId: row!.id, ...site }).returning({ id: schema.sites.id })
+          siteIds.push(s!.id)
+        }
+        customerIds[key] = { id: row!.id, sites: siteIds }
+      }
+      const path = { 'new': [], 'visit-booked': ['visit-booked'], 'quoted': ['visit-booked', 'quoted'], 'won': ['visit-booked', 'quoted', 'won'], 'lost': ['lost'] } as const
+      let bookedEnquiry: { id: string, customerId: string, siteId: string } | null = null
+      for (const { customer, site, status, lostReason, ...e } of DEMO_ENQUIRIES as (typeof DEMO_ENQUIRIES[number] & { lostReason?: string })[]) {
+        const c = customerIds[customer]!
+        const [row] = await tx.insert(schema.enquiries).values({ firmId, customerId: c.id, siteId: c.sites[site]!, status, lostReason: lostReason ?? null, ...e }).returning({ id: schema.enquiries.id })
+        let from: typeof status | null = null
+        for (const to of ['new', ...path[status]] as const) {
+          await tx.insert(schema.enquiryEvents).values({ firmId, enquiryId: row!.id, fromStatus: from, toStatus: to, reason: to === 'lost' ? lostReason ?? null : null, byUserId: e.source === 'web-form' && to === 'new' ? null : userIds.office })
+          from = to
+        }
+        if (status === 'visit-booked') bookedEnquiry = { id: row!.id, customerId: c.id, siteId: c.sites[site]! }
+      }
+      if (bookedEnquiry) await seedVisit(tx, { firmId, ...bookedEnquiry, visitorUserId: userIds.owner! })
 
       const secondId = randomUUID()
       const { owner: _o, ...second } = SECOND_FIRM
