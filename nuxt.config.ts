@@ -26,6 +26,8 @@ export default defineNuxtConfig({
     smtpSecure: false,
     smtpUser: '',
     smtpPass: '',
+    /** Largest photo accepted (bytes): 413 beyond it. */
+    uploadMaxBytes: 15 * 1024 * 1024,
     session: {
       name: 'setwell-session',
       maxAge: 60 * 60 * 24 * 14,
