@@ -25,6 +25,7 @@ switch (cmd) {
     // Start over: the cluster and its secrets go; the next `npm start` creates and seeds afresh.
     removeCluster(p)
     rmSync(join(p.dataDir, 'secrets.json'), { force: true })
+    rmSync(join(p.dataDir, 'uploads'), { recursive: true, force: true })
     console.log('[db] removed the database; the next `npm start` creates and seeds a new one')
     break
   default:

@@ -38,7 +38,9 @@ try {
   await recreateDatabase(p)
   await bootstrap(p)
   await migrate(p)
-  run(bin('tsx'), ['seeds/index.ts'], { env: { ...process.env, NUXT_DATABASE_OWNER_URL: urls(p).owner } })
+  const storageDir = join(p.dataDir, 'uploads')
+  rmSync(storageDir, { recursive: true, force: true })
+  run(bin('tsx'), ['seeds/index.ts'], { env: { ...process.env, NUXT_DATABASE_OWNER_URL: urls(p).owner, NUXT_STORAGE_DIR: storageDir } })
 
   if (!flag('--no-checks')) {
     console.log('[test] lint')
@@ -60,6 +62,7 @@ try {
     SETWELL_TEST_OWNER_DATABASE_URL: urls(p).owner,
     SETWELL_TEST_SESSION_PASSWORD: s.sessionPassword,
     SETWELL_ARTEFACTS: artefacts,
+    SETWELL_TEST_STORAGE_DIR: storageDir,
   }
   const projects = projectArg ? projectArg.slice('--project='.length).split(',') : ['unit', 'api', 'e2e']
   let failed = false

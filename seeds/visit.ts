@@ -2,8 +2,9 @@
 import { randomUUID } from 'node:crypto'
 import type { NodePgDatabase } from 'drizzle-orm/node-postgres'
 import * as schema from '../server/db/schema'
+import { seedPhotos } from './photos'
 
-type Tx = Parameters<Parameters<NodePgDatabase<typeof schema>['transaction']>[0]>[0]
+export type Tx = Parameters<Parameters<NodePgDatabase<typeof schema>['transaction']>[0]>[0]
 
 export async function seedVisit(tx: Tx, o: { firmId: string, id: string, customerId: string, siteId: string, visitorUserId: string }) {
   const { firmId } = o
@@ -43,5 +44,6 @@ export async function seedVisit(tx: Tx, o: { firmId: string, id: string, custome
     { firmId, roomId: room!.id, surfaceAId: surfaces[0]!.id, surfaceBId: surfaces[2]!.id, kind: 'internal', lengthMm: 2400, returnWidthMm: null },
     { firmId, roomId: room!.id, surfaceAId: surfaces[0]!.id, surfaceBId: surfaces[4]!.id, kind: 'external', lengthMm: 3400, returnWidthMm: 220, needsBead: true, packedOut: true },
   ])
+  await seedPhotos(tx, { firmId, visitId: visit!.id, surfaceId: surfaces[0]!.id, uploadedBy: o.visitorUserId })
   return { visitId: visit!.id, surfaceIds: surfaces.map(s => s.id) }
 }

@@ -68,6 +68,8 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
       NUXT_APP_URL: url,
       NUXT_SMTP_HOST: '127.0.0.1',
       NUXT_SMTP_PORT: String(smtpPort),
+      // photos of the test run stay with the test database, not in the dev folder
+      ...(process.env.SETWELL_TEST_STORAGE_DIR ? { NUXT_STORAGE_DIR: process.env.SETWELL_TEST_STORAGE_DIR } : {}),
       ...extraEnv,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
