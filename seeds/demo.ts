@@ -51,3 +51,16 @@ export const DEMO_ENQUIRIES = [
   { customer: 'stonegate', site: 0, source: 'referral' as const, description: 'Barn conversion: board and skim two floors, reveals to eight windows.', preferredDates: 'February', status: 'quoted' as const },
   { customer: 'orchard', site: 0, source: 'web-form' as const, description: 'Patch the wall behind the counter where the old tiles came off.', preferredDates: '', status: 'lost' as const, lostReason: 'Did the work themselves' },
 ]
+
+/** The demo firm's rates (demo figures, in the range DOMAIN.md gives for demo data only). */
+export const DEMO_PRICE_BOOK = {
+  skimWallsPerM2Pence: 18_00,
+  skimCeilingsPerM2Pence: 21_00,
+  undercoatPerM2Pence: 14_00,
+  revealsPerLmPence: 9_00,
+  beadsPerLmPence: 6_00,
+  scrimPerLmPence: 2_00,
+  materialsMarkupPercent: 15,
+  minDeductCm2: 5000,
+  m2PerDay: 30,
+}

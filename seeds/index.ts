@@ -7,7 +7,7 @@ import { eq, sql } from 'drizzle-orm'
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import * as schema from '../server/db/schema'
-import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, SECOND_FIRM } from './demo'
+import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, DEMO_PRICE_BOOK, SECOND_FIRM } from './demo'
 import { seedVisit } from './visit'
 
 // the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
@@ -30,6 +30,8 @@ export async function seed(url: string): Promise<'seeded' | 'already'> {
       await tx.insert(schema.firms).values({ id: firmId, ...DEMO_FIRM })
       for (const p of DEMO_PEOPLE) await tx.insert(schema.memberships).values({ firmId, userId: userIds[p.key]!, role: p.role })
       await tx.insert(schema.auditLog).values({ firmId, actorUserId: userIds.owner, action: 'firm.created', entity: 'firm', entityId: firmId, detail: { seeded: true } })
+
+      await tx.insert(schema.priceBooks).values({ firmId, ...DEMO_PRICE_BOOK })
 
       // customers, sites and enquiries, each with its history
       const customerIds: Record<string, { id: string, sites: string[] }> = {}

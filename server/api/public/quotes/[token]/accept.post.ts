@@ -1,0 +1,38 @@
+import { eq, sql } from 'drizzle-orm'
+import { z } from 'zod'
+import { quoteVersions } from '../../../../db/schema'
+
+const body = z.object({ name: z.string({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
+
+/** Public: the customer accepts, typing their name; the time and address are kept. Once only (409 after). */
+export default defineEventHandler(async (event) => {
+  const { token } = await readParamsWith(event, quoteTokenParam)
+  const { name } = await readBodyWith(event, body)
+  const ip = getRequestIP(event) ?? ''
+  const result = await useDb().transaction(async (tx) => {
+    const { f, quote, version } = await openQuoteByToken(tx, token, true)
+    if (version.status !== 'sent') {
+      throw createError({ statusCode: 409, statusMessage: 'Already answered', data: { message: version.status === 'accepted' ? 'You have already accepted this quote. Thank you.' : version.status === 'superseded' ? 'This quote has been replaced by a newer version: please use the latest link.' : 'This quote was declined.' } })
+    }
+    await tx.update(quoteVersions).set({ status: 'accepted', respondedAt: sql`now()`, acceptedName: name, respondedIp: ip })
+      .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    if (quote.enquiryId) {
+      // the enquiry follows: quoted (if it was not yet), then won
+      let status = (await findEnquiry(f, quote.enquiryId, true)).status
+      if (status !== 'quoted' && canMoveEnquiry(status, 'quoted')) {
+        await moveEnquiry(f, quote.enquiryId, 'quoted', null)
+        status = 'quoted'
+      }
+      if (canMoveEnquiry(status, 'won')) await moveEnquiry(f, quote.enquiryId, 'won', null)
+    }
+    await f.audit('quote.accepted', 'quote', quote.id, { version: version.version, name })
+    const [v] = await tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f) }
+  })
+  await sendMail({
+    to: result.to.join(', '),
+    subject: `Quote ${result.view.reference} accepted by ${result.view.customer.name}`,
+    text: `${name} accepted quote ${result.view.reference} (version ${result.view.version}) for ${formatPence(result.view.totals.grossPence ?? 0)} at ${new Date().toISOString()}.`,
+  }).catch(err => console.error('[mail] acceptance notice not sent:', err.message))
+  return result.view
+})

@@ -1,0 +1,30 @@
+import { eq, sql } from 'drizzle-orm'
+import { z } from 'zod'
+import { quoteVersions } from '../../../../db/schema'
+
+const body = z.object({ reason: z.string({ error: 'Tell the firm why, so they can do better.' }).trim().min(2, { error: 'Tell the firm why (a few words is fine).' }).max(1000) })
+
+/** Public: the customer declines with a reason. Once only (409 after). */
+export default defineEventHandler(async (event) => {
+  const { token } = await readParamsWith(event, quoteTokenParam)
+  const { reason } = await readBodyWith(event, body)
+  const result = await useDb().transaction(async (tx) => {
+    const { f, quote, version } = await openQuoteByToken(tx, token, true)
+    if (version.status !== 'sent') throw createError({ statusCode: 409, statusMessage: 'Already answered', data: { message: 'This quote has already been answered.' } })
+    await tx.update(quoteVersions).set({ status: 'declined', respondedAt: sql`now()`, declineReason: reason, respondedIp: getRequestIP(event) ?? '' })
+      .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    if (quote.enquiryId) {
+      const e = await findEnquiry(f, quote.enquiryId, true)
+      if (canMoveEnquiry(e.status, 'lost')) await moveEnquiry(f, quote.enquiryId, 'lost', `Quote declined: ${reason}`)
+    }
+    await f.audit('quote.declined', 'quote', quote.id, { version: version.version })
+    const [v] = await tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f) }
+  })
+  await sendMail({
+    to: result.to.join(', '),
+    subject: `Quote ${result.view.reference} declined by ${result.view.customer.name}`,
+    text: `${result.view.customer.name} declined quote ${result.view.reference}: ${reason}`,
+  }).catch(err => console.error('[mail] decline notice not sent:', err.message))
+  return result.view
+})

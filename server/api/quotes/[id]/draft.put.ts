@@ -1,0 +1,24 @@
+import { eq, sql } from 'drizzle-orm'
+import { quoteVersions } from '../../../db/schema'
+import { quoteVersionSchema } from '#shared/schemas/quote'
+import { idParam } from '#shared/schemas/common'
+
+/** Change the draft: lines, pricing, VAT, validity, terms. A sent version is never edited (409): revise it. */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event, 'ledger:write')
+  const { id } = await readParamsWith(event, idParam)
+  const input = await readBodyWith(event, quoteVersionSchema)
+  return withFirm(auth, async (f) => {
+    const quote = await findQuote(f, id, true)
+    const version = await currentVersion(f, quote, true)
+    if (version.status !== 'draft') {
+      throw createError({ statusCode: 409, statusMessage: 'Quote already sent', data: { message: 'This version has been sent, so it stays as it is. Make a revision to change it.' } })
+    }
+    const { lines, ...rest } = input
+    await f.tx.update(quoteVersions).set({ ...rest, updatedAt: sql`now()` }).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    await saveLines(f, version.id, lines)
+    await refreshTotals(f, version.id)
+    await f.audit('quote.draft-saved', 'quote', id, { version: version.version })
+    return quoteDetail(f, id)
+  })
+})

@@ -1,0 +1,23 @@
+import { eq, sql } from 'drizzle-orm'
+import { quotes, quoteVersions } from '../../../db/schema'
+import { idParam } from '#shared/schemas/common'
+
+/** Start the next version from a sent or declined one (the sent one stays as the customer saw it). */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event, 'ledger:write')
+  const { id } = await readParamsWith(event, idParam)
+  return withFirm(auth, async (f) => {
+    const quote = await findQuote(f, id, true)
+    const version = await currentVersion(f, quote, true)
+    if (version.status === 'draft') throw createError({ statusCode: 409, statusMessage: 'Already a draft', data: { message: 'The current version is still a draft: change it directly.' } })
+    if (version.status === 'accepted') throw createError({ statusCode: 409, statusMessage: 'Already accepted', data: { message: 'The customer accepted this quote; it is not revised.' } })
+    const lines = await versionLines(f, version.id)
+    const { id: _id, firmId: _f, version: n, status: _s, sentAt: _sa, tokenHash: _th, tokenExpiresAt: _te, respondedAt: _ra, acceptedName: _an, respondedIp: _ri, declineReason: _dr, createdAt: _c, updatedAt: _u, ...content } = version
+    const [next] = await f.tx.insert(quoteVersions).values(f.values({ ...content, version: n + 1, status: 'draft' as const, createdBy: auth.userId })).returning()
+    await saveLines(f, next!.id, lines.map(({ id: _l, firmId: _lf, versionId: _v, ...l }) => l))
+    await refreshTotals(f, next!.id)
+    await f.tx.update(quotes).set({ currentVersion: n + 1, updatedAt: sql`now()` }).where(f.where(quotes, eq(quotes.id, id)))
+    await f.audit('quote.revised', 'quote', id, { version: n + 1 })
+    return quoteDetail(f, id)
+  })
+})

@@ -1,0 +1,53 @@
+import { and, eq, ne, sql } from 'drizzle-orm'
+import { customers, enquiries, quoteVersions } from '../../../db/schema'
+import { idParam } from '#shared/schemas/common'
+
+/**
+ * Send the draft: it becomes the version the customer sees, can no longer change, and gets a
+ * link (an unguessable token, only its hash kept, expiring with the quote). Earlier sent
+ * versions are superseded; the enquiry moves to "quoted".
+ */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event, 'ledger:write')
+  const { id } = await readParamsWith(event, idParam)
+  const token = newToken()
+  const sent = await withFirm(auth, async (f) => {
+    const quote = await findQuote(f, id, true)
+    const version = await currentVersion(f, quote, true)
+    if (version.status !== 'draft') throw createError({ statusCode: 409, statusMessage: 'Already sent', data: { message: 'This version has already been sent.' } })
+    const lines = await versionLines(f, version.id)
+    if (!lines.length) throw fieldError({ lines: 'Add at least one line before sending.' })
+    const [customer] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
+    if (!customer!.email) throw fieldError({ email: `${customer!.name} has no e-mail address: add one on their page first.` })
+    const expires = new Date(`${version.validUntil}T23:59:59Z`)
+    if (expires.getTime() < Date.now()) throw fieldError({ validUntil: 'The quote would already have expired: pick a later date.' })
+    const totals = await refreshTotals(f, version.id)
+    await f.tx.update(quoteVersions).set({ status: 'superseded' })
+      .where(f.where(quoteVersions, eq(quoteVersions.quoteId, id), eq(quoteVersions.status, 'sent'), ne(quoteVersions.id, version.id)))
+    await f.tx.update(quoteVersions).set({ status: 'sent', sentAt: sql`now()`, tokenHash: hashToken(token), tokenExpiresAt: expires })
+      .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    if (quote.enquiryId) {
+      const [e] = await f.tx.select({ status: enquiries.status }).from(enquiries).where(f.where(enquiries, and(eq(enquiries.id, quote.enquiryId))))
+      if (e && canMoveEnquiry(e.status, 'quoted')) await moveEnquiry(f, quote.enquiryId, 'quoted', null)
+    }
+    await f.audit('quote.sent', 'quote', id, { version: version.version, totalPence: totals.grossPence })
+    const detail = await quoteDetail(f, id)
+    return { detail, customer: customer!, totals, validUntil: version.validUntil }
+  })
+
+  const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/q/${token}`
+  await sendMail({
+    to: sent.customer.email,
+    subject: `Your quote ${sent.detail.reference} from ${sent.detail.firmName}`,
+    text: [
+      `Hello ${sent.customer.contactName || sent.customer.name},`,
+      '',
+      `${sent.detail.firmName} has sent you quote ${sent.detail.reference} for ${formatPence(sent.totals.grossPence)}${sent.totals.reverseChargeVatPence ? ' (reverse charge: you account for the VAT)' : ''}.`,
+      `It is good until ${sent.validUntil}. Open it, download it, and accept or decline it here:`,
+      link,
+      '',
+      'The link is for you only; please do not forward it.',
+    ].join('\n'),
+  })
+  return sent.detail
+})

@@ -1,0 +1,146 @@
+// The price book, the materials catalogue, and quotes with their versions and lines.
+// Money is integer pence; quantities are integers in the smallest unit (thousandths of the
+// unit: a quantity of 12.345 m² is 12345), so no float is ever stored.
+import { sql } from 'drizzle-orm'
+import { boolean, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { firmColumn, sameFirm, timestamps } from './common'
+import { firms } from './firms'
+import { customers, enquiries, sites } from './ledger'
+import { users } from './users'
+import { visits } from './visits'
+
+const firmPolicy = (name: string) => pgPolicy(`${name}_firm`, { for: 'all', using: sameFirm, withCheck: sameFirm })
+
+export const materialType = pgEnum('material_type', ['finish', 'bonding-undercoat', 'browning', 'bead', 'scrim', 'bonding-agent', 'other'])
+export const quotePricing = pgEnum('quote_pricing', ['measure', 'days', 'fixed'])
+export const quoteStatus = pgEnum('quote_status', ['draft', 'sent', 'accepted', 'declined', 'superseded'])
+export const lineKind = pgEnum('line_kind', ['labour', 'materials'])
+export const vatTreatment = pgEnum('vat_treatment', ['standard', 'reverse-charge', 'not-registered'])
+
+/** The firm's rates and rules for pricing by measure (one row per firm). */
+export const priceBooks = pgTable('price_books', {
+  firmId: firmColumn().primaryKey().references(() => firms.id, { onDelete: 'cascade' }),
+  skimWallsPerM2Pence: integer().notNull().default(0),
+  skimCeilingsPerM2Pence: integer().notNull().default(0),
+  undercoatPerM2Pence: integer().notNull().default(0),
+  revealsPerLmPence: integer().notNull().default(0),
+  beadsPerLmPence: integer().notNull().default(0),
+  scrimPerLmPence: integer().notNull().default(0),
+  materialsMarkupPercent: integer().notNull().default(0),
+  /** Voids up to this area are left in (0: deduct every opening; 5000 cm² = 0.5 m², the older rule). */
+  minDeductCm2: integer().notNull().default(0),
+  /** Reveals and strips up to this width are priced by the linear metre. */
+  narrowMaxMm: integer().notNull().default(300),
+  beadStockLengthsMm: jsonb().$type<number[]>().notNull().default([2500, 3000]),
+  beadWastePercent: integer().notNull().default(10),
+  materialsWastePercent: integer().notNull().default(10),
+  /** For the days estimate: square metres of skim one person finishes in a day (rule of thumb). */
+  m2PerDay: integer().notNull().default(30),
+  ...timestamps,
+}, () => [firmPolicy('price_books')]).enableRLS()
+
+/** The firm's materials: what a pack is, what it covers, what it costs. */
+export const materials = pgTable('materials', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  key: text().notNull(),
+  type: materialType().notNull(),
+  name: text().notNull(),
+  packLabel: text().notNull(),
+  /** m² per pack (in cm², so 10.5 m² is 105000) at atThicknessMm; or metres per pack (in mm) for beads and scrim. */
+  coverageCm2PerPack: integer(),
+  atThicknessMm: integer(),
+  coverageMmPerPack: integer(),
+  costPence: integer().notNull(),
+  supplier: text().notNull().default(''),
+  source: text().notNull().default(''),
+  active: boolean().notNull().default(true),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('materials_firm_key_unique').on(t.firmId, t.key),
+  firmPolicy('materials'),
+]).enableRLS()
+
+/** A quote for a customer's site; its content lives in versions (a sent version is never edited). */
+export const quotes = pgTable('quotes', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  number: integer().notNull(),
+  customerId: uuid().notNull(),
+  siteId: uuid(),
+  enquiryId: uuid(),
+  visitId: uuid(),
+  currentVersion: integer().notNull().default(1),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('quotes_firm_number_unique').on(t.firmId, t.number),
+  foreignKey({ name: 'quotes_customer_fk', columns: [t.firmId, t.customerId], foreignColumns: [customers.firmId, customers.id] }),
+  foreignKey({ name: 'quotes_site_fk', columns: [t.firmId, t.siteId], foreignColumns: [sites.firmId, sites.id] }),
+  foreignKey({ name: 'quotes_enquiry_fk', columns: [t.firmId, t.enquiryId], foreignColumns: [enquiries.firmId, enquiries.id] }).onDelete('set null'),
+  foreignKey({ name: 'quotes_visit_fk', columns: [t.firmId, t.visitId], foreignColumns: [visits.firmId, visits.id] }).onDelete('set null'),
+  index('quotes_customer_idx').on(t.firmId, t.customerId),
+  firmPolicy('quotes'),
+]).enableRLS()
+
+export const quoteVersions = pgTable('quote_versions', {
+  firmId: firmColumn(),
+  id: uuid().notNull().defaultRandom(),
+  quoteId: uuid().notNull(),
+  version: integer().notNull(),
+  status: quoteStatus().notNull().default('draft'),
+  pricing: quotePricing().notNull().default('measure'),
+  /** Estimated days in hundredths (2.5 days = 250), shown however the quote is priced. */
+  estimatedDaysX100: integer().notNull().default(0),
+  fixedPricePence: integer(),
+  vat: vatTreatment().notNull(),
+  vatRatePercent: integer().notNull().default(20),
+  cisRatePercent: integer(),
+  validUntil: text().notNull(),
+  terms: text().notNull().default(''),
+  notes: text().notNull().default(''),
+  cautions: jsonb().$type<string[]>().notNull().default([]),
+  /** The void rule and options the take-off used, shown on the quote. */
+  rules: jsonb().$type<Record<string, unknown>>().notNull().default({}),
+  /** The totals as computed when the version was last saved (shared/utils/tax.ts invoiceTotals). */
+  totals: jsonb().$type<Record<string, number>>().notNull().default({}),
+  sentAt: timestamp({ withTimezone: true }),
+  /** The customer's link: only its hash is kept; it expires. */
+  tokenHash: text(),
+  tokenExpiresAt: timestamp({ withTimezone: true }),
+  respondedAt: timestamp({ withTimezone: true }),
+  acceptedName: text(),
+  respondedIp: text(),
+  declineReason: text(),
+  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('quote_versions_quote_version_unique').on(t.firmId, t.quoteId, t.version),
+  unique('quote_versions_token_unique').on(t.tokenHash),
+  foreignKey({ name: 'quote_versions_quote_fk', columns: [t.firmId, t.quoteId], foreignColumns: [quotes.firmId, quotes.id] }).onDelete('cascade'),
+  // someone holding the customer's link sees only that version (app.quote_token_hash), as with invitations
+  pgPolicy('quote_versions_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.quote_token_hash', true), '')` }),
+  firmPolicy('quote_versions'),
+]).enableRLS()
+
+export const quoteLines = pgTable('quote_lines', {
+  firmId: firmColumn(),
+  id: uuid().notNull().defaultRandom(),
+  versionId: uuid().notNull(),
+  position: integer().notNull().default(0),
+  kind: lineKind().notNull(),
+  description: text().notNull(),
+  /** Thousandths of the unit (12.345 m² = 12345). */
+  quantityX1000: integer().notNull(),
+  unit: text().notNull(),
+  unitPence: integer().notNull(),
+  vatRatePercent: integer().notNull().default(20),
+  derivation: text().notNull().default(''),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  foreignKey({ name: 'quote_lines_version_fk', columns: [t.firmId, t.versionId], foreignColumns: [quoteVersions.firmId, quoteVersions.id] }).onDelete('cascade'),
+  index('quote_lines_version_idx').on(t.firmId, t.versionId, t.position),
+  firmPolicy('quote_lines'),
+]).enableRLS()

@@ -1,0 +1,64 @@
+import { and, eq, gt, inArray, sql } from 'drizzle-orm'
+import { z } from 'zod'
+import { customers, firms, memberships, quotes, quoteVersions, sites, users } from '../db/schema'
+
+export const quoteTokenParam = z.object({ token: z.string().regex(/^[\w-]{40,60}$/, { error: 'Not found.' }) })
+
+const GONE = 'This quote link has expired or is not right. Ask the firm to send it again.'
+
+/**
+ * The quote version behind a customer's link, inside a transaction: only that version is
+ * visible (app.quote_token_hash), then the transaction is scoped to its firm. 404 with a clear
+ * message for a wrong or expired link; nothing else about the firm is readable.
+ */
+export async function openQuoteByToken(tx: Tx, token: string, lock = false) {
+  const tokenHash = hashToken(token)
+  await tx.execute(sql`select set_config('app.quote_token_hash', ${tokenHash}, true)`)
+  const [found] = await tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id }).from(quoteVersions)
+    .where(and(eq(quoteVersions.tokenHash, tokenHash), inArray(quoteVersions.status, ['sent', 'accepted', 'declined', 'superseded']), gt(quoteVersions.tokenExpiresAt, new Date())))
+  if (!found) throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: GONE } })
+  await scopeTransaction(tx, found.firmId, null)
+  const f = new FirmScope(tx, found.firmId, null)
+  const q = tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, found.id)))
+  const [version] = lock ? await q.for('update') : await q
+  const [quote] = await tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, version!.quoteId)))
+  return { f, version: version!, quote: quote! }
+}
+
+/** What the customer sees: their quote and nothing else of the firm's. */
+export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferSelect, version: typeof quoteVersions.$inferSelect) {
+  const [firm] = await f.tx.select({ tradingName: firms.tradingName, addressLine1: firms.addressLine1, town: firms.town, postcode: firms.postcode, email: firms.email, phone: firms.phone, vatNumber: firms.vatNumber, vatRegistered: firms.vatRegistered })
+    .from(firms).where(eq(firms.id, f.firmId))
+  const [customer] = await f.tx.select({ name: customers.name }).from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
+  const [site] = quote.siteId ? await f.tx.select({ line1: sites.line1, town: sites.town, postcode: sites.postcode }).from(sites).where(f.where(sites, eq(sites.id, quote.siteId))) : []
+  const lines = await versionLines(f, version.id)
+  return {
+    reference: `Q-${String(quote.number).padStart(4, '0')}`,
+    version: version.version,
+    status: version.status,
+    firm: firm!,
+    customer: customer!,
+    site: site ?? null,
+    validUntil: version.validUntil,
+    pricing: version.pricing,
+    estimatedDaysX100: version.estimatedDaysX100,
+    vat: version.vat,
+    cisRatePercent: version.cisRatePercent,
+    terms: version.terms,
+    notes: version.notes,
+    cautions: version.cautions,
+    rules: version.rules,
+    totals: version.totals,
+    respondedAt: version.respondedAt,
+    acceptedName: version.acceptedName,
+    lines: lines.map(({ id: _i, firmId: _f, versionId: _v, ...l }) => l),
+  }
+}
+
+/** Who at the firm hears that a quote was accepted or declined. */
+export async function firmRecipients(f: FirmScope) {
+  const [firm] = await f.tx.select({ email: firms.email }).from(firms).where(eq(firms.id, f.firmId))
+  const people = await f.tx.select({ email: users.email }).from(memberships).innerJoin(users, eq(users.id, memberships.userId))
+    .where(f.where(memberships, inArray(memberships.role, ['owner', 'office'])))
+  return [...new Set([firm?.email, ...people.map(p => p.email)].filter(Boolean))] as string[]
+}

@@ -1,0 +1,74 @@
+import { asc, desc, eq, max, sql } from 'drizzle-orm'
+import { customers, firms, quoteLines, quotes, quoteVersions } from '../db/schema'
+import type { TaxLine } from '#shared/utils/tax'
+
+export const DRYING_CAUTION = 'Drying times are estimates: a skim coat needs about a week before decorating, longer for undercoats and in cold or damp rooms.'
+export const RULE_OF_THUMB = 'Quantities and materials are rules of thumb from the measurements; they are checked on the day. Work follows local building regulations.'
+
+export type QuoteLineRow = typeof quoteLines.$inferSelect
+
+/** Quote lines as tax lines (quantity in units, up to 3 decimals). */
+export function taxLines(lines: Pick<QuoteLineRow, 'kind' | 'quantityX1000' | 'unitPence' | 'vatRatePercent'>[]): TaxLine[] {
+  return lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent as 0 | 5 | 20 }))
+}
+
+/** The VAT treatment a quote starts with, from the firm's registration and the customer's flags (DOMAIN.md). */
+export function suggestedVat(firm: { vatRegistered: boolean }, customer: { kind: string, vatRegistered: boolean, paysUnderCis: boolean, endUserNotified: boolean }) {
+  if (!firm.vatRegistered) return 'not-registered' as const
+  if (customer.kind !== 'homeowner' && customer.vatRegistered && customer.paysUnderCis && !customer.endUserNotified) return 'reverse-charge' as const
+  return 'standard' as const
+}
+
+export async function findQuote(f: FirmScope, id: string, lock = false) {
+  const q = f.tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, id)))
+  const [row] = lock ? await q.for('update') : await q
+  if (!row) notFound()
+  return row
+}
+
+export async function currentVersion(f: FirmScope, quote: { id: string, currentVersion: number }, lock = false) {
+  const q = f.tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.quoteId, quote.id), eq(quoteVersions.version, quote.currentVersion)))
+  const [row] = lock ? await q.for('update') : await q
+  return row!
+}
+
+export async function versionLines(f: FirmScope, versionId: string) {
+  return f.tx.select().from(quoteLines).where(f.where(quoteLines, eq(quoteLines.versionId, versionId))).orderBy(asc(quoteLines.position))
+}
+
+/** The next quote number of the firm (under a lock on the firm's row, so two at once never share one). */
+export async function nextQuoteNumber(f: FirmScope) {
+  await f.tx.execute(sql`select 1 from firms where id = ${f.firmId} for update`)
+  const [row] = await f.tx.select({ n: max(quotes.number) }).from(quotes).where(f.where(quotes))
+  return (row?.n ?? 0) + 1
+}
+
+/** Everything about one quote for the firm's screens. */
+export async function quoteDetail(f: FirmScope, id: string) {
+  const quote = await findQuote(f, id)
+  const [customer] = await f.tx.select({ id: customers.id, name: customers.name, email: customers.email, kind: customers.kind }).from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
+  const versions = await f.tx.select({ id: quoteVersions.id, version: quoteVersions.version, status: quoteVersions.status, sentAt: quoteVersions.sentAt, respondedAt: quoteVersions.respondedAt, totals: quoteVersions.totals })
+    .from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.quoteId, id))).orderBy(desc(quoteVersions.version))
+  const current = await currentVersion(f, quote)
+  const { tokenHash: _t, ...publicVersion } = current
+  const lines = await versionLines(f, current.id)
+  const [firm] = await f.tx.select({ tradingName: firms.tradingName, invoicePrefix: firms.invoicePrefix }).from(firms).where(eq(firms.id, f.firmId))
+  return { ...quote, reference: `Q-${String(quote.number).padStart(4, '0')}`, firmName: firm?.tradingName ?? '', customer, versions, current: { ...publicVersion, lines } }
+}
+
+export type NewLine = Omit<typeof quoteLines.$inferInsert, 'firmId' | 'versionId' | 'id'>
+
+/** Replace a version's lines. */
+export async function saveLines(f: FirmScope, versionId: string, lines: NewLine[]) {
+  await f.tx.delete(quoteLines).where(f.where(quoteLines, eq(quoteLines.versionId, versionId)))
+  if (lines.length) await f.tx.insert(quoteLines).values(lines.map((l, i) => f.values({ ...l, versionId, position: i })))
+}
+
+/** Recompute a version's totals from its lines with the shared tax arithmetic, and keep them on the version. */
+export async function refreshTotals(f: FirmScope, versionId: string) {
+  const [v] = await f.tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, versionId)))
+  const lines = await versionLines(f, versionId)
+  const totals = invoiceTotals(taxLines(lines), { vat: v!.vat, cisRatePercent: (v!.cisRatePercent ?? null) as 0 | 20 | 30 | null })
+  await f.tx.update(quoteVersions).set({ totals: { ...totals } }).where(f.where(quoteVersions, eq(quoteVersions.id, versionId)))
+  return totals
+}

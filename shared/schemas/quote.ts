@@ -1,0 +1,55 @@
+import { z } from 'zod'
+
+const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(100_000_00, { error: `${what} looks too high.` })
+const percent = (max = 100) => z.int({ error: 'Enter a whole percentage.' }).min(0).max(max)
+
+export const priceBookSchema = z.object({
+  skimWallsPerM2Pence: pence('The wall skim rate'),
+  skimCeilingsPerM2Pence: pence('The ceiling skim rate'),
+  undercoatPerM2Pence: pence('The undercoat rate'),
+  revealsPerLmPence: pence('The reveal rate'),
+  beadsPerLmPence: pence('The bead rate'),
+  scrimPerLmPence: pence('The scrim rate'),
+  materialsMarkupPercent: percent(200),
+  minDeductCm2: z.union([z.literal(0), z.literal(5000)], { error: 'Deduct every opening (0) or leave voids up to 0.5 m² in (5000 cm²).' }),
+  narrowMaxMm: z.int().min(50).max(1000),
+  beadStockLengthsMm: z.array(z.int().min(500).max(6000)).min(1).max(4),
+  beadWastePercent: percent(50),
+  materialsWastePercent: percent(50),
+  m2PerDay: z.int({ error: 'Enter the square metres finished in a day.' }).min(1).max(500),
+})
+export type PriceBookInput = z.infer<typeof priceBookSchema>
+
+export const quoteLineSchema = z.object({
+  kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
+  description: z.string({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
+  quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
+  unit: z.string().trim().min(1).max(20),
+  unitPence: pence('The unit price'),
+  vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
+  derivation: z.string().max(4000).default(''),
+})
+
+export const quoteVersionSchema = z.object({
+  pricing: z.enum(['measure', 'days', 'fixed'], { error: 'Choose how the quote is priced.' }),
+  estimatedDaysX100: z.int().min(0).max(100_000),
+  fixedPricePence: pence('The fixed price').nullable().default(null),
+  vat: z.enum(['standard', 'reverse-charge', 'not-registered']),
+  cisRatePercent: z.union([z.literal(0), z.literal(20), z.literal(30)]).nullable().default(null),
+  validUntil: z.iso.date({ error: 'Pick the date the quote is good until.' }),
+  terms: z.string().trim().max(4000).default(''),
+  notes: z.string().trim().max(4000).default(''),
+  cautions: z.array(z.string().max(500)).max(10).default([]),
+  lines: z.array(quoteLineSchema).max(200).default([]),
+})
+  .refine(v => v.pricing !== 'fixed' || v.fixedPricePence !== null, { path: ['fixedPricePence'], error: 'Enter the fixed price.', when: () => true })
+  .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: () => true })
+  .refine(v => v.pricing !== 'days' || v.estimatedDaysX100 > 0, { path: ['estimatedDaysX100'], error: 'Enter the days it will take.', when: () => true })
+export type QuoteVersionInput = z.input<typeof quoteVersionSchema>
+
+export const newQuoteSchema = z.object({
+  customerId: z.uuid({ error: 'Choose the customer.' }),
+  siteId: z.uuid().nullable().default(null),
+  enquiryId: z.uuid().nullable().default(null),
+  visitId: z.uuid().nullable().default(null),
+})

@@ -1,0 +1,219 @@
+// Materials from a take-off: bags of plaster, lengths of bead, rolls of scrim, and their cost.
+// Coverage figures are rules of thumb (../shared/DOMAIN.md, "Coverage", common practice): real
+// coverage depends on the background's suction and flatness, so the estimate is a starting point
+// for ordering, not a guarantee. Check the maker's data sheet for the product actually used.
+// Arithmetic is exact: decimals are read from their digits into BigInt, and packs are rounded up
+// only once, at the end, so 100 m² at 10 m² a pack with 10% waste is 11 packs, not 12.
+import type { TakeoffLine } from './takeoff'
+import { formatStockLength } from './takeoff'
+import { formatMetres, formatSquareMetres } from './measure'
+
+/** A decimal number (at most `places` decimals, 0 or more) as an integer scaled by 10^places. */
+function scaled(x: number, places: number, what: string): bigint {
+  if (!Number.isFinite(x) || x < 0) throw new RangeError(`${what} must be a number of 0 or more, got ${x}`)
+  // String() gives the shortest decimal that reads back as x: 12.345 -> '12.345', 0.1 -> '0.1'
+  const m = /^(\d+)(?:\.(\d+))?$/.exec(String(x))
+  if (!m || (m[2] ?? '').length > places) throw new RangeError(`${what} may have at most ${places} decimals, got ${x}`)
+  return BigInt(m[1]!) * 10n ** BigInt(places) + BigInt((m[2] ?? '').padEnd(places, '0') || '0')
+}
+
+const ceilDiv = (a: bigint, b: bigint): bigint => (a + b - 1n) / b
+
+/** a / b (both > 0 or a = 0) as a decimal with `places` decimals, half up, for the derivations. */
+function ratioText(a: bigint, b: bigint, places = 2): string {
+  const unit = 10n ** BigInt(places)
+  const r = (a * unit * 2n + b) / (b * 2n)
+  const whole = r / unit
+  const frac = (r % unit).toString().padStart(places, '0')
+  return `${whole}.${frac}`
+}
+
+interface PackSum { area: bigint, coverage: bigint /* m² x 10^4 (cm²) */, thickness: bigint, at: bigint, waste: bigint /* x 10^3 */ }
+
+/** Exact numerator and denominator of area x thickness / at / coverage x (1 + waste / 100). */
+function packRatio(p: PackSum): { num: bigint, den: bigint } {
+  // scales: area 10^4, thickness 10^3, (100 + waste) 10^3 on top; coverage 10^4, at 10^3, 100 x 10^3 below
+  const num = p.area * p.thickness * (100_000n + p.waste)
+  const den = p.coverage * p.at * 100_000n
+  return { num, den }
+}
+
+/**
+ * Whole packs that cover `areaM2` at `thicknessMm`, for a pack covering `coverageM2PerPack` at
+ * `atThicknessMm`, plus `wastePercent` (default 0), rounded up:
+ * ceil(areaM2 x thicknessMm / atThicknessMm / coverageM2PerPack x (1 + wastePercent / 100)).
+ * Exact at the boundaries. areaM2 and coverageM2PerPack have at most 4 decimals (whole cm²), the
+ * thicknesses and wastePercent at most 3; anything else, or a negative figure, is a RangeError.
+ * Coverage is a rule of thumb: see the file's note.
+ */
+export function packsNeeded(o: { areaM2: number, thicknessMm: number, coverageM2PerPack: number, atThicknessMm: number, wastePercent?: number }): number {
+  const p: PackSum = {
+    area: scaled(o.areaM2, 4, 'areaM2'),
+    thickness: scaled(o.thicknessMm, 3, 'thicknessMm'),
+    at: scaled(o.atThicknessMm, 3, 'atThicknessMm'),
+    coverage: scaled(o.coverageM2PerPack, 4, 'coverageM2PerPack'),
+    waste: scaled(o.wastePercent ?? 0, 3, 'wastePercent'),
+  }
+  if (p.at === 0n) throw new RangeError('atThicknessMm must be more than 0')
+  if (p.coverage === 0n) throw new RangeError('coverageM2PerPack must be more than 0')
+  const { num, den } = packRatio(p)
+  return Number(ceilDiv(num, den))
+}
+
+// ---------------------------------------------------------------------------------------------
+// The catalogue
+
+export type MaterialType = 'finish' | 'bonding-undercoat' | 'browning' | 'bead' | 'scrim' | 'bonding-agent' | 'other'
+export type Coverage = { kind: 'area', m2PerPack: number, atThicknessMm: number } | { kind: 'length', metresPerPack: number }
+
+export interface Material {
+  key: string
+  type: MaterialType
+  name: string
+  packLabel: string
+  coverage: Coverage
+  /** Price of one pack in pence. In DEFAULT_MATERIALS these are invented demo prices. */
+  costPence: number
+  /** Where the coverage figure comes from. */
+  source: string
+}
+
+const DEMO = 'Demo price (invented): enter your supplier\'s price.'
+
+/**
+ * Generic starting catalogue (no brands). Coverage from ../shared/DOMAIN.md; prices are invented
+ * demo prices, to be replaced by the firm's own.
+ */
+export const DEFAULT_MATERIALS: readonly Material[] = [
+  {
+    key: 'finish-plaster', type: 'finish', name: 'Gypsum finish plaster', packLabel: '25 kg bag',
+    coverage: { kind: 'area', m2PerPack: 10, atThicknessMm: 2 }, costPence: 1200,
+    source: `Common practice (generic guides): a 25 kg bag covers about 10 to 12 m² at 2 mm; the low end, 10 m², is used. ${DEMO}`,
+  },
+  {
+    key: 'bonding-undercoat', type: 'bonding-undercoat', name: 'Gypsum bonding undercoat', packLabel: '25 kg bag',
+    coverage: { kind: 'area', m2PerPack: 3, atThicknessMm: 10 }, costPence: 1500,
+    source: `Common practice (generic guides): a 25 kg bag covers about 2.5 to 3.5 m² at 8 to 11 mm; 3 m² at 10 mm is used. ${DEMO}`,
+  },
+  {
+    key: 'angle-bead-2500', type: 'bead', name: 'Angle bead, 2.5 m', packLabel: '2.5 m length',
+    coverage: { kind: 'length', metresPerPack: 2.5 }, costPence: 250,
+    source: `Supplier listings: beads come in 2.5 m and 3.0 m lengths. ${DEMO}`,
+  },
+  {
+    key: 'angle-bead-3000', type: 'bead', name: 'Angle bead, 3.0 m', packLabel: '3.0 m length',
+    coverage: { kind: 'length', metresPerPack: 3 }, costPence: 300,
+    source: `Supplier listings: beads come in 2.5 m and 3.0 m lengths. ${DEMO}`,
+  },
+  {
+    key: 'scrim-tape', type: 'scrim', name: 'Scrim tape', packLabel: '90 m roll',
+    coverage: { kind: 'length', metresPerPack: 90 }, costPence: 400,
+    source: `From memory (unverified): a roll of scrim tape is about 90 m. ${DEMO}`,
+  },
+]
+
+/** The waste allowance commonly added to materials (DOMAIN.md: 10% is common). */
+export const DEFAULT_WASTE_PERCENT = 10
+
+export interface EstimateOptions {
+  /** Finish (skim) thickness: 2 to 3 mm (common practice). */
+  finishThicknessMm: number
+  /** Gypsum undercoat thickness: about 11 mm (common practice). */
+  undercoatThicknessMm: number
+  /** Added to plaster and scrim; bead lengths carry their own waste from the take-off. */
+  wastePercent: number
+}
+
+export const DEFAULT_ESTIMATE_OPTIONS: EstimateOptions = { finishThicknessMm: 2, undercoatThicknessMm: 11, wastePercent: DEFAULT_WASTE_PERCENT }
+
+export interface MaterialLine {
+  /** The catalogue key; null when the catalogue has nothing of the kind needed (then packs and cost are 0). */
+  materialKey: string | null
+  name: string
+  packs: number
+  packLabel: string
+  costPence: number
+  derivation: string
+}
+
+function pluralPacks(n: number, label: string): string {
+  return `${n} x ${label}`
+}
+
+function areaLine(what: string, type: MaterialType, areaCm2: number, thicknessMm: number, catalogue: readonly Material[], wastePercent: number): MaterialLine {
+  const m = catalogue.find(x => x.type === type && x.coverage.kind === 'area')
+  if (!m || m.coverage.kind !== 'area') {
+    return { materialKey: null, name: what, packs: 0, packLabel: '', costPence: 0, derivation: `${formatSquareMetres(areaCm2)} m² needs ${what.toLowerCase()}, but the catalogue has none: add one to estimate it.` }
+  }
+  const p: PackSum = {
+    area: BigInt(areaCm2),
+    thickness: scaled(thicknessMm, 3, 'thickness'),
+    at: scaled(m.coverage.atThicknessMm, 3, 'atThicknessMm'),
+    coverage: scaled(m.coverage.m2PerPack, 4, 'm2PerPack'),
+    waste: scaled(wastePercent, 3, 'wastePercent'),
+  }
+  if (p.at === 0n || p.coverage === 0n) throw new RangeError(`${m.name}: coverage must be more than 0`)
+  const { num, den } = packRatio(p)
+  const packs = Number(ceilDiv(num, den))
+  return {
+    materialKey: m.key, name: m.name, packs, packLabel: m.packLabel, costPence: packs * m.costPence,
+    derivation: `${formatSquareMetres(areaCm2)} m² at ${thicknessMm} mm, ${m.coverage.m2PerPack} m² a pack at ${m.coverage.atThicknessMm} mm, + ${wastePercent}% waste = ${ratioText(num, den)}, rounded up to ${pluralPacks(packs, m.packLabel)}`,
+  }
+}
+
+/**
+ * Materials for a take-off, each rounded up to whole packs, cost = packs x the catalogue price:
+ * - skim areas ('skim-walls', 'skim-ceilings', 'reveals-area', and the face area of 'reveals-lm')
+ *   -> the first 'finish' material, at `finishThicknessMm`, plus waste;
+ * - undercoat areas ('undercoat', 'fill-patches') -> the first 'bonding-undercoat', at
+ *   `undercoatThicknessMm`, plus waste (the skim on top is already in the skim area);
+ * - 'bead-lengths' -> the 'bead' material of that stock length, as many as the take-off says
+ *   (it has added the waste already);
+ * - 'scrim' -> rolls of the first 'scrim' material, plus waste.
+ * A kind of material the catalogue lacks gives a line with materialKey null that says so.
+ * Rules of thumb for ordering, not a guarantee of what the job will use.
+ */
+export function estimateMaterials(lines: readonly TakeoffLine[], catalogue: readonly Material[], options: Partial<EstimateOptions> = {}): MaterialLine[] {
+  const o = { ...DEFAULT_ESTIMATE_OPTIONS, ...options }
+  let skimCm2 = 0
+  let undercoatCm2 = 0
+  let scrimMm = 0
+  const beads = new Map<number, number>()
+  for (const l of lines) {
+    if (l.key === 'skim-walls' || l.key === 'skim-ceilings' || l.key === 'reveals-area') skimCm2 += l.quantity
+    else if (l.key === 'reveals-lm') skimCm2 += l.areaCm2 ?? 0
+    else if (l.key === 'undercoat' || l.key === 'fill-patches') undercoatCm2 += l.quantity
+    else if (l.key === 'scrim') scrimMm += l.quantity
+    else if (l.key === 'bead-lengths' && l.stockLengthMm) beads.set(l.stockLengthMm, (beads.get(l.stockLengthMm) ?? 0) + l.quantity)
+  }
+  const out: MaterialLine[] = []
+  if (skimCm2 > 0) out.push(areaLine('Finish plaster', 'finish', skimCm2, o.finishThicknessMm, catalogue, o.wastePercent))
+  if (undercoatCm2 > 0) out.push(areaLine('Bonding undercoat', 'bonding-undercoat', undercoatCm2, o.undercoatThicknessMm, catalogue, o.wastePercent))
+  for (const [stockMm, count] of [...beads.entries()].sort((a, b) => a[0] - b[0])) {
+    const m = catalogue.find(x => x.type === 'bead' && x.coverage.kind === 'length' && scaled(x.coverage.metresPerPack, 3, 'metresPerPack') === BigInt(stockMm))
+    if (!m) {
+      out.push({ materialKey: null, name: `Bead, ${formatStockLength(stockMm)} m`, packs: 0, packLabel: '', costPence: 0, derivation: `${count} bead lengths of ${formatStockLength(stockMm)} m needed, but the catalogue has no bead of that length: add one to estimate it.` })
+      continue
+    }
+    out.push({ materialKey: m.key, name: m.name, packs: count, packLabel: m.packLabel, costPence: count * m.costPence, derivation: `${pluralPacks(count, m.packLabel)} from the take-off (waste included there)` })
+  }
+  if (scrimMm > 0) {
+    const m = catalogue.find(x => x.type === 'scrim' && x.coverage.kind === 'length')
+    if (!m || m.coverage.kind !== 'length') {
+      out.push({ materialKey: null, name: 'Scrim', packs: 0, packLabel: '', costPence: 0, derivation: `${formatMetres(scrimMm)} m of scrim needed, but the catalogue has none: add one to estimate it.` })
+    }
+    else {
+      const perPackMm = scaled(m.coverage.metresPerPack, 3, 'metresPerPack')
+      if (perPackMm === 0n) throw new RangeError(`${m.name}: coverage must be more than 0`)
+      const waste = scaled(o.wastePercent, 3, 'wastePercent')
+      const num = BigInt(scrimMm) * (100_000n + waste)
+      const den = perPackMm * 100_000n
+      const packs = Number(ceilDiv(num, den))
+      out.push({
+        materialKey: m.key, name: m.name, packs, packLabel: m.packLabel, costPence: packs * m.costPence,
+        derivation: `${formatMetres(scrimMm)} m, ${m.coverage.metresPerPack} m a pack, + ${o.wastePercent}% waste = ${ratioText(num, den)}, rounded up to ${pluralPacks(packs, m.packLabel)}`,
+      })
+    }
+  }
+  return out
+}
