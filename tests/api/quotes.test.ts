@@ -1,0 +1,193 @@
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { requiredEnv, startApp, type TestApp } from '../support/app'
+import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { inviteAndJoin } from './support'
+
+let app: TestApp
+let owner: Client
+let firmId: string
+
+beforeAll(async () => {
+  app = await startApp()
+  ;({ client: owner, firmId } = await signUpFirm(app.url, 'Quote Firm'))
+  // rates for pricing by measure (invented test rates, not trade figures)
+  const book = (await owner.get('/api/price-book')).body
+  const put = await owner.put('/api/price-book', {
+    ...Object.fromEntries(Object.entries(book).filter(([k]) => !['firmId', 'createdAt', 'updatedAt'].includes(k))),
+    skimWallsPerM2Pence: 1800, skimCeilingsPerM2Pence: 2100, undercoatPerM2Pence: 1400, revealsPerLmPence: 900, beadsPerLmPence: 600, scrimPerLmPence: 200, materialsMarkupPercent: 0, minDeductCm2: 0,
+  })
+  expect(put.status, JSON.stringify(put.body)).toBe(200)
+})
+afterAll(async () => {
+  await app?.stop()
+})
+
+async function customerWithVisit(email = uniqueEmail('cust')) {
+  const c = (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Quinn Abara', email }, site: { line1: '7 Mill Lade', postcode: 'OX9 4GH' } })).body
+  const e = (await owner.post('/api/enquiries', { customerId: c.id, siteId: c.sites[0].id, source: 'phone', description: 'Skim the back bedroom' })).body
+  const v = (await owner.post('/api/visits', { customerId: c.id, siteId: c.sites[0].id, enquiryId: e.id, startsAt: '2026-12-02T09:00:00Z' })).body
+  const roomId = crypto.randomUUID()
+  const wall = crypto.randomUUID()
+  const room = await owner.put(`/api/visits/${v.id}/rooms/${roomId}`, {
+    revision: 0,
+    name: 'Back bedroom',
+    surfaces: [
+      // 4.00 x 2.40 - window 1.20 x 1.00 = 9.60 - 1.20 = 8.40 m²
+      { id: wall, kind: 'wall', lengthMm: 4000, secondMm: 2400, openings: [{ id: crypto.randomUUID(), kind: 'window', widthMm: 1200, heightMm: 1000 }] },
+      // 4.00 x 3.00 = 12.00 m²
+      { id: crypto.randomUUID(), kind: 'ceiling', lengthMm: 4000, secondMm: 3000 },
+    ],
+  })
+  expect(room.status, JSON.stringify(room.body)).toBe(200)
+  return { customer: c, enquiry: e, visit: v }
+}
+
+describe('quotes', () => {
+  it('drafts a quote from a measured visit, priced from the price book, with derivations', async () => {
+    const { customer, enquiry, visit } = await customerWithVisit()
+    const res = await owner.post('/api/quotes', { customerId: customer.id, siteId: customer.sites[0].id, enquiryId: enquiry.id, visitId: visit.id })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    const q = (await owner.get(`/api/quotes/${res.body.id}`)).body
+    expect(q.reference).toMatch(/^Q-\d{4}$/)
+    expect(q.current).toMatchObject({ version: 1, status: 'draft', vat: 'not-registered' })
+    const walls = q.current.lines.find((l: any) => l.description.startsWith('Skim walls'))
+    const ceilings = q.current.lines.find((l: any) => l.description.startsWith('Skim ceilings'))
+    // 8.40 m² at £18.00 = £151.20; 12.00 m² at £21.00 = £252.00
+    expect(walls).toMatchObject({ kind: 'labour', quantityX1000: 8400, unitPence: 1800 })
+    expect(walls.derivation).toContain('8.40')
+    expect(ceilings).toMatchObject({ kind: 'labour', quantityX1000: 12000, unitPence: 2100 })
+    const finish = q.current.lines.find((l: any) => l.kind === 'materials' && /finish/i.test(l.description))
+    // 20.40 m² skim at 2 mm, 10 m² a bag at 2 mm, +10% waste = 2.244 -> 3 bags (materials.ts defaults)
+    expect(finish.quantityX1000).toBe(3000)
+    const labour = 151_20 + 252_00
+    expect(q.current.totals.labourNetPence).toBe(labour)
+    expect(q.current.totals.netPence).toBe(labour + q.current.totals.materialsNetPence)
+    expect(q.current.totals.vatPence).toBe(0)
+    expect(q.current.cautions.join(' ')).toMatch(/Drying times are estimates/)
+  })
+
+  it('numbers quotes one after another per firm', async () => {
+    const { customer } = await customerWithVisit()
+    const a = (await owner.post('/api/quotes', { customerId: customer.id })).body
+    const b = (await owner.post('/api/quotes', { customerId: customer.id })).body
+    expect(b.number).toBe(a.number + 1)
+  })
+
+  it('sends a quote once, refuses to change a sent one, and revises it into version 2', async () => {
+    const { customer, enquiry, visit } = await customerWithVisit()
+    const { id } = (await owner.post('/api/quotes', { customerId: customer.id, enquiryId: enquiry.id, visitId: visit.id })).body
+    const sent = await owner.post(`/api/quotes/${id}/send`)
+    expect(sent.status, JSON.stringify(sent.body)).toBe(200)
+    expect(sent.body.current.status).toBe('sent')
+    expect(sent.body.current).not.toHaveProperty('tokenHash')
+    expect((await owner.get(`/api/enquiries/${enquiry.id}`)).body.status).toBe('quoted')
+    const mail = await app.waitForMail(customer.email, /Your quote Q-/)
+    expect(mail.text).toMatch(/\/q\/[\w-]{40,}/)
+
+    const q = (await owner.get(`/api/quotes/${id}`)).body
+    const body = { pricing: 'measure', estimatedDaysX100: 100, vat: 'not-registered', validUntil: q.current.validUntil, lines: q.current.lines.map(({ position: _p, ...l }: any) => l) }
+    expect((await owner.put(`/api/quotes/${id}/draft`, body)).status).toBe(409)
+    expect((await owner.post(`/api/quotes/${id}/send`)).status).toBe(409)
+
+    const revised = await owner.post(`/api/quotes/${id}/revise`)
+    expect(revised.status).toBe(200)
+    expect(revised.body.current).toMatchObject({ version: 2, status: 'draft' })
+    expect(revised.body.versions.map((v: any) => [v.version, v.status])).toEqual([[2, 'draft'], [1, 'sent']])
+    const changed = await owner.put(`/api/quotes/${id}/draft`, { ...body, lines: [...body.lines, { kind: 'labour', description: 'Make good round the new socket', quantityX1000: 1000, unit: 'item', unitPence: 4500 }] })
+    expect(changed.status, JSON.stringify(changed.body)).toBe(200)
+    expect(changed.body.current.totals.labourNetPence).toBe(q.current.totals.labourNetPence + 4500)
+    // the sent version is as it was
+    expect((await owner.post(`/api/quotes/${id}/revise`)).status).toBe(409)
+  })
+
+  it('refuses bad drafts with the field named', async () => {
+    const { customer } = await customerWithVisit()
+    const { id } = (await owner.post('/api/quotes', { customerId: customer.id })).body
+    const res = await owner.put(`/api/quotes/${id}/draft`, { pricing: 'fixed', estimatedDaysX100: 0, vat: 'reverse-charge', validUntil: 'soon', lines: [{ kind: 'labour', description: '', quantityX1000: 0, unit: 'm²', unitPence: -1 }] })
+    expect(res.status).toBe(400)
+    expect(Object.keys(res.body.data.fields).sort()).toEqual(['cisRatePercent', 'fixedPricePence', 'lines.0.description', 'lines.0.quantityX1000', 'lines.0.unitPence', 'validUntil'])
+    // an empty quote, or a customer with no e-mail, cannot be sent
+    expect((await owner.post(`/api/quotes/${id}/send`)).status).toBe(400)
+  })
+})
+
+describe('the customer\'s link', () => {
+  async function sentQuote() {
+    const { customer, enquiry, visit } = await customerWithVisit()
+    const { id } = (await owner.post('/api/quotes', { customerId: customer.id, enquiryId: enquiry.id, visitId: visit.id })).body
+    await owner.post(`/api/quotes/${id}/send`)
+    const mail = await app.waitForMail(customer.email, /Your quote Q-/)
+    const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
+    return { id, token, customer, enquiry }
+  }
+
+  it('shows only its own quote, and records one acceptance (409 after)', async () => {
+    const { id, token, enquiry } = await sentQuote()
+    const anon = new Client(app.url)
+    const view = await anon.get(`/api/public/quotes/${token}`)
+    expect(view.status).toBe(200)
+    expect(view.body).toMatchObject({ status: 'sent', customer: { name: 'Quinn Abara' }, firm: { tradingName: 'Quote Firm' } })
+    expect(JSON.stringify(view.body)).not.toMatch(/tokenHash|firmId|customerId/)
+    expect((await anon.post(`/api/public/quotes/${token}/accept`, { name: '' })).status).toBe(400)
+    const accepted = await anon.post(`/api/public/quotes/${token}/accept`, { name: 'Quinn Abara' })
+    expect(accepted.status).toBe(200)
+    expect(accepted.body).toMatchObject({ status: 'accepted', acceptedName: 'Quinn Abara' })
+    expect((await anon.post(`/api/public/quotes/${token}/accept`, { name: 'Quinn Abara' })).status).toBe(409)
+    expect((await anon.post(`/api/public/quotes/${token}/decline`, { reason: 'Changed my mind' })).status).toBe(409)
+    expect((await owner.get(`/api/quotes/${id}`)).body.current.status).toBe('accepted')
+    expect((await owner.get(`/api/enquiries/${enquiry.id}`)).body.status).toBe('won')
+    await app.waitForMail('@test.example', /accepted by Quinn Abara/)
+  })
+
+  it('records a decline with its reason, and the enquiry is lost', async () => {
+    const { token, enquiry } = await sentQuote()
+    const anon = new Client(app.url)
+    expect((await anon.post(`/api/public/quotes/${token}/decline`, { reason: 'Too dear for us this year' })).body.status).toBe('declined')
+    const e = (await owner.get(`/api/enquiries/${enquiry.id}`)).body
+    expect(e).toMatchObject({ status: 'lost', lostReason: 'Quote declined: Too dear for us this year' })
+  })
+
+  it('gives a wrong or expired link a clear 404 and no data', async () => {
+    const { token } = await sentQuote()
+    const anon = new Client(app.url)
+    const wrong = await anon.get(`/api/public/quotes/${'x'.repeat(43)}`)
+    expect(wrong.status).toBe(404)
+    expect(wrong.body.data.message).toMatch(/expired or is not right/)
+    expect((await anon.get('/api/public/quotes/short')).status).toBe(404)
+    // expire it
+    const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
+    await db.connect()
+    try {
+      await db.query('begin')
+      await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+      await db.query(`update quote_versions set token_expires_at = now() - interval '1 minute' where token_expires_at is not null`)
+      await db.query('commit')
+    }
+    finally {
+      await db.end()
+    }
+    const expired = await anon.get(`/api/public/quotes/${token}`)
+    expect(expired.status).toBe(404)
+    expect(Object.keys(expired.body.data)).toEqual(['message'])
+    expect((await anon.post(`/api/public/quotes/${token}/accept`, { name: 'Quinn Abara' })).status).toBe(404)
+  })
+})
+
+describe('quote roles and tenancy', () => {
+  it('keeps quotes from crew, lets the accountant read them, and hides another firm\'s', async () => {
+    const { customer } = await customerWithVisit()
+    const { id } = (await owner.post('/api/quotes', { customerId: customer.id })).body
+    const crew = (await inviteAndJoin(app, owner, uniqueEmail('crew'), 'crew')).client
+    const accountant = (await inviteAndJoin(app, owner, uniqueEmail('acct'), 'accountant')).client
+    expect((await crew.get('/api/quotes')).status).toBe(403)
+    expect((await crew.get(`/api/quotes/${id}`)).status).toBe(403)
+    expect((await accountant.get(`/api/quotes/${id}`)).status).toBe(200)
+    expect((await accountant.post(`/api/quotes/${id}/send`)).status).toBe(403)
+    expect((await crew.get('/api/price-book')).status).toBe(403)
+    const other = (await signUpFirm(app.url, 'Other Quote Firm')).client
+    expect((await other.get(`/api/quotes/${id}`)).status).toBe(404)
+    expect((await other.post(`/api/quotes/${id}/send`)).status).toBe(404)
+    expect((await other.post('/api/quotes', { customerId: customer.id })).status).toBe(400)
+  })
+})
