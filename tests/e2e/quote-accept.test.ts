@@ -1,0 +1,61 @@
+// From the measured demo visit to an accepted quote: the owner makes the quote from the
+// measurements, sends it; the customer opens the e-mailed link on their own phone and accepts;
+// the firm sees it accepted.
+import { describe, expect, it } from 'vitest'
+import { Client } from '../support/client'
+import { expectCleanRun, expectText, expectVisible, reload, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { OWNER } from './demo'
+
+const e2e = useE2E()
+
+describe('quoting from a measured visit', () => {
+  it('builds a quote priced by measure, sends it, and the customer accepts it from the e-mail', async () => {
+    const api = new Client(e2e.url)
+    await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
+    const visits = (await api.get('/api/visits?from=2000-01-01T00:00:00Z')).body
+    const measured = visits.find((v: any) => v.customer.name === 'Harriet Colley' && v.status === 'done')
+    expect(measured, 'the seeded measured visit').toBeDefined()
+
+    const jess = await e2e.open()
+    const owner = jess.page
+    owner.on('dialog', d => d.accept())
+    await signInToDashboard(owner, e2e.url, OWNER.email, OWNER.password)
+    await visit(owner, `${e2e.url}/visits/${measured.id}`)
+    await owner.getByTestId('make-quote').click()
+    await owner.waitForURL(u => /^\/quotes\/[0-9a-f-]{36}$/.test(u.pathname))
+    const quoteId = new URL(owner.url()).pathname.split('/').pop()!
+    // the lines are the take-off, each with its working shown
+    await expectVisible(owner.getByTestId('quote-line').first())
+    const descriptions = await owner.getByTestId('quote-line').locator('input[aria-label$="description"]').evaluateAll(els => els.map(e => (e as HTMLInputElement).value))
+    expect(descriptions.some(d => d.startsWith('Skim walls'))).toBe(true)
+    await expectVisible(owner.getByText(/How: .* = \d+\.\d\d m²/).first())
+    const draft = (await api.get(`/api/quotes/${quoteId}`)).body
+    expect(draft.current.pricing).toBe('measure')
+    expect(draft.current.lines.length).toBeGreaterThan(3)
+    await screenshot(owner, 'quote-draft')
+
+    await owner.getByRole('button', { name: 'Send quote' }).click()
+    await expectText(owner.getByTestId('quote-status'), 'Sent')
+    const sent = (await api.get(`/api/quotes/${quoteId}`)).body
+
+    // the customer's e-mail, opened on their own phone
+    const mail = await e2e.app.waitForMail('harriet.colley@example.invalid', /Your quote Q-/)
+    const link = /(http:\/\/\S+\/q\/[\w-]+)/.exec(mail.text ?? '')![1]!
+    const harriet = await e2e.open()
+    const customer = harriet.page
+    await visit(customer, link)
+    await expectText(customer.getByTestId('public-quote-total'), new RegExp(`£${(sent.current.totals.grossPence / 100).toFixed(2).replace(/\B(?=(\d{3})+(?!\d))/g, ',')}`))
+    await customer.getByLabel('Type your full name to accept').fill('Harriet Colley')
+    await customer.getByRole('button', { name: 'Accept quote' }).click()
+    await expectVisible(customer.getByTestId('quote-accepted'))
+    await screenshot(customer, 'quote-accepted-by-customer')
+
+    // and the firm sees it
+    await reload(owner)
+    await expectText(owner.getByTestId('quote-status'), 'Accepted')
+    expect((await api.get(`/api/quotes/${quoteId}`)).body.current).toMatchObject({ status: 'accepted', acceptedName: 'Harriet Colley' })
+    await e2e.app.waitForMail('@', /accepted by Harriet Colley/)
+    expectCleanRun(jess)
+    expectCleanRun(harriet)
+  })
+})
