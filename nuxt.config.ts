@@ -44,6 +44,8 @@ export default defineNuxtConfig({
   // SETWELL_OUTPUT_DIR lets two builds live side by side (a second checkout of the tests); normally .output
   ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}-nuxt` } : {}),
   nitro: {
+    // Node 20 runs ES2022; the default es2019 target warns on the BigInt literals in shared/utils
+    esbuild: { options: { target: 'es2022' } },
     output: process.env.SETWELL_OUTPUT_DIR ? { dir: process.env.SETWELL_OUTPUT_DIR } : undefined,
   },
   typescript: {
