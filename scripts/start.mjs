@@ -5,36 +5,20 @@ import { ensureDependencies } from './lib/run.mjs'
 
 ensureDependencies()
 
-const { profile, urls, serverEnv } = await import('./lib/env.mjs')
-const { startCluster, bootstrap, migrate } = await import('./lib/pg.mjs')
-const { background, bin, isPortFree, nuxtBuild, run, waitForHttp } = await import('./lib/run.mjs')
+const { serverEnv } = await import('./lib/env.mjs')
+const { MAIL_WEB_PORT, SMTP_PORT, prepareDevServices } = await import('./lib/dev-services.mjs')
+const { background, bin, isPortFree, nuxtBuild, waitForHttp } = await import('./lib/run.mjs')
 const { execFileSync } = await import('node:child_process')
 // the demo sign-ins live in seeds/demo.ts (TypeScript): read them through tsx
 const { DEMO_PEOPLE, SECOND_FIRM } = JSON.parse(execFileSync(bin('tsx'), ['-e', 'import("./seeds/demo.ts").then(m => console.log(JSON.stringify({ DEMO_PEOPLE: m.DEMO_PEOPLE, SECOND_FIRM: m.SECOND_FIRM })))'], { encoding: 'utf8' }))
 
-const p = profile('dev')
 const HOST = process.env.HOST ?? '127.0.0.1'
 const PORT = Number(process.env.PORT ?? 3000)
-const SMTP_PORT = Number(process.env.SETWELL_MAIL_SMTP_PORT ?? 1025)
-const MAIL_WEB_PORT = Number(process.env.SETWELL_MAIL_WEB_PORT ?? 1080)
-
-await startCluster(p)
-await bootstrap(p)
-await migrate(p)
-run(bin('tsx'), ['seeds/index.ts'], { env: { ...process.env, NUXT_DATABASE_OWNER_URL: urls(p).owner } })
-
 if (!(await isPortFree(PORT))) {
   console.error(`[start] port ${PORT} is in use. Stop what is using it, or run PORT=3001 npm start.`)
   process.exit(1)
 }
-
-let smtpPort = SMTP_PORT
-if (await isPortFree(SMTP_PORT) && await isPortFree(MAIL_WEB_PORT)) {
-  background(bin('maildev'), ['--ip', '127.0.0.1', '--web-ip', '127.0.0.1', '--smtp', String(SMTP_PORT), '--web', String(MAIL_WEB_PORT), '--silent'], { stdio: 'ignore' })
-}
-else {
-  console.log(`[start] ports ${SMTP_PORT}/${MAIL_WEB_PORT} are in use: assuming a mail catcher is already running there`)
-}
+const p = await prepareDevServices()
 
 nuxtBuild()
 
@@ -44,7 +28,7 @@ const server = background('node', ['.output/server/index.mjs'], {
     HOST, PORT: String(PORT), NITRO_HOST: HOST, NITRO_PORT: String(PORT),
     NUXT_APP_URL: process.env.NUXT_APP_URL ?? appUrl,
     NUXT_SMTP_HOST: process.env.NUXT_SMTP_HOST ?? '127.0.0.1',
-    NUXT_SMTP_PORT: process.env.NUXT_SMTP_PORT ?? String(smtpPort),
+    NUXT_SMTP_PORT: process.env.NUXT_SMTP_PORT ?? String(SMTP_PORT),
   }),
 })
 server.on('exit', code => process.exit(code ?? 0))

@@ -1,6 +1,6 @@
 import { and, eq, gt, inArray, sql } from 'drizzle-orm'
 import { z } from 'zod'
-import { customers, firms, memberships, quotes, quoteVersions, sites, users } from '../db/schema'
+import { customers, firms, quotes, quoteVersions, sites } from '../db/schema'
 
 export const quoteTokenParam = z.object({ token: z.string().regex(/^[\w-]{40,60}$/, { error: 'Not found.' }) })
 
@@ -53,12 +53,4 @@ export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferS
     acceptedName: version.acceptedName,
     lines: lines.map(({ id: _i, firmId: _f, versionId: _v, ...l }) => l),
   }
-}
-
-/** Who at the firm hears that a quote was accepted or declined. */
-export async function firmRecipients(f: FirmScope) {
-  const [firm] = await f.tx.select({ email: firms.email }).from(firms).where(eq(firms.id, f.firmId))
-  const people = await f.tx.select({ email: users.email }).from(memberships).innerJoin(users, eq(users.id, memberships.userId))
-    .where(f.where(memberships, inArray(memberships.role, ['owner', 'office'])))
-  return [...new Set([firm?.email, ...people.map(p => p.email)].filter(Boolean))] as string[]
 }

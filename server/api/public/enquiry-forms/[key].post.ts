@@ -1,5 +1,5 @@
-import { and, eq, sql } from 'drizzle-orm'
-import { customers, enquiries, memberships, sites, users } from '../../../db/schema'
+import { eq, sql } from 'drizzle-orm'
+import { customers, enquiries, sites } from '../../../db/schema'
 import { publicEnquirySchema } from '#shared/schemas/enquiry'
 
 /**
@@ -34,14 +34,12 @@ export default defineEventHandler(async (event) => {
     })).returning({ id: enquiries.id })
     await recordNewEnquiry(f, enquiry!.id)
     await f.audit('enquiry.received', 'enquiry', enquiry!.id, { source: 'web-form' })
-    const owners = await tx.select({ email: users.email }).from(memberships).innerJoin(users, eq(users.id, memberships.userId))
-      .where(f.where(memberships, and(eq(memberships.role, 'owner'))))
-    return { firm, enquiryId: enquiry!.id, to: [firm.email, ...owners.map(o => o.email)].filter(Boolean) }
+    return { firm, enquiryId: enquiry!.id, to: await firmRecipients(f, ['owner']) }
   })
 
   const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/enquiries/${result.enquiryId}`
   await sendMail({
-    to: [...new Set(result.to)].join(', '),
+    to: result.to.join(', '),
     replyTo: input.email,
     subject: `New enquiry from ${input.name} (${input.postcode})`,
     text: [

@@ -19,7 +19,7 @@ export default defineEventHandler(async (event) => {
     }
     await f.audit('quote.declined', 'quote', quote.id, { version: version.version })
     const [v] = await tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
-    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f) }
+    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f, ['owner', 'office']) }
   })
   await sendMail({
     to: result.to.join(', '),
