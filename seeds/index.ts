@@ -9,7 +9,7 @@ import pg from 'pg'
 import * as schema from '../server/db/schema'
 import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, DEMO_PRICE_BOOK, SECOND_FIRM } from './demo'
 import { seedVisit } from './visit'
-import { DEFAULT_MATERIALS } from '../shared/utils/materials'
+import { DEFAULT_MATERIALS, defaultMaterialRow } from '../shared/utils/materials'
 
 // the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
 const hash = new Hash(new Scrypt({}))
@@ -34,14 +34,7 @@ export async function seed(url: string): Promise<'seeded' | 'already'> {
 
       await tx.insert(schema.priceBooks).values({ firmId, ...DEMO_PRICE_BOOK })
       // the generic catalogue (coverage from DOMAIN.md; prices invented for the demo)
-      for (const m of DEFAULT_MATERIALS) {
-        await tx.insert(schema.materials).values({
-          firmId, key: m.key, type: m.type, name: m.name, packLabel: m.packLabel, costPence: m.costPence, source: m.source,
-          ...(m.coverage.kind === 'area'
-            ? { coverageCm2PerPack: Math.round(m.coverage.m2PerPack * 10_000), atThicknessMm: m.coverage.atThicknessMm }
-            : { coverageMmPerPack: Math.round(m.coverage.metresPerPack * 1000) }),
-        })
-      }
+      for (const m of DEFAULT_MATERIALS) await tx.insert(schema.materials).values({ firmId, ...defaultMaterialRow(m) })
 
       // customers, sites and enquiries, each with its history
       const customerIds: Record<string, { id: string, sites: string[] }> = {}

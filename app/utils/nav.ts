@@ -17,6 +17,7 @@ export const NAV_ITEMS: NavItem[] = [
 export const SETTINGS_ITEMS: NavItem[] = [
   { to: '/firm', label: 'Firm', icon: 'firm', permission: 'firm:manage' },
   { to: '/price-book', label: 'Price book', icon: 'quotes', permission: 'money:read' },
+  { to: '/materials', label: 'Materials', icon: 'quotes', permission: 'money:read' },
   { to: '/team', label: 'Team', icon: 'team', permission: 'team:manage' },
   { to: '/account', label: 'Your account', icon: 'account' },
 ]

@@ -31,7 +31,7 @@ export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferS
     .from(firms).where(eq(firms.id, f.firmId))
   const [customer] = await f.tx.select({ name: customers.name }).from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
   const [site] = quote.siteId ? await f.tx.select({ line1: sites.line1, town: sites.town, postcode: sites.postcode }).from(sites).where(f.where(sites, eq(sites.id, quote.siteId))) : []
-  const lines = await versionLines(f, version.id)
+  const lines = customerLinesOrWorking(version, await versionLines(f, version.id)).lines
   return {
     reference: `Q-${String(quote.number).padStart(4, '0')}`,
     version: version.version,
@@ -51,6 +51,6 @@ export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferS
     totals: version.totals,
     respondedAt: version.respondedAt,
     acceptedName: version.acceptedName,
-    lines: lines.map(({ id: _i, firmId: _f, versionId: _v, ...l }) => l),
+    lines: lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, derivation }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, derivation })),
   }
 }

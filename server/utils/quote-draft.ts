@@ -1,9 +1,7 @@
 // A quote's first draft from a measured visit: the take-off (shared/utils/takeoff.ts) priced from
 // the firm's price book, and the materials estimate (shared/utils/materials.ts) at cost plus the
 // firm's mark-up. Every line keeps its derivation, so the plasterer can check it by hand.
-import { eq } from 'drizzle-orm'
-import { materials as materialsTable } from '../db/schema'
-import { DEFAULT_MATERIALS, estimateMaterials, type Material } from '#shared/utils/materials'
+import { estimateMaterials } from '#shared/utils/materials'
 import { takeoffRooms, type TakeoffKey, type TakeoffLine } from '#shared/utils/takeoff'
 import { ASBESTOS_CAUTION } from '#shared/utils/ledger'
 import { formatSquareMetres } from '#shared/utils/measure'
@@ -29,16 +27,6 @@ function quantityX1000(line: TakeoffLine): number {
 }
 
 const UNIT_LABEL = { m2: 'm²', lm: 'm', lengths: 'lengths', item: 'item' } as const
-
-/** The firm's materials in the take-off's terms; the generic defaults when the firm has none yet. */
-export async function catalogue(f: FirmScope): Promise<Material[]> {
-  const rows = await f.tx.select().from(materialsTable).where(f.where(materialsTable, eq(materialsTable.active, true)))
-  if (!rows.length) return [...DEFAULT_MATERIALS]
-  return rows.map(r => ({
-    key: r.key, type: r.type, name: r.name, packLabel: r.packLabel, costPence: r.costPence, source: r.source,
-    coverage: r.coverageMmPerPack ? { kind: 'length' as const, metresPerPack: r.coverageMmPerPack / 1000 } : { kind: 'area' as const, m2PerPack: (r.coverageCm2PerPack ?? 0) / 10_000, atThicknessMm: r.atThicknessMm ?? 2 },
-  }))
-}
 
 export async function draftFromVisit(f: FirmScope, visitId: string) {
   const book = await usePriceBook(f)

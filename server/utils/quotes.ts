@@ -1,6 +1,7 @@
 import { asc, desc, eq, max, sql } from 'drizzle-orm'
 import { customers, firms, quoteLines, quotes, quoteVersions } from '../db/schema'
 import type { TaxLine } from '#shared/utils/tax'
+import { pricedLines, type PricedLine } from '#shared/utils/quote-pricing'
 
 export const DRYING_CAUTION = 'Drying times are estimates: a skim coat needs about a week before decorating, longer for undercoats and in cold or damp rooms.'
 export const RULE_OF_THUMB = 'Quantities and materials are rules of thumb from the measurements; they are checked on the day. Work follows local building regulations.'
@@ -52,8 +53,12 @@ export async function quoteDetail(f: FirmScope, id: string) {
   const current = await currentVersion(f, quote)
   const { tokenHash: _t, ...publicVersion } = current
   const lines = await versionLines(f, current.id)
-  const [firm] = await f.tx.select({ tradingName: firms.tradingName, invoicePrefix: firms.invoicePrefix }).from(firms).where(eq(firms.id, f.firmId))
-  return { ...quote, reference: `Q-${String(quote.number).padStart(4, '0')}`, firmName: firm?.tradingName ?? '', customer, versions, current: { ...publicVersion, lines } }
+  const priced = customerLinesOrWorking(current, lines)
+  const [firm] = await f.tx.select({ tradingName: firms.tradingName, invoicePrefix: firms.invoicePrefix, dayRatePence: firms.dayRatePence }).from(firms).where(eq(firms.id, f.firmId))
+  return {
+    ...quote, reference: `Q-${String(quote.number).padStart(4, '0')}`, firmName: firm?.tradingName ?? '', firmDayRatePence: firm?.dayRatePence ?? 0, customer, versions,
+    current: { ...publicVersion, lines, customerLines: priced.lines, pricingProblem: priced.problem },
+  }
 }
 
 export type NewLine = Omit<typeof quoteLines.$inferInsert, 'firmId' | 'versionId' | 'id'>
@@ -64,10 +69,29 @@ export async function saveLines(f: FirmScope, versionId: string, lines: NewLine[
   if (lines.length) await f.tx.insert(quoteLines).values(lines.map((l, i) => f.values({ ...l, versionId, position: i })))
 }
 
-/** Recompute a version's totals from its lines with the shared tax arithmetic, and keep them on the version. */
+type VersionRow = typeof quoteVersions.$inferSelect
+
+/**
+ * The lines the customer sees for a version: its working lines priced the way it is priced
+ * (shared/utils/quote-pricing.ts). Throws a 400 on the field at fault when the pricing cannot
+ * be worked out (a fixed price below the materials, no day rate).
+ */
+export function customerLines(version: Pick<VersionRow, 'pricing' | 'estimatedDaysX100' | 'dayRatePence' | 'fixedPricePence'>, working: readonly PricedLine[]): PricedLine[] {
+  const result = pricedLines(working, { pricing: version.pricing, estimatedDaysX100: version.estimatedDaysX100, dayRatePence: version.dayRatePence, fixedPricePence: version.fixedPricePence })
+  if (!result.ok) throw fieldError({ [result.field]: result.message })
+  return result.lines
+}
+
+/** The customer's lines, or the working lines when the pricing is not yet complete (a draft being edited). */
+export function customerLinesOrWorking(version: Parameters<typeof customerLines>[0], working: readonly PricedLine[]): { lines: PricedLine[], problem: string | null } {
+  const result = pricedLines(working, { pricing: version.pricing, estimatedDaysX100: version.estimatedDaysX100, dayRatePence: version.dayRatePence, fixedPricePence: version.fixedPricePence })
+  return result.ok ? { lines: result.lines, problem: null } : { lines: [...working], problem: result.message }
+}
+
+/** Recompute a version's totals from its lines, priced as chosen, with the shared tax arithmetic, and keep them on the version. */
 export async function refreshTotals(f: FirmScope, versionId: string) {
   const [v] = await f.tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, versionId)))
-  const lines = await versionLines(f, versionId)
+  const lines = customerLines(v!, await versionLines(f, versionId))
   const totals = invoiceTotals(taxLines(lines), { vat: v!.vat, cisRatePercent: (v!.cisRatePercent ?? null) as 0 | 20 | 30 | null })
   await f.tx.update(quoteVersions).set({ totals: { ...totals } }).where(f.where(quoteVersions, eq(quoteVersions.id, versionId)))
   return totals

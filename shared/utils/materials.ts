@@ -112,6 +112,16 @@ export const DEFAULT_MATERIALS: readonly Material[] = [
   },
 ]
 
+/** The columns of a catalogue row for one of the generic defaults. */
+export function defaultMaterialRow(m: Material) {
+  return {
+    key: m.key, type: m.type, name: m.name, packLabel: m.packLabel, costPence: m.costPence, source: m.source,
+    ...(m.coverage.kind === 'area'
+      ? { coverageCm2PerPack: Math.round(m.coverage.m2PerPack * 10_000), atThicknessMm: m.coverage.atThicknessMm, coverageMmPerPack: null }
+      : { coverageCm2PerPack: null, atThicknessMm: null, coverageMmPerPack: Math.round(m.coverage.metresPerPack * 1000) }),
+  }
+}
+
 /** The waste allowance commonly added to materials (DOMAIN.md: 10% is common). */
 export const DEFAULT_WASTE_PERCENT = 10
 

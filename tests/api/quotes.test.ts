@@ -23,6 +23,12 @@ afterAll(async () => {
   await app?.stop()
 })
 
+/** The firm's settings as the PATCH takes them. */
+function pickFirm(f: Record<string, unknown>) {
+  const { id: _i, createdAt: _c, updatedAt: _u, enquiryFormKey: _k, ...rest } = f
+  return rest
+}
+
 async function customerWithVisit(email = uniqueEmail('cust')) {
   const c = (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Quinn Abara', email }, site: { line1: '7 Mill Lade', postcode: 'OX9 4GH' } })).body
   const e = (await owner.post('/api/enquiries', { customerId: c.id, siteId: c.sites[0].id, source: 'phone', description: 'Skim the back bedroom' })).body
@@ -109,6 +115,53 @@ describe('quotes', () => {
     expect(Object.keys(res.body.data.fields).sort()).toEqual(['cisRatePercent', 'fixedPricePence', 'lines.0.description', 'lines.0.quantityX1000', 'lines.0.unitPence', 'validUntil'])
     // an empty quote, or a customer with no e-mail, cannot be sent
     expect((await owner.post(`/api/quotes/${id}/send`)).status).toBe(400)
+  })
+})
+
+describe('pricing by days and at a fixed price', () => {
+  async function draftWith(change: Record<string, unknown>) {
+    const { customer, visit } = await customerWithVisit()
+    const { id } = (await owner.post('/api/quotes', { customerId: customer.id, visitId: visit.id })).body
+    const q = (await owner.get(`/api/quotes/${id}`)).body
+    const { lines, pricing: _p, estimatedDaysX100, fixedPricePence: _f, vat, cisRatePercent, validUntil, terms, notes, cautions } = q.current
+    const body = { pricing: 'measure', estimatedDaysX100, fixedPricePence: null, vat, cisRatePercent, validUntil, terms, notes, cautions, lines: lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, derivation }: any) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, derivation })), ...change }
+    return { id, res: await owner.put(`/api/quotes/${id}/draft`, body), q }
+  }
+
+  it('prices by days at the firm\'s day rate, keeping the materials and the working lines', async () => {
+    // no day rate yet: a clear 400 on the day rate, nothing saved
+    const none = await draftWith({ pricing: 'days', estimatedDaysX100: 150 })
+    expect(none.res.status).toBe(400)
+    expect(none.res.body.data.fields.dayRatePence).toMatch(/day rate/)
+    expect((await owner.get(`/api/quotes/${none.id}`)).body.current.pricing).toBe('measure')
+
+    const firm = (await owner.get('/api/firm')).body
+    expect((await owner.patch('/api/firm', { ...pickFirm(firm), dayRatePence: 18_000 })).status).toBe(200)
+    const { res, q } = await draftWith({ pricing: 'days', estimatedDaysX100: 150 })
+    expect(res.status, JSON.stringify(res.body)).toBe(200)
+    const materialsNet = q.current.totals.materialsNetPence
+    // 1.5 days x £180.00 = £270.00 labour; materials as drafted
+    expect(res.body.current.totals).toMatchObject({ labourNetPence: 27_000, materialsNetPence: materialsNet, netPence: 27_000 + materialsNet })
+    expect(res.body.current.dayRatePence).toBe(18_000)
+    expect(res.body.current.lines.length).toBe(q.current.lines.length)
+    expect(res.body.current.customerLines.filter((l: any) => l.kind === 'labour')).toEqual([expect.objectContaining({ description: 'Labour: 1.5 days at £180.00 a day', quantityX1000: 1500, unitPence: 18_000 })])
+  })
+
+  it('prices at a fixed price with the materials kept apart, and refuses one below the materials', async () => {
+    const low = await draftWith({ pricing: 'fixed', fixedPricePence: 1 })
+    expect(low.res.status).toBe(400)
+    expect(low.res.body.data.fields.fixedPricePence).toMatch(/less than the materials/)
+    const { id, res, q } = await draftWith({ pricing: 'fixed', fixedPricePence: 500_00 })
+    expect(res.status, JSON.stringify(res.body)).toBe(200)
+    const materialsNet = q.current.totals.materialsNetPence
+    expect(res.body.current.totals).toMatchObject({ netPence: 500_00, materialsNetPence: materialsNet, labourNetPence: 500_00 - materialsNet })
+    // the customer's link and PDF show the priced lines, not the working
+    await owner.post(`/api/quotes/${id}/send`)
+    const mail = await app.waitForMail(q.customer.email, /Your quote Q-/)
+    const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
+    const view = (await new Client(app.url).get(`/api/public/quotes/${token}`)).body
+    expect(view.lines.filter((l: any) => l.kind === 'labour')).toEqual([expect.objectContaining({ description: 'Labour, at the fixed price', unitPence: 500_00 - materialsNet })])
+    expect(view.totals.netPence).toBe(500_00)
   })
 })
 

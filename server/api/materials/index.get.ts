@@ -1,8 +1,5 @@
-import { asc } from 'drizzle-orm'
-import { materials } from '../../db/schema'
-
-/** The firm's materials catalogue. */
+/** The firm's materials catalogue (the generic one the first time). */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:read')
-  return withFirm(auth, f => f.tx.select().from(materials).where(f.where(materials)).orderBy(asc(materials.type), asc(materials.name)))
+  return withFirm(auth, f => catalogueRows(f))
 })

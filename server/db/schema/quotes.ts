@@ -94,6 +94,8 @@ export const quoteVersions = pgTable('quote_versions', {
   /** Estimated days in hundredths (2.5 days = 250), shown however the quote is priced. */
   estimatedDaysX100: integer().notNull().default(0),
   fixedPricePence: integer(),
+  /** The firm's day rate when the draft was last saved, for pricing by days. */
+  dayRatePence: integer().notNull().default(0),
   vat: vatTreatment().notNull(),
   vatRatePercent: integer().notNull().default(20),
   cisRatePercent: integer(),

@@ -1,5 +1,5 @@
 import { eq, sql } from 'drizzle-orm'
-import { quoteVersions } from '../../../db/schema'
+import { firms, quoteVersions } from '../../../db/schema'
 import { quoteVersionSchema } from '#shared/schemas/quote'
 import { idParam } from '#shared/schemas/common'
 
@@ -15,7 +15,10 @@ export default defineEventHandler(async (event) => {
       throw createError({ statusCode: 409, statusMessage: 'Quote already sent', data: { message: 'This version has been sent, so it stays as it is. Make a revision to change it.' } })
     }
     const { lines, ...rest } = input
-    await f.tx.update(quoteVersions).set({ ...rest, updatedAt: sql`now()` }).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    const [firm] = await f.tx.select({ dayRatePence: firms.dayRatePence }).from(firms).where(eq(firms.id, f.firmId))
+    // checked before anything is written, so a fixed price below the materials is a 400 on that field
+    customerLines({ ...rest, dayRatePence: firm!.dayRatePence }, lines)
+    await f.tx.update(quoteVersions).set({ ...rest, dayRatePence: firm!.dayRatePence, updatedAt: sql`now()` }).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
     await saveLines(f, version.id, lines)
     await refreshTotals(f, version.id)
     await f.audit('quote.draft-saved', 'quote', id, { version: version.version })

@@ -1,0 +1,1 @@
+ALTER TABLE "quote_versions" ADD COLUMN "day_rate_pence" integer DEFAULT 0 NOT NULL;

@@ -1,0 +1,36 @@
+import { z } from 'zod'
+
+export const MATERIAL_TYPES = ['finish', 'bonding-undercoat', 'browning', 'bead', 'scrim', 'bonding-agent', 'other'] as const
+export const MATERIAL_TYPE_LABELS: Record<(typeof MATERIAL_TYPES)[number], string> = {
+  'finish': 'Finish plaster',
+  'bonding-undercoat': 'Bonding undercoat',
+  'browning': 'Browning or other undercoat',
+  'bead': 'Bead',
+  'scrim': 'Scrim',
+  'bonding-agent': 'Bonding agent',
+  'other': 'Other',
+}
+/** Kinds measured by area (m² a pack at a thickness) and by length (metres a pack). */
+export const AREA_TYPES: readonly string[] = ['finish', 'bonding-undercoat', 'browning']
+export const LENGTH_TYPES: readonly string[] = ['bead', 'scrim']
+
+/**
+ * One material of the firm's catalogue. Coverage is either by area (cm² a pack, so 10.5 m² is
+ * 105000, at a thickness in mm) or by length (mm a pack); which one follows from the kind.
+ */
+export const materialSchema = z.object({
+  type: z.enum(MATERIAL_TYPES, { error: 'Choose the kind of material.' }),
+  name: z.string({ error: 'Name the material.' }).trim().min(1, { error: 'Name the material, like Finish plaster.' }).max(120, { error: 'Keep the name under 120 characters.' }),
+  packLabel: z.string({ error: 'Describe the pack.' }).trim().min(1, { error: 'Describe the pack, like 25 kg bag.' }).max(60),
+  coverageCm2PerPack: z.int({ error: 'Enter the square metres a pack covers.' }).min(1, { error: 'A pack must cover more than 0 m².' }).max(10_000_000, { error: 'That coverage looks too big.' }).nullable().default(null),
+  atThicknessMm: z.int({ error: 'Enter the thickness in whole mm.' }).min(1, { error: 'The thickness must be at least 1 mm.' }).max(50, { error: 'Over 50 mm? Check the figure.' }).nullable().default(null),
+  coverageMmPerPack: z.int({ error: 'Enter the metres in a pack.' }).min(1, { error: 'A pack must hold more than 0 m.' }).max(10_000_000, { error: 'That length looks too big.' }).nullable().default(null),
+  costPence: z.int({ error: 'Enter the price in pounds and pence.' }).min(0, { error: 'The price cannot be negative.' }).max(100_000_00, { error: 'That price looks too high.' }),
+  supplier: z.string().trim().max(120, { error: 'Keep the supplier under 120 characters.' }).default(''),
+  active: z.boolean().default(true),
+})
+  .refine(m => !AREA_TYPES.includes(m.type) || m.coverageCm2PerPack !== null, { path: ['coverageCm2PerPack'], error: 'Enter the square metres a pack covers.', when: () => true })
+  .refine(m => !AREA_TYPES.includes(m.type) || m.atThicknessMm !== null, { path: ['atThicknessMm'], error: 'Enter the thickness that coverage is for.', when: () => true })
+  .refine(m => !LENGTH_TYPES.includes(m.type) || m.coverageMmPerPack !== null, { path: ['coverageMmPerPack'], error: 'Enter the metres in a pack (a bead\'s length, a roll\'s length).', when: () => true })
+  .refine(m => !(m.coverageCm2PerPack !== null && m.coverageMmPerPack !== null), { path: ['coverageMmPerPack'], error: 'Give coverage by area or by length, not both.', when: () => true })
+export type MaterialInput = z.input<typeof materialSchema>

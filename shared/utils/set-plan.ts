@@ -1,0 +1,831 @@
+// The set planner: which surfaces go in which set, in what order.
+//
+// A set is one batch of plaster mixed, laid on and trowelled up in one go (../shared/DOMAIN.md,
+// "Planning the sets"). The trade's rules of thumb for the order (common practice):
+// - a difficult internal corner (`dryCorner`) is worked against a face that has already set, so
+//   its two faces are skimmed in different sets;
+// - patches back to the undercoat or masonry are filled in an earlier set than the skim over
+//   them, so the whole surface has even suction;
+// - a gap bridged with scrim takes thin tight coats in at least two earlier sets before the
+//   surface is skimmed;
+// - on a packed-out bead the face is skimmed before its return, so the set plaster holds the bead;
+// - a set is no bigger than the people can lay on and trowel (people x bagsPerPersonPerSet bags),
+//   sets are kept even, and there are as few of them as the rules allow.
+// It is a rule of thumb for the day, not a promise about setting or drying: the plasterer
+// decides on site, and can move surfaces by hand (`checkPlan` then says which rule is broken).
+//
+// How it works:
+// 1. Check the numbers (a bad one throws, naming the field) and tidy the room: a corner naming an
+//    unknown surface, a corner from a surface to itself, a repeated surface id and a circle of
+//    packed-out beads are left out with a warning, never an exception.
+// 2. Make tasks: a skim per surface, a patch fill before it (split into parts when it is more
+//    than one set can take), two thin tight coats before a scrimmed surface. Bags are counted in
+//    whole tenths, so 0.1 + 0.2 is 0.3 and never 0.30000000000000004.
+// 3. Join the tasks by "must be in an earlier set" edges (fill -> skim, coat 1 -> coat 2 -> skim,
+//    face -> return). That graph has no cycles, so a longest path gives each task the earliest
+//    set it can go in (its level) and how many sets must follow it (its tail). Difficult corners
+//    are "not in the same set" pairs, not edges, so a ring of four walls needs two sets, not four.
+// 4. Pack. First fit in level order always succeeds (a new set is opened when nothing fits) and
+//    gives an upper bound on the sets. Then, between the lower bound (levels, and total bags over
+//    what one set takes) and that, a binary search looks for the fewest sets that a balanced
+//    packing (each task into the least-loaded set it may go in) fills.
+// 5. Even out: neighbouring sets that can be one are merged, and single tasks move from heavier to
+//    lighter sets while every rule still holds, until no move helps. Empty sets are dropped.
+// 6. Each task gets a reason in plain words naming its set and why.
+// Everything is in input order with fixed tie-breaks, so the same input gives the same plan.
+// The work is about (tasks x sets) per pass, so a whole house is a millisecond or two.
+
+export interface PlanSurface { id: string, areaM2: number, patches?: { areaM2: number }[], scrimmedGap?: boolean }
+export interface PlanCorner { a: string, b: string, kind: 'internal' | 'external', dryCorner?: boolean, packedBead?: { face: string } }
+export interface PlanOptions { people: number, bagsPerPersonPerSet: number, coverageM2PerBag: number }
+export interface PlanTask { surfaceId: string, action: 'fill' | 'tight-coat' | 'skim', bags: number, reason: string }
+export interface PlannedSet { number: number, tasks: PlanTask[], bags: number }
+export interface SetPlan { sets: PlannedSet[], warnings: string[] }
+
+/** A thin tight coat over scrim is a trowelful or two from that set's mix: counted as 0.1 bag (a planning figure, not a measured one). */
+export const TIGHT_COAT_TENTHS = 1
+/** How many thin tight coats a scrimmed gap takes before the skim (at least two, in different sets). */
+export const TIGHT_COATS = 2
+
+/** Areas above this are taken to be a typing error. */
+const MAX_AREA_M2 = 1_000_000
+
+// ---------------------------------------------------------------------------------------------
+// Numbers
+
+/** Strips the last-bit noise of a float product or quotient (1.15 * 10 = 11.499999999999998). */
+function clean(x: number): number {
+  return Number(x.toPrecision(12))
+}
+
+/** A quantity of bags (0 or more) to whole tenths, half up. */
+function toTenths(bags: number): number {
+  return Math.floor(clean(bags * 10) + 0.5)
+}
+
+/** Tenths as a number of bags with one decimal at most: 3 -> 0.3, 120 -> 12. */
+function bagsOf(tenths: number): number {
+  return tenths / 10
+}
+
+/** Tenths for people to read: 145 -> '14.5', 120 -> '12'. */
+function fmtTenths(tenths: number): string {
+  return tenths % 10 === 0 ? String(tenths / 10) : (tenths / 10).toFixed(1)
+}
+
+function fmtNumber(n: number): string {
+  return String(clean(n))
+}
+
+function finiteAtLeast0(n: unknown, field: string): number {
+  if (typeof n !== 'number' || !Number.isFinite(n) || n < 0) throw new RangeError(`${field} must be a number of 0 or more, got ${String(n)}`)
+  if (n > MAX_AREA_M2) throw new RangeError(`${field} looks too big (over ${MAX_AREA_M2} m²), got ${n}`)
+  return n
+}
+
+function peopleText(people: number): string {
+  return people === 1 ? '1 person' : `${people} people`
+}
+
+function setList(numbers: number[]): string {
+  const sorted = [...new Set(numbers)].sort((x, y) => x - y).map(n => `set ${n}`)
+  return sorted.length <= 1 ? sorted.join('') : `${sorted.slice(0, -1).join(', ')} and ${sorted[sorted.length - 1]}`
+}
+
+function nameList(names: string[]): string {
+  return names.length <= 1 ? names.join('') : `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`
+}
+
+// ---------------------------------------------------------------------------------------------
+// The room, checked and tidied
+
+interface ModelSurface {
+  id: string
+  name: string
+  areaM2: number
+  skimTenths: number
+  /** 0 when the surface has no patches. */
+  fillTenths: number
+  hasPatches: boolean
+  gap: boolean
+}
+
+interface Model {
+  surfaces: ModelSurface[]
+  index: Map<string, number>
+  /** Difficult corners as pairs of surface indexes, each pair once (lower index first). */
+  dry: [number, number][]
+  /** Packed-out beads as [face, return] surface indexes, each once, with no circle. */
+  packed: [number, number][]
+  warnings: string[]
+  people: number
+  capTenths: number
+  coverage: number
+}
+
+function checkOptions(o: PlanOptions): { capTenths: number } {
+  if (o === null || typeof o !== 'object') throw new TypeError('options must give people, bagsPerPersonPerSet and coverageM2PerBag')
+  if (typeof o.people !== 'number' || !Number.isSafeInteger(o.people) || o.people < 1) {
+    throw new RangeError(`people must be a whole number of 1 or more, got ${String(o.people)}`)
+  }
+  const perPerson = o.bagsPerPersonPerSet
+  if (typeof perPerson !== 'number' || !Number.isFinite(perPerson) || perPerson <= 0) {
+    throw new RangeError(`bagsPerPersonPerSet must be a number over 0, got ${String(perPerson)}`)
+  }
+  const cover = o.coverageM2PerBag
+  if (typeof cover !== 'number' || !Number.isFinite(cover) || cover <= 0) {
+    throw new RangeError(`coverageM2PerBag must be a number over 0, got ${String(cover)}`)
+  }
+  const capTenths = Math.min(Number.MAX_SAFE_INTEGER, Math.floor(clean(o.people * perPerson * 10)))
+  if (capTenths < 1) throw new RangeError(`bagsPerPersonPerSet x people must come to at least 0.1 bag a set, got ${fmtNumber(o.people * perPerson)}`)
+  return { capTenths }
+}
+
+function bagsForArea(areaM2: number, coverage: number, field: string): number {
+  const tenths = toTenths(areaM2 / coverage)
+  if (!Number.isSafeInteger(tenths) || tenths > 1e12) throw new RangeError(`${field} at coverageM2PerBag ${coverage} comes to too many bags to plan`)
+  return tenths
+}
+
+function buildModel(surfaces: PlanSurface[], corners: PlanCorner[], options: PlanOptions, labels: Record<string, string> | undefined): Model {
+  const { capTenths } = checkOptions(options)
+  if (!Array.isArray(surfaces)) throw new TypeError('surfaces must be a list')
+  if (!Array.isArray(corners)) throw new TypeError('corners must be a list')
+  const coverage = options.coverageM2PerBag
+  const name = (id: string): string => {
+    const l = labels?.[id]
+    return typeof l === 'string' && l.trim() ? l : String(id)
+  }
+  const warnings: string[] = []
+  const model: Model = { surfaces: [], index: new Map(), dry: [], packed: [], warnings, people: options.people, capTenths, coverage }
+
+  surfaces.forEach((s, i) => {
+    const areaM2 = finiteAtLeast0(s.areaM2, `surfaces[${i}].areaM2`)
+    let patchM2 = 0
+    const patches = s.patches ?? []
+    if (!Array.isArray(patches)) throw new TypeError(`surfaces[${i}].patches must be a list`)
+    patches.forEach((p, j) => { patchM2 += finiteAtLeast0(p?.areaM2, `surfaces[${i}].patches[${j}].areaM2`) })
+    const skimTenths = bagsForArea(areaM2, coverage, `surfaces[${i}].areaM2`)
+    const hasPatches = patches.length > 0
+    // a fill is at least 0.1 bag: a small patch still needs a small mix
+    const fillTenths = hasPatches ? Math.max(1, bagsForArea(patchM2, coverage, `surfaces[${i}].patches`)) : 0
+    const id = s.id
+    const seen = model.index.get(id)
+    if (seen !== undefined) {
+      warnings.push(`Two surfaces share the id ${name(id)}; only the first (${fmtNumber(model.surfaces[seen]!.areaM2)} m²) is planned, the other (${fmtNumber(areaM2)} m²) is left out.`)
+      return
+    }
+    model.index.set(id, model.surfaces.length)
+    model.surfaces.push({ id, name: name(id), areaM2, skimTenths, fillTenths, hasPatches, gap: s.scrimmedGap === true })
+  })
+
+  // Corners. Packed beads are added in input order; one that would close a circle is dropped.
+  const n = model.surfaces.length
+  const after: number[][] = Array.from({ length: n }, () => [])
+  const dryKeys = new Set<string>()
+  const packedKeys = new Set<string>()
+  const stamp = new Int32Array(n)
+  let visit = 0
+  const reaches = (from: number, to: number): boolean => {
+    visit += 1
+    const stack = [from]
+    stamp[from] = visit
+    while (stack.length) {
+      const x = stack.pop()!
+      if (x === to) return true
+      for (const y of after[x]!) {
+        if (stamp[y] !== visit) {
+          stamp[y] = visit
+          stack.push(y)
+        }
+      }
+    }
+    return false
+  }
+  for (const c of corners) {
+    const ia = model.index.get(c?.a)
+    const ib = model.index.get(c?.b)
+    if (ia === undefined || ib === undefined) {
+      const unknown = [...new Set([c?.a, c?.b].filter(id => !model.index.has(id)).map(id => name(String(id))))]
+      warnings.push(`A corner between ${name(String(c?.a))} and ${name(String(c?.b))} names ${nameList(unknown)}, which ${unknown.length === 1 ? 'is not one' : 'are not'} of the surfaces; that corner is left out of the plan.`)
+      continue
+    }
+    if (ia === ib) {
+      warnings.push(`A corner joins ${name(c.a)} to itself; it is left out of the plan.`)
+      continue
+    }
+    if (c.dryCorner) {
+      const key = ia < ib ? `${ia}:${ib}` : `${ib}:${ia}`
+      if (!dryKeys.has(key)) {
+        dryKeys.add(key)
+        model.dry.push(ia < ib ? [ia, ib] : [ib, ia])
+      }
+    }
+    if (c.packedBead) {
+      const face = c.packedBead.face
+      if (face !== c.a && face !== c.b) {
+        warnings.push(`The packed-out bead between ${name(c.a)} and ${name(c.b)} gives its face as ${name(String(face))}, which is neither of them; it is planned as if the bead were not packed out.`)
+        continue
+      }
+      const f = face === c.a ? ia : ib
+      const r = f === ia ? ib : ia
+      const key = `${f}:${r}`
+      if (packedKeys.has(key)) continue
+      if (reaches(r, f)) {
+        warnings.push(`The packed-out bead between ${name(c.a)} and ${name(c.b)} would have ${name(face)} skimmed before ${model.surfaces[r]!.name}, but other packed-out beads already put ${model.surfaces[r]!.name} first: the beads go round in a circle, so this one is planned as if it were not packed out. Check the order on site.`)
+        continue
+      }
+      packedKeys.add(key)
+      after[f]!.push(r)
+      model.packed.push([f, r])
+    }
+  }
+  return model
+}
+
+function oversizedWarning(m: Model, s: ModelSurface): string {
+  return `${s.name} needs ${fmtTenths(s.skimTenths)} bags, more than ${peopleText(m.people)} can lay on and trowel in one set (${fmtTenths(m.capTenths)}), so it has a set to itself. Split it at a natural break or bring more hands.`
+}
+
+// ---------------------------------------------------------------------------------------------
+// Tasks and the "earlier set" graph
+
+const ACTION_ORDER = { 'fill': 0, 'tight-coat': 1, 'skim': 2 } as const
+
+interface Graph {
+  surface: number[]
+  action: PlanTask['action'][]
+  tenths: number[]
+  /** For fills and tight coats: 1-based part and how many parts. */
+  part: number[]
+  parts: number[]
+  preds: number[][]
+  succs: number[][]
+  /** Skims that must not share this skim's set. */
+  apart: number[][]
+  skimOf: number[]
+  level: number[]
+  tail: number[]
+}
+
+function buildGraph(m: Model): Graph {
+  const g: Graph = { surface: [], action: [], tenths: [], part: [], parts: [], preds: [], succs: [], apart: [], skimOf: [], level: [], tail: [] }
+  const add = (s: number, action: PlanTask['action'], tenths: number, part: number, parts: number): number => {
+    g.surface.push(s)
+    g.action.push(action)
+    g.tenths.push(tenths)
+    g.part.push(part)
+    g.parts.push(parts)
+    g.preds.push([])
+    g.succs.push([])
+    g.apart.push([])
+    return g.surface.length - 1
+  }
+  const edge = (from: number, to: number): void => {
+    g.succs[from]!.push(to)
+    g.preds[to]!.push(from)
+  }
+  m.surfaces.forEach((s, i) => {
+    const before: number[] = []
+    if (s.hasPatches) {
+      // a fill bigger than one set can take is split into even parts, each in a set of its own
+      const parts = Math.ceil(s.fillTenths / m.capTenths)
+      const base = Math.floor(s.fillTenths / parts)
+      const extra = s.fillTenths - base * parts
+      for (let p = 1; p <= parts; p++) before.push(add(i, 'fill', base + (p <= extra ? 1 : 0), p, parts))
+    }
+    if (s.gap) {
+      let prev = -1
+      for (let p = 1; p <= TIGHT_COATS; p++) {
+        const t = add(i, 'tight-coat', TIGHT_COAT_TENTHS, p, TIGHT_COATS)
+        if (prev >= 0) edge(prev, t)
+        prev = t
+      }
+      before.push(prev)
+    }
+    const skim = add(i, 'skim', s.skimTenths, 1, 1)
+    for (const b of before) edge(b, skim)
+    g.skimOf[i] = skim
+  })
+  for (const [f, r] of m.packed) edge(g.skimOf[f]!, g.skimOf[r]!)
+  for (const [a, b] of m.dry) {
+    g.apart[g.skimOf[a]!]!.push(g.skimOf[b]!)
+    g.apart[g.skimOf[b]!]!.push(g.skimOf[a]!)
+  }
+
+  // Longest paths over the DAG (Kahn's order, first in first out, so it is deterministic).
+  const n = g.surface.length
+  const indeg = g.preds.map(p => p.length)
+  const order: number[] = []
+  for (let t = 0; t < n; t++) if (indeg[t] === 0) order.push(t)
+  for (let h = 0; h < order.length; h++) {
+    for (const s of g.succs[order[h]!]!) {
+      indeg[s]! -= 1
+      if (indeg[s] === 0) order.push(s)
+    }
+  }
+  g.level = new Array<number>(n).fill(1)
+  g.tail = new Array<number>(n).fill(0)
+  for (const t of order) for (const s of g.succs[t]!) g.level[s] = Math.max(g.level[s]!, g.level[t]! + 1)
+  for (let h = order.length - 1; h >= 0; h--) {
+    const t = order[h]!
+    for (const s of g.succs[t]!) g.tail[t] = Math.max(g.tail[t]!, g.tail[s]! + 1)
+  }
+  return g
+}
+
+// ---------------------------------------------------------------------------------------------
+// Packing
+
+interface Packing {
+  /** 0-based set of each task. */
+  setOf: Int32Array
+  load: number[]
+  count: number[]
+}
+
+function placeOrder(g: Graph): number[] {
+  // level first (every task after the tasks it follows), then the tightest (longest tail), then the biggest
+  return g.surface.map((_, t) => t).sort((x, y) =>
+    g.level[x]! - g.level[y]! || g.tail[y]! - g.tail[x]! || g.tenths[y]! - g.tenths[x]! || x - y)
+}
+
+function earliest(g: Graph, setOf: Int32Array, t: number): number {
+  let e = 0
+  for (const p of g.preds[t]!) e = Math.max(e, setOf[p]! + 1)
+  return e
+}
+
+function fits(g: Graph, pk: Packing, cap: number, j: number, t: number): boolean {
+  // an empty set takes anything (only a skim can be bigger than a set); a set with work in it takes what still fits
+  if (pk.count[j] === 0) return true
+  return pk.load[j]! + g.tenths[t]! <= cap
+}
+
+function apartOk(g: Graph, setOf: Int32Array, j: number, t: number): boolean {
+  for (const d of g.apart[t]!) if (setOf[d] === j) return false
+  return true
+}
+
+function place(g: Graph, pk: Packing, t: number, j: number): void {
+  pk.setOf[t] = j
+  pk.load[j]! += g.tenths[t]!
+  pk.count[j]! += 1
+}
+
+/** First fit, opening a set when nothing fits: always succeeds. */
+function firstFit(g: Graph, order: number[], cap: number): Packing {
+  const pk: Packing = { setOf: new Int32Array(g.surface.length).fill(-1), load: [], count: [] }
+  for (const t of order) {
+    let j = earliest(g, pk.setOf, t)
+    while (j < pk.load.length && !(fits(g, pk, cap, j, t) && apartOk(g, pk.setOf, j, t))) j++
+    if (j === pk.load.length) {
+      pk.load.push(0)
+      pk.count.push(0)
+    }
+    place(g, pk, t, j)
+  }
+  return pk
+}
+
+/** Each task into the least-loaded set it may go in, among exactly k sets; null when one does not fit. */
+function balanced(g: Graph, order: number[], cap: number, k: number): Packing | null {
+  const pk: Packing = { setOf: new Int32Array(g.surface.length).fill(-1), load: new Array<number>(k).fill(0), count: new Array<number>(k).fill(0) }
+  for (const t of order) {
+    const last = k - 1 - g.tail[t]!
+    let best = -1
+    for (let j = earliest(g, pk.setOf, t); j <= last; j++) {
+      if ((best < 0 || pk.load[j]! < pk.load[best]!) && fits(g, pk, cap, j, t) && apartOk(g, pk.setOf, j, t)) best = j
+    }
+    if (best < 0) return null
+    place(g, pk, t, best)
+  }
+  return pk
+}
+
+/** Drops empty sets and numbers the rest 0.. in order. */
+function compact(pk: Packing): Packing {
+  const map = new Int32Array(pk.load.length).fill(-1)
+  const load: number[] = []
+  const count: number[] = []
+  pk.load.forEach((l, j) => {
+    if (pk.count[j]! > 0) {
+      map[j] = load.length
+      load.push(l)
+      count.push(pk.count[j]!)
+    }
+  })
+  const setOf = pk.setOf.map(j => map[j]!)
+  return { setOf, load, count }
+}
+
+/** Merges each set into the one before it where the two can be one set; a single left-to-right pass. Returns whether any merged. */
+function mergeNeighbours(g: Graph, pk: Packing, cap: number): boolean {
+  const members: number[][] = pk.load.map(() => [])
+  pk.setOf.forEach((j, t) => members[j]!.push(t))
+  let merged = false
+  let cur = -1
+  for (let j = 0; j < members.length; j++) {
+    if (members[j]!.length === 0) continue
+    if (cur >= 0 && pk.load[cur]! + pk.load[j]! <= cap
+      && members[j]!.every(t => g.preds[t]!.every(p => pk.setOf[p] !== cur) && g.apart[t]!.every(d => pk.setOf[d] !== cur))) {
+      for (const t of members[j]!) pk.setOf[t] = cur
+      members[cur]!.push(...members[j]!)
+      pk.load[cur]! += pk.load[j]!
+      pk.count[cur]! += pk.count[j]!
+      pk.load[j] = 0
+      pk.count[j] = 0
+      members[j] = []
+      merged = true
+    }
+    else {
+      cur = j
+    }
+  }
+  return merged
+}
+
+/**
+ * Moves single tasks from a heavier set to a lighter one while every rule holds, until no move
+ * helps. A move of b bags from a set of load Li to one of Lj is only made when Lj + b < Li, so the
+ * sum of the squared loads falls every time and the loop ends. Returns whether anything moved.
+ */
+function evenOut(g: Graph, order: number[], pk: Packing, cap: number, maxPasses: number): boolean {
+  let movedAny = false
+  for (let pass = 0; pass < maxPasses; pass++) {
+    let moved = false
+    for (const t of order) {
+      const b = g.tenths[t]!
+      if (b === 0) continue
+      const i = pk.setOf[t]!
+      let lo = 0
+      for (const p of g.preds[t]!) lo = Math.max(lo, pk.setOf[p]! + 1)
+      let hi = pk.load.length - 1
+      for (const s of g.succs[t]!) hi = Math.min(hi, pk.setOf[s]! - 1)
+      let best = -1
+      for (let j = lo; j <= hi; j++) {
+        if (j === i || pk.count[j] === 0) continue
+        const lj = pk.load[j]!
+        if (lj + b < pk.load[i]! && lj + b <= cap && (best < 0 || lj < pk.load[best]!) && apartOk(g, pk.setOf, j, t)) best = j
+      }
+      if (best >= 0) {
+        pk.load[i]! -= b
+        pk.count[i]! -= 1
+        place(g, pk, t, best)
+        moved = true
+      }
+    }
+    if (!moved) break
+    movedAny = true
+  }
+  return movedAny
+}
+
+/** Whether task t may sit in set j, with `other` about to leave j (for a swap). */
+function mayGo(g: Graph, pk: Packing, t: number, j: number, other: number): boolean {
+  for (const p of g.preds[t]!) if (pk.setOf[p]! >= j) return false
+  for (const s of g.succs[t]!) if (pk.setOf[s]! <= j) return false
+  for (const d of g.apart[t]!) if (d !== other && pk.setOf[d] === j) return false
+  return true
+}
+
+/**
+ * Swaps a pair of tasks between the heaviest set and another, or the lightest set and another,
+ * when that evens the two (a single move could not). Each swap of a bigger task b from the heavier
+ * set H for a smaller one c from the lighter set L is made only when L + (b - c) < H, so again the
+ * sum of the squared loads falls. Sets holding an oversized skim are left alone.
+ */
+function swapExtremes(g: Graph, pk: Packing, cap: number, maxSwaps: number): boolean {
+  let swapped = false
+  for (let n = 0; n < maxSwaps; n++) {
+    const members: number[][] = pk.load.map(() => [])
+    pk.setOf.forEach((j, t) => members[j]!.push(t))
+    let heavy = -1
+    let light = -1
+    pk.load.forEach((l, j) => {
+      if (pk.count[j] === 0 || l > cap) return
+      if (heavy < 0 || l > pk.load[heavy]!) heavy = j
+      if (light < 0 || l < pk.load[light]!) light = j
+    })
+    if (heavy < 0 || heavy === light) break
+    let best: [number, number] | null = null
+    let bestGain = 0
+    for (const x of [heavy, light]) {
+      for (const a of members[x]!) {
+        for (let y = 0; y < members.length; y++) {
+          if (y === x || pk.count[y] === 0 || pk.load[y]! > cap) continue
+          const [hi, lo] = pk.load[x]! > pk.load[y]! ? [x, y] : [y, x]
+          const gap = pk.load[hi]! - pk.load[lo]!
+          for (const b of members[y]!) {
+            const [big, small] = hi === x ? [a, b] : [b, a]
+            const d = g.tenths[big]! - g.tenths[small]!
+            if (d <= 0 || d >= gap || pk.load[lo]! + d > cap) continue
+            const gain = d * (gap - d)
+            if (gain > bestGain && mayGo(g, pk, big, lo, small) && mayGo(g, pk, small, hi, big)) {
+              bestGain = gain
+              best = [big, small]
+            }
+          }
+        }
+      }
+      if (best) break
+    }
+    if (!best) break
+    const [big, small] = best
+    const hi = pk.setOf[big]!
+    const lo = pk.setOf[small]!
+    const d = g.tenths[big]! - g.tenths[small]!
+    pk.setOf[big] = lo
+    pk.setOf[small] = hi
+    pk.load[hi]! -= d
+    pk.load[lo]! += d
+    swapped = true
+  }
+  return swapped
+}
+
+function pack(g: Graph, m: Model): Packing {
+  const cap = m.capTenths
+  const order = placeOrder(g)
+  if (order.length === 0) return { setOf: new Int32Array(0), load: [], count: [] }
+  const ff = compact(firstFit(g, order, cap))
+  // lower bound: the longest chain, and the bags (an oversized skim takes a set of its own)
+  let rest = 0
+  let alone = 0
+  let levels = 1
+  g.tenths.forEach((b, t) => {
+    if (b > cap) alone += 1
+    else rest += b
+    levels = Math.max(levels, g.level[t]!)
+  })
+  let lo = Math.max(levels, alone + Math.ceil(rest / cap), 1)
+  let hi = ff.load.length - 1
+  let best: Packing | null = null
+  while (lo <= hi) {
+    const mid = Math.floor((lo + hi) / 2)
+    const p = balanced(g, order, cap, mid)
+    if (p) {
+      best = p
+      hi = mid - 1
+    }
+    else {
+      lo = mid + 1
+    }
+  }
+  let pk = compact(best ?? balanced(g, order, cap, ff.load.length) ?? ff)
+  for (let round = 0; round < 50; round++) {
+    mergeNeighbours(g, pk, cap)
+    pk = compact(pk)
+    const moved = evenOut(g, order, pk, cap, 100)
+    const swapped = swapExtremes(g, pk, cap, 4 * pk.load.length + 10)
+    if (!moved && !swapped) break
+  }
+  return compact(pk)
+}
+
+// ---------------------------------------------------------------------------------------------
+// Reasons
+
+function reasons(m: Model, g: Graph, pk: Packing): string[] {
+  const setNo = (t: number): number => pk.setOf[t]! + 1
+  const skimSet = (s: number): number => setNo(g.skimOf[s]!)
+  const faces: number[][] = m.surfaces.map(() => [])
+  const returns: number[][] = m.surfaces.map(() => [])
+  for (const [f, r] of m.packed) {
+    returns[f]!.push(r)
+    faces[r]!.push(f)
+  }
+  const partners: number[][] = m.surfaces.map(() => [])
+  for (const [a, b] of m.dry) {
+    partners[a]!.push(b)
+    partners[b]!.push(a)
+  }
+  const beforeSkim: number[][] = m.surfaces.map(() => [])
+  g.surface.forEach((s, t) => {
+    if (g.action[t] !== 'skim') beforeSkim[s]!.push(t)
+  })
+  const cap = m.capTenths
+  return g.surface.map((s, t) => {
+    const j = setNo(t)
+    const sf = m.surfaces[s]!
+    const skimIn = skimSet(s)
+    if (g.action[t] === 'fill') {
+      const part = g.parts[t]! > 1 ? `Patch fill, part ${g.part[t]} of ${g.parts[t]}, in set ${j}` : `Patch filled in set ${j}`
+      return `${part} so the skim over it in set ${skimIn} has even suction`
+    }
+    if (g.action[t] === 'tight-coat') {
+      return `Thin tight coat over the scrimmed gap, ${g.part[t]} of ${g.parts[t]}, in set ${j}: it firms up before the skim in set ${skimIn}`
+    }
+    const said: string[] = []
+    const linked = new Set<number>()
+    if (returns[s]!.length) {
+      const list = returns[s]!.map(r => `${m.surfaces[r]!.name} in set ${skimSet(r)}`)
+      said.push(`Face of the packed-out bead, skimmed in set ${j} before its return (${nameList(list)}) so the set plaster holds the bead`)
+      returns[s]!.forEach(r => linked.add(r))
+    }
+    if (faces[s]!.length) {
+      const list = faces[s]!.map(f => `${m.surfaces[f]!.name} in set ${skimSet(f)}`)
+      said.push(`Return of the packed-out bead, skimmed in set ${j} after its face (${nameList(list)}) so the bead is already held`)
+      faces[s]!.forEach(f => linked.add(f))
+    }
+    const earlier = partners[s]!.filter(p => !linked.has(p) && skimSet(p) < j)
+    const later = partners[s]!.filter(p => !linked.has(p) && skimSet(p) > j)
+    if (earlier.length) {
+      const list = earlier.map(p => `${m.surfaces[p]!.name} (set ${skimSet(p)})`)
+      said.push(`Skimmed in set ${j} so the corner with ${nameList(list)} is against a face that has already set`)
+    }
+    if (later.length) {
+      const list = later.map(p => `${m.surfaces[p]!.name} (set ${skimSet(p)})`)
+      said.push(`Skimmed in set ${j}, before ${nameList(list)}, so that difficult corner is not worked with both faces wet`)
+    }
+    const fills = beforeSkim[s]!.filter(x => g.action[x] === 'fill').map(setNo)
+    if (fills.length) said.push(`Skimmed in set ${j}, after the patch fill in ${setList(fills)}, so the whole surface has even suction`)
+    const coats = beforeSkim[s]!.filter(x => g.action[x] === 'tight-coat').map(setNo)
+    if (coats.length) said.push(`Skimmed in set ${j}, after the thin tight coats over the scrimmed gap in ${setList(coats)}`)
+    if (g.tenths[t]! > cap) {
+      said.push(`On its own in set ${j}: at ${fmtTenths(sf.skimTenths)} bags it is more than ${peopleText(m.people)} can lay on and trowel in one set (${fmtTenths(cap)})`)
+    }
+    else if (!said.length) {
+      const load = pk.load[pk.setOf[t]!]!
+      const room = load < cap ? 'with room to spare' : 'which it fills'
+      said.push(j === 1
+        ? `Fits in set 1 ${room} (${fmtTenths(load)} of ${fmtTenths(cap)} bags)`
+        : `In set ${j} to keep the sets even (${fmtTenths(load)} of ${fmtTenths(cap)} bags)`)
+    }
+    return said.join('; ')
+  })
+}
+
+// ---------------------------------------------------------------------------------------------
+// The planner
+
+/**
+ * Plans the sets for a room or a job. `labels` (optional) gives each surface id a name for the
+ * reasons and warnings, e.g. "Front bedroom · Wall 2"; without it the ids are used.
+ * Throws a RangeError naming the field for a bad number; warns, never throws, for a muddled room.
+ */
+export function planSets(surfaces: PlanSurface[], corners: PlanCorner[], options: PlanOptions, labels?: Record<string, string>): SetPlan {
+  const m = buildModel(surfaces, corners, options, labels)
+  const g = buildGraph(m)
+  const pk = pack(g, m)
+  const why = reasons(m, g, pk)
+  const byset: number[][] = pk.load.map(() => [])
+  pk.setOf.forEach((j, t) => byset[j]!.push(t))
+  const sets: PlannedSet[] = byset.map((tasks, j) => {
+    tasks.sort((x, y) => ACTION_ORDER[g.action[x]!] - ACTION_ORDER[g.action[y]!] || g.surface[x]! - g.surface[y]! || x - y)
+    return {
+      number: j + 1,
+      tasks: tasks.map(t => ({ surfaceId: m.surfaces[g.surface[t]!]!.id, action: g.action[t]!, bags: bagsOf(g.tenths[t]!), reason: why[t]! })),
+      bags: bagsOf(pk.load[j]!),
+    }
+  })
+  const warnings = [...m.warnings]
+  m.surfaces.forEach((s) => {
+    if (s.skimTenths > m.capTenths) warnings.push(oversizedWarning(m, s))
+  })
+  return { sets, warnings }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Checking a plan (after a surface was moved by hand, say)
+
+function taskTenths(bags: unknown): number | null {
+  if (typeof bags !== 'number' || !Number.isFinite(bags) || bags < 0) return null
+  const tenths = Math.round(bags * 10)
+  return Math.abs(bags * 10 - tenths) < 1e-6 ? tenths : null
+}
+
+const ACTION_WORDS: Record<PlanTask['action'], string> = { 'fill': 'patch fill', 'tight-coat': 'tight coat', 'skim': 'skim' }
+
+/**
+ * Re-checks a plan against the rules and returns each broken one in plain words (an empty list
+ * when it is sound). A skim that alone is more than one set gives the same words as `planSets`'s
+ * warning. Problems with the room itself (unknown corners and so on) are `planSets`'s warnings,
+ * not repeated here; a bad number in the options or areas still throws, as in `planSets`.
+ */
+export function checkPlan(surfaces: PlanSurface[], corners: PlanCorner[], options: PlanOptions, plan: SetPlan, labels?: Record<string, string>): string[] {
+  const m = buildModel(surfaces, corners, options, labels)
+  const out: string[] = []
+  const sets: PlannedSet[] = Array.isArray(plan?.sets) ? plan.sets : []
+  const nameOf = (id: string): string => {
+    const i = m.index.get(id)
+    if (i !== undefined) return m.surfaces[i]!.name
+    const l = labels?.[id]
+    return typeof l === 'string' && l.trim() ? l : String(id)
+  }
+
+  const numbers = sets.map(s => s?.number)
+  if (numbers.some((n, i) => n !== i + 1)) {
+    out.push(`The sets are numbered ${numbers.map(String).join(', ')}; they should run 1 to ${sets.length} in order.`)
+  }
+  const skims = m.surfaces.map((): number[] => [])
+  const skimBags = m.surfaces.map((): number[] => [])
+  const fills = m.surfaces.map((): { set: number, tenths: number }[] => [])
+  const coats = m.surfaces.map((): number[] => [])
+
+  sets.forEach((set, i) => {
+    const no = i + 1
+    const tasks: PlanTask[] = Array.isArray(set?.tasks) ? set.tasks : []
+    if (tasks.length === 0) out.push(`Set ${no} is empty.`)
+    let sum = 0
+    for (const task of tasks) {
+      const word = ACTION_WORDS[task?.action] as string | undefined
+      const who = nameOf(task?.surfaceId)
+      const tenths = taskTenths(task?.bags)
+      if (tenths === null) out.push(`In set ${no}, the ${word ?? 'task'} for ${who} is ${String(task?.bags)} bags; bags are counted in tenths, 0 or more.`)
+      else sum += tenths
+      if (!word) {
+        out.push(`Set ${no} has a task "${String(task?.action)}" for ${who} that the planner does not know.`)
+        continue
+      }
+      if (typeof task.reason !== 'string' || !task.reason.trim()) out.push(`In set ${no}, the ${word} for ${who} gives no reason.`)
+      const s = m.index.get(task.surfaceId)
+      if (s === undefined) {
+        out.push(`Set ${no} has a ${word} for ${who}, which is not one of the surfaces.`)
+        continue
+      }
+      if (task.action === 'skim') {
+        skims[s]!.push(no)
+        skimBags[s]!.push(tenths ?? -1)
+      }
+      else if (task.action === 'fill') {
+        fills[s]!.push({ set: no, tenths: tenths ?? 0 })
+      }
+      else {
+        coats[s]!.push(no)
+      }
+    }
+    const stated = taskTenths(set?.bags)
+    if (stated !== sum) out.push(`Set ${no} says ${String(set?.bags)} bags but its tasks add up to ${fmtTenths(sum)}.`)
+    if (sum > m.capTenths) {
+      const only = tasks.length === 1 ? tasks[0]! : null
+      const s = only && only.action === 'skim' ? m.index.get(only.surfaceId) : undefined
+      if (s !== undefined && m.surfaces[s]!.skimTenths > m.capTenths) out.push(oversizedWarning(m, m.surfaces[s]!))
+      else out.push(`Set ${no} holds ${fmtTenths(sum)} bags, more than ${peopleText(m.people)} can lay on and trowel (${fmtTenths(m.capTenths)}).`)
+    }
+  })
+
+  /** The one set a surface is skimmed in, or null when that is not so (said already). */
+  const skimmedIn = m.surfaces.map((s, i): number | null => {
+    const found = skims[i]!
+    if (found.length === 0) {
+      out.push(`${s.name} is not skimmed in any set.`)
+      return null
+    }
+    if (found.length > 1) {
+      out.push(`${s.name} is skimmed ${found.length} times (${setList(found)}); it should be skimmed once.`)
+      return null
+    }
+    const got = skimBags[i]![0]!
+    if (got >= 0 && got !== s.skimTenths) {
+      out.push(`${s.name}'s skim is ${fmtTenths(got)} bags, but ${fmtNumber(s.areaM2)} m² at ${fmtNumber(m.coverage)} m² a bag comes to ${fmtTenths(s.skimTenths)}.`)
+    }
+    return found[0]!
+  })
+
+  m.surfaces.forEach((s, i) => {
+    const at = skimmedIn[i]
+    if (s.hasPatches) {
+      if (fills[i]!.length === 0) {
+        out.push(`${s.name} has patches but no patch fill in a set before its skim.`)
+      }
+      else {
+        if (at !== null) {
+          for (const f of fills[i]!) if (f.set >= at) out.push(`The patch fill for ${s.name} in set ${f.set} is not before its skim in set ${at}.`)
+        }
+        const total = fills[i]!.reduce((n, f) => n + f.tenths, 0)
+        if (total !== s.fillTenths) out.push(`The patch fill for ${s.name} comes to ${fmtTenths(total)} bags; its patches need ${fmtTenths(s.fillTenths)}.`)
+      }
+    }
+    else {
+      for (const f of fills[i]!) out.push(`Set ${f.set} has a patch fill for ${s.name}, which has no patches recorded.`)
+    }
+    if (s.gap) {
+      if (at !== null) {
+        for (const c of coats[i]!) if (c >= at) out.push(`A tight coat for ${s.name} in set ${c} is not before its skim in set ${at}.`)
+        const earlier = new Set(coats[i]!.filter(c => c < at)).size
+        if (earlier < TIGHT_COATS) {
+          out.push(`${s.name} has a scrimmed gap but thin tight coats in ${earlier === 0 ? 'no set' : `only ${earlier} set`} before its skim in set ${at}; it needs them in at least ${TIGHT_COATS} earlier sets.`)
+        }
+      }
+    }
+    else {
+      for (const c of new Set(coats[i]!)) out.push(`Set ${c} has a tight coat for ${s.name}, which has no scrimmed gap recorded.`)
+    }
+  })
+
+  for (const [a, b] of m.dry) {
+    const sa = skimmedIn[a]
+    if (sa !== null && sa === skimmedIn[b]) {
+      out.push(`${m.surfaces[a]!.name} and ${m.surfaces[b]!.name} share a difficult corner but are skimmed in the same set (${sa}).`)
+    }
+  }
+  for (const [f, r] of m.packed) {
+    const sf = skimmedIn[f]
+    const sr = skimmedIn[r]
+    if (sf !== null && sr !== null && sf >= sr) {
+      out.push(`${m.surfaces[f]!.name} is the face of a packed-out bead and should be skimmed before its return, ${m.surfaces[r]!.name}, but the face is in set ${sf} and the return in set ${sr}.`)
+    }
+  }
+  return out
+}
