@@ -11,6 +11,7 @@ import { formatPence } from '#shared/utils/money'
 import { lineNetPence } from '#shared/utils/tax'
 import { publicQuoteView } from './public-quote'
 import { currentVersion, findQuote } from './quotes'
+import { drawAnyLatin } from '../pdf/text'
 
 export type QuotePdfView = Awaited<ReturnType<typeof publicQuoteView>> & { issuedAt: Date | string | null }
 
@@ -77,6 +78,9 @@ export async function renderQuotePdf(view: QuotePdfView): Promise<Buffer> {
   } as PDFKit.PDFDocumentOptions)
   doc.registerFont('regular', regular)
   doc.registerFont('bold', bold)
+  doc.registerFont('regular-ext', Buffer.from(fonts.regularExtWoff))
+  doc.registerFont('bold-ext', Buffer.from(fonts.boldExtWoff))
+  drawAnyLatin(doc)
 
   const chunks: Buffer[] = []
   const done = new Promise<Buffer>((resolve, reject) => {

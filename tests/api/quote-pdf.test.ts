@@ -70,6 +70,18 @@ async function pdfText(bytes: Uint8Array) {
 }
 
 describe('the PDF of a quote', () => {
+  it('draws names in any Latin script with the shipped latin-ext font', async () => {
+    const { id } = await measuredQuote({ kind: 'homeowner', name: 'Łucja Dvořák-Wójcik' })
+    const res = await getBytes(`/quotes/${id}/pdf`, owner)
+    expect(res.status).toBe(200)
+    const { text } = await pdfText(res.bytes)
+    expect(text).toContain('Łucja Dvořák-Wójcik')
+    // both subsets are embedded, and nothing was drawn as a placeholder
+    const raw = Buffer.from(res.bytes).toString('latin1')
+    expect(raw.match(/\/FontFile2|\/FontFile3|\/FontFile\b/g)?.length ?? 0).toBeGreaterThanOrEqual(3)
+    expect(text).not.toContain('?ucja')
+  })
+
   it('carries the firm, the customer, every line and the totals of the JSON quote, with £ signs', async () => {
     const { id } = await measuredQuote({ kind: 'homeowner', name: 'Ffion Maddox' })
     const q = (await owner.get(`/api/quotes/${id}`)).body
