@@ -28,6 +28,17 @@ function quantityX1000(line: TakeoffLine): number {
 
 const UNIT_LABEL = { m2: 'm²', lm: 'm', lengths: 'lengths', item: 'item' } as const
 
+/** The materials estimate of a measured visit at cost (no mark-up), with the catalogue row each comes from. */
+export async function materialsEstimateForVisit(f: FirmScope, visitId: string) {
+  const book = await usePriceBook(f)
+  const rooms = await loadRooms(f, visitId)
+  const lines = takeoffRooms(rooms, { minDeductCm2: book.minDeductCm2, narrowMaxMm: book.narrowMaxMm, beadStockLengthsMm: book.beadStockLengthsMm, beadWastePercent: book.beadWastePercent })
+  const rows = await catalogueRows(f)
+  return estimateMaterials(lines, await catalogue(f), { wastePercent: book.materialsWastePercent })
+    .filter(m => m.packs > 0)
+    .map(m => ({ materialId: rows.find(r => r.key === m.materialKey)?.id ?? null, name: m.name, packs: m.packs, costPence: m.costPence, derivation: m.derivation }))
+}
+
 export async function draftFromVisit(f: FirmScope, visitId: string) {
   const book = await usePriceBook(f)
   const rooms = await loadRooms(f, visitId)

@@ -1,5 +1,5 @@
 import { asc, desc, eq, max, sql } from 'drizzle-orm'
-import { customers, firms, quoteLines, quotes, quoteVersions } from '../db/schema'
+import { customers, firms, jobs, quoteLines, quotes, quoteVersions } from '../db/schema'
 import type { TaxLine } from '#shared/utils/tax'
 import { pricedLines, type PricedLine } from '#shared/utils/quote-pricing'
 
@@ -54,9 +54,10 @@ export async function quoteDetail(f: FirmScope, id: string) {
   const { tokenHash: _t, ...publicVersion } = current
   const lines = await versionLines(f, current.id)
   const priced = customerLinesOrWorking(current, lines)
+  const [job] = await f.tx.select({ id: jobs.id, number: jobs.number }).from(jobs).where(f.where(jobs, eq(jobs.quoteId, id)))
   const [firm] = await f.tx.select({ tradingName: firms.tradingName, invoicePrefix: firms.invoicePrefix, dayRatePence: firms.dayRatePence }).from(firms).where(eq(firms.id, f.firmId))
   return {
-    ...quote, reference: `Q-${String(quote.number).padStart(4, '0')}`, firmName: firm?.tradingName ?? '', firmDayRatePence: firm?.dayRatePence ?? 0, customer, versions,
+    ...quote, reference: `Q-${String(quote.number).padStart(4, '0')}`, job: job ? { id: job.id, reference: `J-${String(job.number).padStart(4, '0')}` } : null, firmName: firm?.tradingName ?? '', firmDayRatePence: firm?.dayRatePence ?? 0, customer, versions,
     current: { ...publicVersion, lines, customerLines: priced.lines, pricingProblem: priced.problem },
   }
 }

@@ -29,11 +29,13 @@
 //    gives an upper bound on the sets. Then, between the lower bound (levels, and total bags over
 //    what one set takes) and that, a binary search looks for the fewest sets that a balanced
 //    packing (each task into the least-loaded set it may go in) fills.
-// 5. Even out: neighbouring sets that can be one are merged, and single tasks move from heavier to
-//    lighter sets while every rule still holds, until no move helps. Empty sets are dropped.
+// 5. Even out: neighbouring sets that can be one are merged, single tasks move from heavier to
+//    lighter sets, and pairs of tasks swap between the heaviest or lightest set and another, each
+//    only while every rule still holds, until nothing helps. Empty sets are dropped.
 // 6. Each task gets a reason in plain words naming its set and why.
 // Everything is in input order with fixed tie-breaks, so the same input gives the same plan.
-// The work is about (tasks x sets) per pass, so a whole house is a millisecond or two.
+// "Least-loaded set in a range" is a segment tree over the sets, so each pass is about
+// tasks x log(sets): a house takes a few milliseconds, a 2,000-surface estate a fraction of a second.
 
 export interface PlanSurface { id: string, areaM2: number, patches?: { areaM2: number }[], scrimmedGap?: boolean }
 export interface PlanCorner { a: string, b: string, kind: 'internal' | 'external', dryCorner?: boolean, packedBead?: { face: string } }
@@ -164,7 +166,9 @@ function buildModel(surfaces: PlanSurface[], corners: PlanCorner[], options: Pla
     let patchM2 = 0
     const patches = s.patches ?? []
     if (!Array.isArray(patches)) throw new TypeError(`surfaces[${i}].patches must be a list`)
-    patches.forEach((p, j) => { patchM2 += finiteAtLeast0(p?.areaM2, `surfaces[${i}].patches[${j}].areaM2`) })
+    patches.forEach((p, j) => {
+      patchM2 += finiteAtLeast0(p?.areaM2, `surfaces[${i}].patches[${j}].areaM2`)
+    })
     const skimTenths = bagsForArea(areaM2, coverage, `surfaces[${i}].areaM2`)
     const hasPatches = patches.length > 0
     // a fill is at least 0.1 bag: a small patch still needs a small mix
@@ -207,7 +211,7 @@ function buildModel(surfaces: PlanSurface[], corners: PlanCorner[], options: Pla
     const ib = model.index.get(c?.b)
     if (ia === undefined || ib === undefined) {
       const unknown = [...new Set([c?.a, c?.b].filter(id => !model.index.has(id)).map(id => name(String(id))))]
-      warnings.push(`A corner between ${name(String(c?.a))} and ${name(String(c?.b))} names ${nameList(unknown)}, which ${unknown.length === 1 ? 'is not one' : 'are not'} of the surfaces; that corner is left out of the plan.`)
+      warnings.push(`A corner between ${name(String(c?.a))} and ${name(String(c?.b))} names ${nameList(unknown)}, which ${unknown.length === 1 ? 'is not one of' : 'are not among'} the surfaces; that corner is left out of the plan.`)
       continue
     }
     if (ia === ib) {
@@ -344,6 +348,83 @@ interface Packing {
   count: number[]
 }
 
+/**
+ * A segment tree over the sets: the least value in a range, and the first set in a range whose
+ * value is at most x, each in about log(sets) steps. It keeps the packing near (tasks x log sets)
+ * instead of (tasks x sets) when a big job has hundreds of sets.
+ */
+class MinTree {
+  private readonly size: number
+  private readonly v: Float64Array
+  constructor(n: number) {
+    let size = 1
+    while (size < n) size <<= 1
+    this.size = size
+    this.v = new Float64Array(2 * size).fill(Number.POSITIVE_INFINITY)
+  }
+
+  get(i: number): number {
+    return this.v[this.size + i]!
+  }
+
+  set(i: number, x: number): void {
+    let p = this.size + i
+    this.v[p] = x
+    for (p >>= 1; p >= 1; p >>= 1) this.v[p] = Math.min(this.v[2 * p]!, this.v[2 * p + 1]!)
+  }
+
+  min(lo: number, hi: number): number {
+    let m = Number.POSITIVE_INFINITY
+    for (let l = lo + this.size, r = hi + this.size + 1; l < r; l >>= 1, r >>= 1) {
+      if (l & 1) m = Math.min(m, this.v[l++]!)
+      if (r & 1) m = Math.min(m, this.v[--r]!)
+    }
+    return m
+  }
+
+  /** The first index in [lo, hi] whose value is at most x, or -1. */
+  firstAtMost(lo: number, hi: number, x: number): number {
+    if (lo > hi) return -1
+    return this.find(1, 0, this.size - 1, lo, hi, x)
+  }
+
+  /** The index of the least value in [lo, hi] (the first on a tie), or -1 when all are Infinity. */
+  argMin(lo: number, hi: number): number {
+    if (lo > hi) return -1
+    const m = this.min(lo, hi)
+    return m === Number.POSITIVE_INFINITY ? -1 : this.find(1, 0, this.size - 1, lo, hi, m)
+  }
+
+  private find(node: number, nl: number, nr: number, lo: number, hi: number, x: number): number {
+    if (nr < lo || nl > hi || this.v[node]! > x) return -1
+    if (nl === nr) return nl
+    const mid = (nl + nr) >> 1
+    const left = this.find(2 * node, nl, mid, lo, hi, x)
+    return left >= 0 ? left : this.find(2 * node + 1, mid + 1, nr, lo, hi, x)
+  }
+
+  private hidden: number[] = []
+
+  /** Hides set j (as +Infinity) until `restore`; hiding the same set twice is fine. */
+  hide(j: number): void {
+    this.hidden.push(j, this.get(j))
+    this.set(j, Number.POSITIVE_INFINITY)
+  }
+
+  restore(): void {
+    const h = this.hidden
+    while (h.length) {
+      const x = h.pop()!
+      this.set(h.pop()!, x)
+    }
+  }
+}
+
+/** Hides the sets (placed so far) of t's difficult-corner partners. */
+function hideApart(g: Graph, setOf: Int32Array, tree: MinTree, t: number): void {
+  for (const d of g.apart[t]!) if (setOf[d]! >= 0) tree.hide(setOf[d]!)
+}
+
 function placeOrder(g: Graph): number[] {
   // level first (every task after the tasks it follows), then the tightest (longest tail), then the biggest
   return g.surface.map((_, t) => t).sort((x, y) =>
@@ -356,49 +437,52 @@ function earliest(g: Graph, setOf: Int32Array, t: number): number {
   return e
 }
 
-function fits(g: Graph, pk: Packing, cap: number, j: number, t: number): boolean {
-  // an empty set takes anything (only a skim can be bigger than a set); a set with work in it takes what still fits
-  if (pk.count[j] === 0) return true
-  return pk.load[j]! + g.tenths[t]! <= cap
-}
-
-function apartOk(g: Graph, setOf: Int32Array, j: number, t: number): boolean {
-  for (const d of g.apart[t]!) if (setOf[d] === j) return false
-  return true
-}
-
 function place(g: Graph, pk: Packing, t: number, j: number): void {
   pk.setOf[t] = j
   pk.load[j]! += g.tenths[t]!
   pk.count[j]! += 1
 }
 
-/** First fit, opening a set when nothing fits: always succeeds. */
+/**
+ * First fit in level order, opening a set when nothing fits: always succeeds. Every open set has
+ * work in it, so "fits" is load + bags <= cap, and an oversized skim always opens its own set.
+ */
 function firstFit(g: Graph, order: number[], cap: number): Packing {
   const pk: Packing = { setOf: new Int32Array(g.surface.length).fill(-1), load: [], count: [] }
+  const tree = new MinTree(g.surface.length)
   for (const t of order) {
-    let j = earliest(g, pk.setOf, t)
-    while (j < pk.load.length && !(fits(g, pk, cap, j, t) && apartOk(g, pk.setOf, j, t))) j++
-    if (j === pk.load.length) {
+    const e = earliest(g, pk.setOf, t)
+    const b = g.tenths[t]!
+    hideApart(g, pk.setOf, tree, t)
+    let j = tree.firstAtMost(e, pk.load.length - 1, cap - b)
+    tree.restore()
+    if (j < 0) {
+      j = pk.load.length
       pk.load.push(0)
       pk.count.push(0)
     }
     place(g, pk, t, j)
+    tree.set(j, pk.load[j]!)
   }
   return pk
 }
 
-/** Each task into the least-loaded set it may go in, among exactly k sets; null when one does not fit. */
+/**
+ * Each task into the least-loaded set it may go in, among exactly k sets, leaving room after it
+ * for the sets its followers need; null when one does not fit. The tree holds 2 x load, plus 1 for
+ * a set with work in it, so an empty set is preferred to one holding only a 0-bag task.
+ */
 function balanced(g: Graph, order: number[], cap: number, k: number): Packing | null {
   const pk: Packing = { setOf: new Int32Array(g.surface.length).fill(-1), load: new Array<number>(k).fill(0), count: new Array<number>(k).fill(0) }
+  const tree = new MinTree(k)
+  for (let j = 0; j < k; j++) tree.set(j, 0)
   for (const t of order) {
-    const last = k - 1 - g.tail[t]!
-    let best = -1
-    for (let j = earliest(g, pk.setOf, t); j <= last; j++) {
-      if ((best < 0 || pk.load[j]! < pk.load[best]!) && fits(g, pk, cap, j, t) && apartOk(g, pk.setOf, j, t)) best = j
-    }
-    if (best < 0) return null
-    place(g, pk, t, best)
+    hideApart(g, pk.setOf, tree, t)
+    const j = tree.argMin(earliest(g, pk.setOf, t), k - 1 - g.tail[t]!)
+    tree.restore()
+    if (j < 0 || (pk.count[j]! > 0 && pk.load[j]! + g.tenths[t]! > cap)) return null
+    place(g, pk, t, j)
+    tree.set(j, 2 * pk.load[j]! + 1)
   }
   return pk
 }
@@ -419,7 +503,7 @@ function compact(pk: Packing): Packing {
   return { setOf, load, count }
 }
 
-/** Merges each set into the one before it where the two can be one set; a single left-to-right pass. Returns whether any merged. */
+/** Merges each set into the one before it where the two can be one set; one pass left to right is enough. */
 function mergeNeighbours(g: Graph, pk: Packing, cap: number): boolean {
   const members: number[][] = pk.load.map(() => [])
   pk.setOf.forEach((j, t) => members[j]!.push(t))
@@ -446,11 +530,14 @@ function mergeNeighbours(g: Graph, pk: Packing, cap: number): boolean {
 }
 
 /**
- * Moves single tasks from a heavier set to a lighter one while every rule holds, until no move
- * helps. A move of b bags from a set of load Li to one of Lj is only made when Lj + b < Li, so the
- * sum of the squared loads falls every time and the loop ends. Returns whether anything moved.
+ * Moves single tasks from a heavier set to the lightest set they may go in, while every rule
+ * holds, until no move helps. A move of b bags from a set of load Li to one of Lj is only made
+ * when Lj + b < Li, so the sum of the squared loads falls every time and the loop ends.
  */
 function evenOut(g: Graph, order: number[], pk: Packing, cap: number, maxPasses: number): boolean {
+  const k = pk.load.length
+  const tree = new MinTree(k)
+  for (let j = 0; j < k; j++) if (pk.count[j]! > 0) tree.set(j, pk.load[j]!)
   let movedAny = false
   for (let pass = 0; pass < maxPasses; pass++) {
     let moved = false
@@ -460,18 +547,20 @@ function evenOut(g: Graph, order: number[], pk: Packing, cap: number, maxPasses:
       const i = pk.setOf[t]!
       let lo = 0
       for (const p of g.preds[t]!) lo = Math.max(lo, pk.setOf[p]! + 1)
-      let hi = pk.load.length - 1
+      let hi = k - 1
       for (const s of g.succs[t]!) hi = Math.min(hi, pk.setOf[s]! - 1)
-      let best = -1
-      for (let j = lo; j <= hi; j++) {
-        if (j === i || pk.count[j] === 0) continue
-        const lj = pk.load[j]!
-        if (lj + b < pk.load[i]! && lj + b <= cap && (best < 0 || lj < pk.load[best]!) && apartOk(g, pk.setOf, j, t)) best = j
-      }
-      if (best >= 0) {
+      tree.hide(i)
+      hideApart(g, pk.setOf, tree, t)
+      const j = tree.argMin(lo, hi)
+      tree.restore()
+      if (j < 0) continue
+      const lj = pk.load[j]!
+      if (lj + b < pk.load[i]! && lj + b <= cap) {
         pk.load[i]! -= b
         pk.count[i]! -= 1
-        place(g, pk, t, best)
+        tree.set(i, pk.count[i]! > 0 ? pk.load[i]! : Number.POSITIVE_INFINITY)
+        place(g, pk, t, j)
+        tree.set(j, pk.load[j]!)
         moved = true
       }
     }
@@ -489,17 +578,22 @@ function mayGo(g: Graph, pk: Packing, t: number, j: number, other: number): bool
   return true
 }
 
+/** Jobs up to this many tasks also try swaps between the heaviest (or lightest) set and every other. */
+const WIDE_SWAPS_UP_TO = 600
+
 /**
- * Swaps a pair of tasks between the heaviest set and another, or the lightest set and another,
- * when that evens the two (a single move could not). Each swap of a bigger task b from the heavier
- * set H for a smaller one c from the lighter set L is made only when L + (b - c) < H, so again the
- * sum of the squared loads falls. Sets holding an oversized skim are left alone.
+ * Swaps a pair of tasks between the heaviest and the lightest set (and, on a house-sized job,
+ * between either of them and any other set) when that evens the two where a single move could
+ * not. A bigger task b from the heavier set H goes for a smaller c from the lighter set L only
+ * when L + (b - c) < H, so again the sum of the squared loads falls. Sets holding an oversized
+ * skim are left alone.
  */
 function swapExtremes(g: Graph, pk: Packing, cap: number, maxSwaps: number): boolean {
+  const members: number[][] = pk.load.map(() => [])
+  pk.setOf.forEach((j, t) => members[j]!.push(t))
+  const wide = g.surface.length <= WIDE_SWAPS_UP_TO
   let swapped = false
   for (let n = 0; n < maxSwaps; n++) {
-    const members: number[][] = pk.load.map(() => [])
-    pk.setOf.forEach((j, t) => members[j]!.push(t))
     let heavy = -1
     let light = -1
     pk.load.forEach((l, j) => {
@@ -510,28 +604,31 @@ function swapExtremes(g: Graph, pk: Packing, cap: number, maxSwaps: number): boo
     if (heavy < 0 || heavy === light) break
     let best: [number, number] | null = null
     let bestGain = 0
-    for (const x of [heavy, light]) {
-      for (const a of members[x]!) {
-        for (let y = 0; y < members.length; y++) {
-          if (y === x || pk.count[y] === 0 || pk.load[y]! > cap) continue
-          const [hi, lo] = pk.load[x]! > pk.load[y]! ? [x, y] : [y, x]
-          const gap = pk.load[hi]! - pk.load[lo]!
-          for (const b of members[y]!) {
-            const [big, small] = hi === x ? [a, b] : [b, a]
-            const d = g.tenths[big]! - g.tenths[small]!
-            if (d <= 0 || d >= gap || pk.load[lo]! + d > cap) continue
-            const gain = d * (gap - d)
-            if (gain > bestGain && mayGo(g, pk, big, lo, small) && mayGo(g, pk, small, hi, big)) {
-              bestGain = gain
-              best = [big, small]
-            }
+    const tryPair = (x: number, y: number): void => {
+      if (y === x || pk.count[y] === 0 || pk.load[y]! > cap) return
+      const [hi, lo] = pk.load[x]! > pk.load[y]! ? [x, y] : [y, x]
+      const gap = pk.load[hi]! - pk.load[lo]!
+      for (const big of members[hi]!) {
+        for (const small of members[lo]!) {
+          const d = g.tenths[big]! - g.tenths[small]!
+          if (d <= 0 || d >= gap || pk.load[lo]! + d > cap) continue
+          const gain = d * (gap - d)
+          if (gain > bestGain && mayGo(g, pk, big, lo, small) && mayGo(g, pk, small, hi, big)) {
+            bestGain = gain
+            best = [big, small]
           }
         }
       }
-      if (best) break
+    }
+    tryPair(heavy, light)
+    if (!best && wide) {
+      for (const x of [heavy, light]) {
+        for (let y = 0; y < members.length && !best; y++) tryPair(x, y)
+        if (best) break
+      }
     }
     if (!best) break
-    const [big, small] = best
+    const [big, small] = best as [number, number]
     const hi = pk.setOf[big]!
     const lo = pk.setOf[small]!
     const d = g.tenths[big]! - g.tenths[small]!
@@ -539,6 +636,8 @@ function swapExtremes(g: Graph, pk: Packing, cap: number, maxSwaps: number): boo
     pk.setOf[small] = hi
     pk.load[hi]! -= d
     pk.load[lo]! += d
+    members[hi]!.splice(members[hi]!.indexOf(big), 1, small)
+    members[lo]!.splice(members[lo]!.indexOf(small), 1, big)
     swapped = true
   }
   return swapped
@@ -614,7 +713,7 @@ function reasons(m: Model, g: Graph, pk: Packing): string[] {
       return `${part} so the skim over it in set ${skimIn} has even suction`
     }
     if (g.action[t] === 'tight-coat') {
-      return `Thin tight coat over the scrimmed gap, ${g.part[t]} of ${g.parts[t]}, in set ${j}: it firms up before the skim in set ${skimIn}`
+      return `Thin tight coat over the scrimmed gap, ${g.part[t]} of ${g.parts[t]}, in set ${j}, to firm up before the skim in set ${skimIn}`
     }
     const said: string[] = []
     const linked = new Set<number>()
@@ -647,9 +746,9 @@ function reasons(m: Model, g: Graph, pk: Packing): string[] {
     }
     else if (!said.length) {
       const load = pk.load[pk.setOf[t]!]!
-      const room = load < cap ? 'with room to spare' : 'which it fills'
+      const room = load < cap ? ' with room to spare' : ', which it fills'
       said.push(j === 1
-        ? `Fits in set 1 ${room} (${fmtTenths(load)} of ${fmtTenths(cap)} bags)`
+        ? `Fits in set 1${room} (${fmtTenths(load)} of ${fmtTenths(cap)} bags)`
         : `In set ${j} to keep the sets even (${fmtTenths(load)} of ${fmtTenths(cap)} bags)`)
     }
     return said.join('; ')
@@ -784,7 +883,7 @@ export function checkPlan(surfaces: PlanSurface[], corners: PlanCorner[], option
   })
 
   m.surfaces.forEach((s, i) => {
-    const at = skimmedIn[i]
+    const at = skimmedIn[i] ?? null
     if (s.hasPatches) {
       if (fills[i]!.length === 0) {
         out.push(`${s.name} has patches but no patch fill in a set before its skim.`)
@@ -815,14 +914,14 @@ export function checkPlan(surfaces: PlanSurface[], corners: PlanCorner[], option
   })
 
   for (const [a, b] of m.dry) {
-    const sa = skimmedIn[a]
+    const sa = skimmedIn[a] ?? null
     if (sa !== null && sa === skimmedIn[b]) {
       out.push(`${m.surfaces[a]!.name} and ${m.surfaces[b]!.name} share a difficult corner but are skimmed in the same set (${sa}).`)
     }
   }
   for (const [f, r] of m.packed) {
-    const sf = skimmedIn[f]
-    const sr = skimmedIn[r]
+    const sf = skimmedIn[f] ?? null
+    const sr = skimmedIn[r] ?? null
     if (sf !== null && sr !== null && sf >= sr) {
       out.push(`${m.surfaces[f]!.name} is the face of a packed-out bead and should be skimmed before its return, ${m.surfaces[r]!.name}, but the face is in set ${sf} and the return in set ${sr}.`)
     }

@@ -1,6 +1,7 @@
 // Start the built server (.output) against the test database, with an in-process SMTP server
 // that catches what it sends. One per test file: each gets its own ports and its own mailbox.
 import { spawn, type ChildProcess } from 'node:child_process'
+import { mkdirSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { setTimeout as sleep } from 'node:timers/promises'
 import { simpleParser, type ParsedMail } from 'mailparser'
@@ -116,6 +117,11 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
         await new Promise(resolve => child.once('exit', resolve))
       }
       await new Promise<void>(resolve => smtp.close(() => resolve()))
+      // the server's own output, for reading after a failure (tests/artefacts is wiped each run)
+      if (out.trim()) {
+        mkdirSync('tests/artefacts', { recursive: true })
+        writeFileSync(`tests/artefacts/server-${port}.log`, out)
+      }
     },
   }
 }

@@ -36,6 +36,16 @@ export const priceBooks = pgTable('price_books', {
   materialsWastePercent: integer().notNull().default(10),
   /** For the days estimate: square metres of skim one person finishes in a day (rule of thumb). */
   m2PerDay: integer().notNull().default(30),
+  /** Drying before decorating, in days (shared/utils/jobs.ts DEFAULT_DRYING): rules of thumb the firm can change. */
+  drySkimDays: integer().notNull().default(7),
+  dryUndercoatDays: integer().notNull().default(14),
+  dryColdOrDampExtraDays: integer().notNull().default(7),
+  /** For the set planner: an internal corner with a return narrower than this is a difficult one. */
+  cornerTrowelMm: integer().notNull().default(100),
+  /** ...and so is one where a wall is out of true by more than this. */
+  outOfTrueToleranceMm: integer().notNull().default(10),
+  /** What one person lays on and trowels up in a set, in bags (a rule of thumb the firm sets). */
+  bagsPerPersonPerSet: integer().notNull().default(3),
   ...timestamps,
 }, () => [firmPolicy('price_books')]).enableRLS()
 

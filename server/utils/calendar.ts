@@ -1,0 +1,64 @@
+// A person's iCalendar feed: their booked days on the firm's jobs (no prices), at a secret URL a
+// calendar app polls. Only the token's hash is kept; resetting makes a new URL and the old one
+// stops at once. Built with the `ics` package.
+import { createEvents, type EventAttributes } from 'ics'
+import { and, asc, eq, sql } from 'drizzle-orm'
+import { calendarFeeds, customers, firms, jobDays, jobs, sites } from '../db/schema'
+
+export function calendarUrl(token: string) {
+  return `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/calendar/${token}.ics`
+}
+
+/** Make (or remake) the person's feed in this firm; returns the new URL. */
+export async function resetCalendarFeed(f: FirmScope, userId: string) {
+  const token = newToken()
+  await f.tx.insert(calendarFeeds).values({ firmId: f.firmId, userId, tokenHash: hashToken(token) })
+    .onConflictDoUpdate({ target: [calendarFeeds.firmId, calendarFeeds.userId], set: { tokenHash: hashToken(token), updatedAt: new Date() } })
+  await f.audit('calendar.reset', 'user', userId, {})
+  return calendarUrl(token)
+}
+
+const dateParts = (iso: string): [number, number, number] => {
+  const [y, m, d] = iso.split('-').map(Number)
+  return [y!, m!, d!]
+}
+
+/** The feed behind a token as iCalendar text; null for a token that is not (or no longer) a feed. */
+export async function calendarFor(token: string): Promise<string | null> {
+  return useDb().transaction(async (tx) => {
+    await tx.execute(sql`select set_config('app.calendar_token_hash', ${hashToken(token)}, true)`)
+    const [feed] = await tx.select().from(calendarFeeds).where(eq(calendarFeeds.tokenHash, hashToken(token)))
+    if (!feed) return null
+    await scopeTransaction(tx, feed.firmId, null)
+    const f = new FirmScope(tx, feed.firmId, null)
+    const [firm] = await tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, feed.firmId))
+    const rows = await tx.select({
+      id: jobDays.id, day: jobDays.day, portion: jobDays.portion, number: jobs.number, title: jobs.title, status: jobs.status,
+      customer: customers.name, line1: sites.line1, town: sites.town, postcode: sites.postcode, access: sites.accessNotes, updatedAt: jobDays.updatedAt,
+    }).from(jobDays)
+      .innerJoin(jobs, and(eq(jobs.firmId, jobDays.firmId), eq(jobs.id, jobDays.jobId)))
+      .innerJoin(customers, and(eq(customers.firmId, jobs.firmId), eq(customers.id, jobs.customerId)))
+      .leftJoin(sites, and(eq(sites.firmId, jobs.firmId), eq(sites.id, jobs.siteId)))
+      .where(f.where(jobDays, eq(jobDays.userId, feed.userId)))
+      .orderBy(asc(jobDays.day))
+    const events: EventAttributes[] = rows.filter(r => r.status !== 'cancelled').map((r) => {
+      const start = dateParts(r.day)
+      const next = new Date(Date.UTC(start[0], start[1] - 1, start[2] + 1))
+      return {
+        uid: `${r.id}@setwell`,
+        start,
+        startInputType: 'local',
+        end: [next.getUTCFullYear(), next.getUTCMonth() + 1, next.getUTCDate()],
+        title: `${jobReference(r.number)} ${r.customer}${r.portion === 'half-day' ? ' (half day)' : ''}`,
+        description: [r.title, r.access ? `Access: ${r.access}` : ''].filter(Boolean).join('\n'),
+        location: [r.line1, r.town, r.postcode].filter(Boolean).join(', '),
+        status: 'CONFIRMED',
+        busyStatus: 'BUSY',
+        lastModified: [r.updatedAt.getUTCFullYear(), r.updatedAt.getUTCMonth() + 1, r.updatedAt.getUTCDate(), r.updatedAt.getUTCHours(), r.updatedAt.getUTCMinutes()],
+      } satisfies EventAttributes
+    })
+    const { error, value } = createEvents(events, { productId: 'setwell/diary', calName: `${firm?.tradingName ?? 'Setwell'} jobs` })
+    if (error || value === undefined) throw error ?? new Error('calendar not made')
+    return value
+  })
+}

@@ -1,0 +1,172 @@
+// Jobs on the server: finding one as the signed-in person may see it (crew: only jobs they are
+// booked on), numbering, making one from an accepted quote, moving its status, and its set plan
+// worked out from the visit's rooms (shared/utils/set-plan.ts).
+import { and, asc, eq, exists, inArray, max, sql } from 'drizzle-orm'
+import { customers, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, setLogs, sites, users } from '../db/schema'
+import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, READY_CAUTION, readyToDecorateFrom, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
+import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
+import { checkPlan, planSets } from '#shared/utils/set-plan'
+import { applyMoves } from '#shared/utils/plan-moves'
+
+export type JobRow = typeof jobs.$inferSelect
+
+/** The job with this id, as the person may see it: crew only when booked on it. 404 otherwise. */
+export async function findJob(f: FirmScope, auth: FirmContext, id: string, lock = false) {
+  const crewOnly = !can(auth.role, 'jobs:read-all')
+  const assigned = exists(f.tx.select({ one: sql`1` }).from(jobDays).where(and(eq(jobDays.firmId, jobs.firmId), eq(jobDays.jobId, jobs.id), eq(jobDays.userId, auth.userId))))
+  const q = f.tx.select().from(jobs).where(f.where(jobs, eq(jobs.id, id), crewOnly ? assigned : undefined))
+  const [row] = lock ? await q.for('update') : await q
+  if (!row) notFound()
+  return row
+}
+
+/** The condition for the jobs a person may list. */
+export function visibleJobs(f: FirmScope, auth: FirmContext) {
+  if (can(auth.role, 'jobs:read-all')) return undefined
+  return exists(f.tx.select({ one: sql`1` }).from(jobDays).where(and(eq(jobDays.firmId, jobs.firmId), eq(jobDays.jobId, jobs.id), eq(jobDays.userId, auth.userId))))
+}
+
+export async function nextJobNumber(f: FirmScope) {
+  await f.tx.execute(sql`select 1 from firms where id = ${f.firmId} for update`)
+  const [row] = await f.tx.select({ n: max(jobs.number) }).from(jobs).where(f.where(jobs))
+  return (row?.n ?? 0) + 1
+}
+
+export const jobReference = (n: number) => `J-${String(n).padStart(4, '0')}`
+
+export async function recordJobStatus(f: FirmScope, jobId: string, from: JobStatus | null, to: JobStatus, reason = '') {
+  await f.tx.insert(jobStatusChanges).values(f.values({ jobId, fromStatus: from, toStatus: to, reason, changedBy: f.userId }))
+}
+
+/** Move a job's status by hand and record it; 409 for a move the rules refuse. */
+export async function moveJob(f: FirmScope, job: JobRow, to: JobStatus, reason: string, byHand = true) {
+  if (job.status === to) return job
+  if (!canMoveJob(job.status, to, byHand)) {
+    throw createError({ statusCode: 409, statusMessage: 'Not a move it can make', data: { message: `A job that is ${JOB_STATUS_LABELS[job.status].toLowerCase()} cannot become ${JOB_STATUS_LABELS[to].toLowerCase()}${SYSTEM_ONLY_MOVES.includes(to) ? ' by hand: that follows from its invoices' : ''}.` } })
+  }
+  const [row] = await f.tx.update(jobs).set({ status: to, updatedAt: sql`now()` }).where(f.where(jobs, eq(jobs.id, job.id))).returning()
+  await recordJobStatus(f, job.id, job.status, to, reason)
+  await f.audit('job.moved', 'job', job.id, { from: job.status, to })
+  return row!
+}
+
+/** Make the job of an accepted quote, in one step. 409 if the quote is not accepted or already has its job. */
+export async function jobFromQuote(f: FirmScope, quoteId: string) {
+  const quote = await findQuote(f, quoteId, true)
+  const version = await currentVersion(f, quote)
+  if (version.status !== 'accepted') throw createError({ statusCode: 409, statusMessage: 'Not accepted', data: { message: 'Only an accepted quote becomes a job.' } })
+  const [already] = await f.tx.select({ id: jobs.id }).from(jobs).where(f.where(jobs, eq(jobs.quoteId, quoteId)))
+  if (already) throw createError({ statusCode: 409, statusMessage: 'Already a job', data: { message: 'This quote is already a job.', jobId: already.id } })
+  const totals = version.totals as Record<string, number>
+  const lines = await versionLines(f, version.id)
+  const description = lines.find(l => l.kind === 'labour')?.description ?? 'Plastering'
+  const number = await nextJobNumber(f)
+  const [job] = await f.tx.insert(jobs).values(f.values({
+    number,
+    title: `${quoteReference(quote.number)}: ${description}`.slice(0, 200),
+    customerId: quote.customerId,
+    siteId: quote.siteId,
+    quoteId: quote.id,
+    quoteVersionId: version.id,
+    visitId: quote.visitId,
+    labourNetPence: totals.labourNetPence ?? 0,
+    materialsNetPence: totals.materialsNetPence ?? 0,
+    netPence: totals.netPence ?? 0,
+    grossPence: totals.grossPence ?? 0,
+    estimatedDaysX100: version.estimatedDaysX100,
+    materialsEstimate: quote.visitId ? await materialsEstimateForVisit(f, quote.visitId) : [],
+    planOptions: await defaultPlanOptions(f),
+    createdBy: f.userId,
+  })).returning()
+  await recordJobStatus(f, job!.id, null, 'booked')
+  await f.audit('job.created', 'job', job!.id, { fromQuote: quote.id })
+  return job!
+}
+
+export const quoteReference = (n: number) => `Q-${String(n).padStart(4, '0')}`
+
+export async function defaultPlanOptions(f: FirmScope) {
+  const book = await usePriceBook(f)
+  const finish = (await catalogue(f)).find(m => m.type === 'finish' && m.coverage.kind === 'area')
+  // a bag's coverage at the skim thickness the estimates use (2 mm)
+  const coverage = finish && finish.coverage.kind === 'area' ? Math.round(finish.coverage.m2PerPack * finish.coverage.atThicknessMm / 2 * 10) / 10 : 10
+  return { people: 1, bagsPerPersonPerSet: book.bagsPerPersonPerSet, coverageM2PerBag: coverage }
+}
+
+/** The set plan of a job: from its visit's rooms, planned, with the plasterer's moves applied and checked again. */
+export async function jobPlan(f: FirmScope, job: JobRow) {
+  if (!job.visitId) return { plan: { sets: [], warnings: [] }, labels: {} as Record<string, string>, notes: ['This job has no measured visit, so there are no surfaces to plan.'], surfaces: [] as { id: string, label: string, roomName: string, areaM2: number }[] }
+  const book = await usePriceBook(f)
+  const rooms = await loadRooms(f, job.visitId)
+  const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
+  const options = job.planOptions
+  let plan = planSets(inputs.surfaces, inputs.corners, options, inputs.labels)
+  if (Object.keys(job.planMoves).length) {
+    plan = applyMoves(plan, job.planMoves, inputs.labels)
+    const broken = checkPlan(inputs.surfaces, inputs.corners, options, plan, inputs.labels)
+    plan = { ...plan, warnings: [...new Set([...plan.warnings, ...broken])] }
+  }
+  const roomOf = new Map<string, string>()
+  for (const r of rooms) for (const s of r.surfaces) roomOf.set(s.id, r.name)
+  return {
+    plan,
+    labels: inputs.labels,
+    notes: inputs.notes,
+    surfaces: inputs.surfaces.map(s => ({ id: s.id, label: inputs.labels[s.id] ?? s.id, roomName: roomOf.get(s.id) ?? '', areaM2: s.areaM2 })),
+  }
+}
+
+/** Everything about a job for its screen; money only for those who may see it. */
+export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
+  const job = await findJob(f, auth, id)
+  const money = can(auth.role, 'money:read')
+  const [customer] = await f.tx.select({ id: customers.id, name: customers.name, phone: customers.phone }).from(customers).where(f.where(customers, eq(customers.id, job.customerId)))
+  const [site] = job.siteId ? await f.tx.select({ line1: sites.line1, line2: sites.line2, town: sites.town, postcode: sites.postcode, accessNotes: sites.accessNotes }).from(sites).where(f.where(sites, eq(sites.id, job.siteId))) : []
+  const days = await f.tx.select({ id: jobDays.id, day: jobDays.day, userId: jobDays.userId, name: users.name, portion: jobDays.portion, worked: jobDays.worked })
+    .from(jobDays).innerJoin(users, eq(users.id, jobDays.userId)).where(f.where(jobDays, eq(jobDays.jobId, id))).orderBy(asc(jobDays.day), asc(users.name))
+  const history = await f.tx.select({ fromStatus: jobStatusChanges.fromStatus, toStatus: jobStatusChanges.toStatus, reason: jobStatusChanges.reason, at: jobStatusChanges.changedAt, by: users.name })
+    .from(jobStatusChanges).leftJoin(users, eq(users.id, jobStatusChanges.changedBy)).where(f.where(jobStatusChanges, eq(jobStatusChanges.jobId, id))).orderBy(asc(jobStatusChanges.changedAt))
+  const logs = await f.tx.select().from(setLogs).where(f.where(setLogs, eq(setLogs.jobId, id))).orderBy(asc(setLogs.createdAt))
+  const uses = await f.tx.select({ logId: materialUses.logId, materialId: materialUses.materialId, name: materials.name, packLabel: materials.packLabel, packsX1000: materialUses.packsX1000, costPencePerPack: materialUses.costPencePerPack })
+    .from(materialUses).innerJoin(materials, and(eq(materials.firmId, materialUses.firmId), eq(materials.id, materialUses.materialId)))
+    .where(f.where(materialUses, eq(materialUses.jobId, id)))
+  const planned = await jobPlan(f, job)
+  const book = await usePriceBook(f)
+  const drying = { skimDays: book.drySkimDays, undercoatDays: book.dryUndercoatDays, coldOrDampExtraDays: book.dryColdOrDampExtraDays }
+  const comparison = materialsAgainstEstimate(job.materialsEstimate, uses)
+  const names = new Map(days.map(d => [d.userId, d.name]))
+  const worked = [...daysWorked(days)].map(([userId, halves]) => ({ userId, name: names.get(userId) ?? '', halfDays: halves }))
+  // ready to decorate, per room, from the coats logged on its surfaces
+  const roomNames = [...new Set(planned.surfaces.map(s => s.roomName))]
+  const ready = roomNames.map((room) => {
+    const ids = new Set(planned.surfaces.filter(s => s.roomName === room).map(s => s.id))
+    const coats = logs.filter(l => l.kind === 'set' && l.coat && l.surfaceIds.some(s => ids.has(s)))
+      .map(l => ({ day: (l.endedAt ?? l.startedAt ?? l.createdAt).toISOString().slice(0, 10), coat: l.coat!, coldOrDamp: l.coldOrDamp }))
+    return { room, from: readyToDecorateFrom(coats, drying) }
+  })
+  const { labourNetPence, materialsNetPence, netPence, grossPence, materialsEstimate, ...rest } = job
+  return {
+    ...rest,
+    reference: jobReference(job.number),
+    customer: customer ?? null,
+    site: site ?? null,
+    days,
+    history,
+    plan: planned,
+    logs: logs.map(l => ({ ...l, materials: uses.filter(u => u.logId === l.id).map(u => ({ materialId: u.materialId, name: u.name, packLabel: u.packLabel, packsX1000: u.packsX1000, ...(money ? { costPencePerPack: u.costPencePerPack } : {}) })) })),
+    worked,
+    ready,
+    dryingCaution: READY_CAUTION,
+    materials: comparison.map(c => money ? c : { materialId: c.materialId, name: c.name, estimatedPacksX1000: c.estimatedPacksX1000, usedPacksX1000: c.usedPacksX1000, differencePacksX1000: c.differencePacksX1000 }),
+    ...(money ? { money: { labourNetPence, materialsNetPence, netPence, grossPence } } : {}),
+  }
+}
+
+/** The people of a job's booked days, for checks: every id must be a member of the firm. */
+export async function checkMembers(f: FirmScope, userIds: string[], field: string) {
+  if (!userIds.length) return
+  const rows = await f.tx.select({ userId: memberships.userId }).from(memberships).where(f.where(memberships, inArray(memberships.userId, [...new Set(userIds)])))
+  const known = new Set(rows.map(r => r.userId))
+  const missing = userIds.findIndex(u => !known.has(u))
+  if (missing >= 0) throw fieldError({ [field.replace('#', String(missing))]: 'That person is not in the firm.' })
+}

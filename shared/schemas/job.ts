@@ -1,0 +1,80 @@
+import { z } from 'zod'
+import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
+
+const isoDate = z.iso.date({ error: 'Pick a date.' })
+const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
+
+/** A job made directly (not from a quote). */
+export const newJobSchema = z.object({
+  customerId: z.uuid({ error: 'Choose the customer.' }),
+  siteId: z.uuid({ error: 'Choose the site.' }).nullable().default(null),
+  visitId: z.uuid().nullable().default(null),
+  title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is, like Skim the front bedroom.' }).max(200),
+  estimatedDaysX100: z.int().min(0).max(100_000).default(0),
+  notes: text(4000).default(''),
+})
+
+export const jobUpdateSchema = z.object({
+  title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is.' }).max(200),
+  notes: text(4000).default(''),
+})
+
+export const jobMoveSchema = z.object({
+  to: z.enum(JOB_STATUSES, { error: 'Choose the new status.' }),
+  reason: text(500).default(''),
+}).refine(v => v.to !== 'cancelled' || v.reason.length > 0, { path: ['reason'], error: 'Say why the job is cancelled.' })
+
+export const jobDaySchema = z.object({
+  day: isoDate,
+  userId: z.uuid({ error: 'Choose who works the day.' }),
+  portion: z.enum(DAY_PORTIONS).default('day'),
+})
+/** The whole booking of a job: every day and who works it (days already worked are kept as worked). */
+export const jobDaysSchema = z.object({
+  days: z.array(jobDaySchema).max(200, { error: 'At most 200 booked days on one job.' }),
+}).superRefine((v, ctx) => {
+  const seen = new Set<string>()
+  v.days.forEach((d, i) => {
+    const key = `${d.day}|${d.userId}`
+    if (seen.has(key)) ctx.addIssue({ code: 'custom', path: ['days', i, 'userId'], message: 'That person is already booked on that day.' })
+    seen.add(key)
+  })
+})
+
+export const dayWorkedSchema = z.object({ worked: z.boolean({ error: 'Worked or not?' }), portion: z.enum(DAY_PORTIONS).optional() })
+
+export const planSettingsSchema = z.object({
+  people: z.int({ error: 'Enter how many people lay on.' }).min(1, { error: 'At least one person.' }).max(12, { error: 'More than 12 on one job? Check the figure.' }),
+  bagsPerPersonPerSet: z.int({ error: 'Enter whole bags.' }).min(1, { error: 'At least one bag.' }).max(20, { error: 'Over 20 bags each in one set? Check the figure.' }),
+  /** Tenths of a square metre a bag covers at the skim thickness (10 m² = 100). */
+  coverageM2PerBagX10: z.int({ error: 'Enter the square metres a bag covers.' }).min(1).max(1000),
+  /** Surfaces moved by hand: surface id -> set number. */
+  moves: z.record(z.uuid(), z.int().min(1).max(200)).default({}),
+})
+
+export const setLogSchema = z.object({
+  kind: z.enum(['set', 'problem']).default('set'),
+  setNumber: z.int().min(1).max(200).nullable().default(null),
+  startedAt: z.iso.datetime({ offset: true, error: 'Enter the start time.' }).nullable().default(null),
+  endedAt: z.iso.datetime({ offset: true, error: 'Enter the end time.' }).nullable().default(null),
+  coat: z.enum(LOG_COATS, { error: 'Choose the coat.' }).nullable().default(null),
+  surfaceIds: z.array(z.uuid()).max(200).default([]),
+  userIds: z.array(z.uuid()).max(20).default([]),
+  coldOrDamp: z.boolean().default(false),
+  notes: text(2000).default(''),
+  materials: z.array(z.object({
+    materialId: z.uuid({ error: 'Choose the material.' }),
+    packsX1000: z.int({ error: 'Enter the bags mixed.' }).min(1, { error: 'Enter the bags mixed, like 1.5.' }).max(1_000_000),
+  })).max(20).default([]),
+})
+  .refine(v => v.kind !== 'set' || v.coat !== null, { path: ['coat'], error: 'Choose the coat: fill, tight coat, first or second.', when: () => true })
+  .refine(v => v.kind !== 'set' || v.surfaceIds.length > 0, { path: ['surfaceIds'], error: 'Tick the surfaces done in this set.', when: () => true })
+  .refine(v => v.kind !== 'problem' || v.notes.length > 0, { path: ['notes'], error: 'Say what the problem is.', when: () => true })
+  .refine(v => !(v.startedAt && v.endedAt) || Date.parse(v.endedAt) >= Date.parse(v.startedAt), { path: ['endedAt'], error: 'The end is before the start.', when: () => true })
+  .refine(v => new Set(v.materials.map(m => m.materialId)).size === v.materials.length, { path: ['materials'], error: 'Each material once: add the bags together.', when: () => true })
+
+export const diaryQuery = z.object({
+  from: isoDate,
+  to: isoDate,
+}).refine(v => v.from <= v.to, { path: ['to'], error: 'The end is before the start.' })
+  .refine(v => (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 <= 62, { path: ['to'], error: 'Ask for at most two months at a time.' })

@@ -1,0 +1,39 @@
+// The plasterer moves a surface to another set by hand: its skim goes to that set (its fill and
+// tight coats stay where the planner put them), empty sets close up, and the plan is then checked
+// again (checkPlan in ./set-plan.ts) so each rule the move breaks shows as a warning. Not blocked:
+// the plasterer decides.
+import type { PlannedSet, PlanTask, SetPlan } from './set-plan'
+
+const tenths = (bags: number) => Math.round(bags * 10)
+
+/** The plan with each surface's skim in the set named by `moves` (surface id -> set number). */
+export function applyMoves(plan: SetPlan, moves: Record<string, number>, labels: Record<string, string> = {}): SetPlan {
+  const sets: { tasks: PlannedSet['tasks'] }[] = plan.sets.map(s => ({ tasks: s.tasks.map(t => ({ ...t })) }))
+  const warnings: string[] = []
+  /** Tasks moved by hand, with the set the planner had them in. */
+  const movedFrom = new Map<PlanTask, number>()
+  for (const [surfaceId, to] of Object.entries(moves)) {
+    if (!Number.isInteger(to) || to < 1) throw new RangeError(`a set number is a whole number from 1, got ${to} for ${surfaceId}`)
+    const from = sets.findIndex(s => s.tasks.some(t => t.surfaceId === surfaceId && t.action === 'skim'))
+    if (from < 0) {
+      warnings.push(`${labels[surfaceId] ?? surfaceId} is not in the plan any more, so its move was left out.`)
+      continue
+    }
+    if (from === to - 1) continue
+    const task = sets[from]!.tasks.find(t => t.surfaceId === surfaceId && t.action === 'skim')!
+    sets[from]!.tasks = sets[from]!.tasks.filter(t => t !== task)
+    while (sets.length < to) sets.push({ tasks: [] })
+    sets[to - 1]!.tasks.push(task)
+    movedFrom.set(task, from + 1)
+  }
+  const kept = sets.filter(s => s.tasks.length)
+  // the reason names the set the task ends up in, after empty sets have closed up
+  const reasoned = (t: PlanTask, number: number): PlanTask => {
+    const was = movedFrom.get(t)
+    return was === undefined ? t : { ...t, reason: `Moved to set ${number} by hand (the planner had it in set ${was}).` }
+  }
+  return {
+    sets: kept.map((s, i) => ({ number: i + 1, tasks: s.tasks.map(t => reasoned(t, i + 1)), bags: s.tasks.reduce((sum, t) => sum + tenths(t.bags), 0) / 10 })),
+    warnings: [...plan.warnings, ...warnings],
+  }
+}

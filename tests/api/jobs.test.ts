@@ -1,0 +1,234 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { startApp, type TestApp } from '../support/app'
+import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { inviteAndJoin } from './support'
+
+// Jobs: made from an accepted quote in one step (or directly), booked on days with people,
+// planned in sets from the visit's rooms, logged set by set; crew see only their jobs, no money;
+// each person's calendar feed is theirs alone and stops when reset.
+
+let app: TestApp
+let owner: Client
+let crew: Client
+let crewId: string
+let otherCrew: Client
+let otherCrewId: string
+let ownerId: string
+let otherFirm: Client
+
+beforeAll(async () => {
+  app = await startApp()
+  ;({ client: owner } = await signUpFirm(app.url, 'Job Firm'))
+  ownerId = (await owner.get('/api/me')).body.user.id
+  const a = await inviteAndJoin(app, owner, uniqueEmail('crew'), 'crew', 'Kit Crewe')
+  crew = a.client
+  crewId = (await crew.get('/api/me')).body.user.id
+  const b = await inviteAndJoin(app, owner, uniqueEmail('crew2'), 'crew', 'Lou Other')
+  otherCrew = b.client
+  otherCrewId = (await otherCrew.get('/api/me')).body.user.id
+  ;({ client: otherFirm } = await signUpFirm(app.url, 'Other Job Firm'))
+})
+afterAll(async () => {
+  await app?.stop()
+})
+
+async function getText(path: string) {
+  const res = await fetch(app.url + path)
+  return { status: res.status, headers: res.headers, text: await res.text() }
+}
+
+/** A measured visit: a bedroom with a difficult corner (narrow return) and a patch back to masonry. */
+async function acceptedQuote() {
+  const email = uniqueEmail('cust')
+  const c = (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Noor Halloran', email }, site: { line1: '22 Ropewalk Lane', town: 'Kettlebury', postcode: 'KB4 7QT' } })).body
+  const v = (await owner.post('/api/visits', { customerId: c.id, siteId: c.sites[0].id, startsAt: '2026-12-02T09:00:00Z' })).body
+  const wallA = crypto.randomUUID()
+  const wallB = crypto.randomUUID()
+  const ceiling = crypto.randomUUID()
+  const room = await owner.put(`/api/visits/${v.id}/rooms/${crypto.randomUUID()}`, {
+    revision: 0,
+    name: 'Back bedroom',
+    surfaces: [
+      { id: wallA, kind: 'wall', lengthMm: 4000, secondMm: 2400, conditions: [{ id: crypto.randomUUID(), kind: 'patch-masonry', areaCm2: 5000 }] },
+      { id: wallB, kind: 'wall', lengthMm: 3000, secondMm: 2400 },
+      { id: ceiling, kind: 'ceiling', lengthMm: 4000, secondMm: 3000 },
+    ],
+    // a return of 80 mm: narrower than the firm's 100 mm corner trowel (the default rule)
+    corners: [{ id: crypto.randomUUID(), surfaceAId: wallA, surfaceBId: wallB, kind: 'internal', lengthMm: 2400, returnWidthMm: 80 }],
+  })
+  expect(room.status, JSON.stringify(room.body)).toBe(200)
+  const q = (await owner.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
+  expect((await owner.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
+  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
+  expect((await new Client(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Noor Halloran' })).status).toBe(200)
+  return { quoteId: q.id as string, customer: c, visit: v, wallA, wallB, ceiling }
+}
+
+describe('jobs', () => {
+  it('makes a job from an accepted quote in one step, once', async () => {
+    const { quoteId, wallA, wallB } = await acceptedQuote()
+    const made = await owner.post(`/api/quotes/${quoteId}/job`)
+    expect(made.status, JSON.stringify(made.body)).toBe(201)
+    expect(made.body.reference).toMatch(/^J-\d{4}$/)
+    expect((await owner.post(`/api/quotes/${quoteId}/job`)).status).toBe(409)
+    const quote = (await owner.get(`/api/quotes/${quoteId}`)).body
+    expect(quote.job).toEqual({ id: made.body.id, reference: made.body.reference })
+
+    const job = (await owner.get(`/api/jobs/${made.body.id}`)).body
+    expect(job).toMatchObject({ status: 'booked', customer: { name: 'Noor Halloran' }, site: { line1: '22 Ropewalk Lane' } })
+    expect(job.money.grossPence).toBe(quote.current.totals.grossPence)
+    expect(job.history).toEqual([expect.objectContaining({ fromStatus: null, toStatus: 'booked' })])
+    // the plan: the difficult corner's walls in different sets, the patch filled before its skim, with reasons
+    const setOf = (surface: string, action: string) => job.plan.plan.sets.find((s: any) => s.tasks.some((t: any) => t.surfaceId === surface && t.action === action))?.number
+    expect(setOf(wallA, 'skim')).not.toBe(setOf(wallB, 'skim'))
+    expect(setOf(wallA, 'fill')).toBeLessThan(setOf(wallA, 'skim'))
+    for (const s of job.plan.plan.sets) for (const t of s.tasks) expect(t.reason.length).toBeGreaterThan(10)
+    // materials estimated from the visit, at cost
+    expect(job.materials.length).toBeGreaterThan(0)
+    expect(job.materials.every((m: any) => m.estimatedPacksX1000 > 0 && m.usedPacksX1000 === 0)).toBe(true)
+  })
+
+  it('refuses a job from a quote not yet accepted, and another firm\'s quote', async () => {
+    const c = (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Pat Draft', email: uniqueEmail('pd') } })).body
+    const q = (await owner.post('/api/quotes', { customerId: c.id })).body
+    expect((await owner.post(`/api/quotes/${q.id}/job`)).status).toBe(409)
+    expect((await otherFirm.post(`/api/quotes/${q.id}/job`)).status).toBe(404)
+  })
+
+  it('makes a job directly, checks its fields, and records each status change', async () => {
+    const c = (await owner.post('/api/customers', { customer: { kind: 'landlord', name: 'Harbour Lets', email: uniqueEmail('hl') } })).body
+    const bad = await owner.post('/api/jobs', { customerId: c.id, title: '' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields.title).toBeTruthy()
+    expect((await owner.post('/api/jobs', { customerId: crypto.randomUUID(), title: 'Patch' })).status).toBe(400)
+    const made = await owner.post('/api/jobs', { customerId: c.id, title: 'Patch the hall ceiling' })
+    expect(made.status).toBe(201)
+    const id = made.body.id
+    // cancelling needs a reason; invoiced and paid follow from invoices, not by hand
+    expect((await owner.post(`/api/jobs/${id}/status`, { to: 'cancelled' })).status).toBe(400)
+    expect((await owner.post(`/api/jobs/${id}/status`, { to: 'invoiced' })).status).toBe(409)
+    expect((await owner.post(`/api/jobs/${id}/status`, { to: 'in-progress' })).status).toBe(200)
+    const done = await owner.post(`/api/jobs/${id}/status`, { to: 'finished' })
+    expect(done.status).toBe(200)
+    expect(done.body.history.map((h: any) => h.toStatus)).toEqual(['booked', 'in-progress', 'finished'])
+    expect(done.body.history.every((h: any) => h.by && h.at)).toBe(true)
+    expect((await owner.post(`/api/jobs/${id}/status`, { to: 'nonsense' })).status).toBe(400)
+    expect((await owner.get(`/api/jobs/${crypto.randomUUID()}`)).status).toBe(404)
+    expect((await otherFirm.get(`/api/jobs/${id}`)).status).toBe(404)
+  })
+})
+
+describe('days, crew and the set log', () => {
+  it('shows crew only the jobs they are booked on, with no money, and lets them log a set', async () => {
+    const { quoteId, wallA, wallB, ceiling } = await acceptedQuote()
+    const { id } = (await owner.post(`/api/quotes/${quoteId}/job`)).body
+    // not booked yet: invisible to crew
+    expect((await crew.get(`/api/jobs/${id}`)).status).toBe(404)
+    expect((await crew.get('/api/jobs')).body.some((j: any) => j.id === id)).toBe(false)
+
+    const badDays = await owner.put(`/api/jobs/${id}/days`, { days: [{ day: '2026-12-07', userId: crewId }, { day: '2026-12-07', userId: crewId }] })
+    expect(badDays.status).toBe(400)
+    expect((await owner.put(`/api/jobs/${id}/days`, { days: [{ day: '2026-12-07', userId: crypto.randomUUID() }] })).status).toBe(400)
+    const booked = await owner.put(`/api/jobs/${id}/days`, { days: [{ day: '2026-12-07', userId: crewId }, { day: '2026-12-07', userId: ownerId }, { day: '2026-12-09', userId: crewId, portion: 'half-day' }] })
+    expect(booked.status, JSON.stringify(booked.body)).toBe(200)
+    expect(booked.body.days).toHaveLength(3)
+    // crew may not book days
+    expect((await crew.put(`/api/jobs/${id}/days`, { days: [] })).status).toBe(403)
+
+    const seen = await crew.get(`/api/jobs/${id}`)
+    expect(seen.status).toBe(200)
+    expect(seen.body.money).toBeUndefined()
+    expect(JSON.stringify(seen.body)).not.toMatch(/Pence/)
+    expect((await crew.get('/api/jobs')).body.map((j: any) => j.id)).toContain(id)
+    expect((await otherCrew.get(`/api/jobs/${id}`)).status).toBe(404)
+
+    // the diary: crew see their own days only
+    const diary = (await crew.get('/api/diary?from=2026-12-01&to=2026-12-31')).body
+    expect(diary.map((d: any) => d.day)).toEqual(['2026-12-07', '2026-12-09'])
+    expect(diary.every((d: any) => d.userId === crewId)).toBe(true)
+    expect((await owner.get('/api/diary?from=2026-12-01&to=2026-12-31')).body.filter((d: any) => d.jobId === id)).toHaveLength(3)
+    expect((await crew.get('/api/diary?from=2026-12-31&to=2026-12-01')).status).toBe(400)
+
+    // log set 1: fill the patch; bad logs name their field
+    const set1 = seen.body.plan.plan.sets[0]
+    const finish = (await owner.get('/api/materials')).body.find((m: any) => m.type === 'finish')
+    const missing = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', surfaceIds: [] })
+    expect(missing.status).toBe(400)
+    expect(Object.keys(missing.body.data.fields).sort()).toEqual(['coat', 'surfaceIds'])
+    expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', coat: 'first', surfaceIds: [crypto.randomUUID()] })).status).toBe(400)
+    const logged = await crew.post(`/api/jobs/${id}/logs`, {
+      kind: 'set', setNumber: 1, coat: 'first', surfaceIds: set1.tasks.map((t: any) => t.surfaceId),
+      startedAt: '2026-12-07T08:30:00Z', endedAt: '2026-12-07T10:15:00Z', materials: [{ materialId: finish.id, packsX1000: 1500 }], notes: 'Good suction',
+    })
+    expect(logged.status, JSON.stringify(logged.body)).toBe(201)
+    expect(logged.body.status).toBe('in-progress')
+    expect(logged.body.logs).toHaveLength(1)
+    expect(logged.body.logs[0].materials[0]).toMatchObject({ name: finish.name, packsX1000: 1500 })
+    expect(logged.body.logs[0].materials[0].costPencePerPack).toBeUndefined()
+    // a problem found
+    expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'problem', notes: '' })).status).toBe(400)
+    expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'problem', notes: 'Live cable in the wall by the door: isolated before going on.' })).status).toBe(201)
+    expect((await otherCrew.post(`/api/jobs/${id}/logs`, { kind: 'problem', notes: 'Not my job' })).status).toBe(404)
+
+    // the owner sees materials used against the estimate, in packs and money
+    const full = (await owner.get(`/api/jobs/${id}`)).body
+    const row = full.materials.find((m: any) => m.materialId === finish.id)
+    expect(row.usedPacksX1000).toBe(1500)
+    expect(row.differencePacksX1000).toBe(1500 - row.estimatedPacksX1000)
+    // 1.5 bags at the catalogue price, rounded half up
+    expect(row.usedCostPence).toBe(Math.floor((1500 * finish.costPence + 500) / 1000))
+    // ready to decorate: the skim logged on 7 December plus the firm's 7 days (common practice, DOMAIN.md: about a week)
+    expect(full.ready).toEqual([{ room: 'Back bedroom', from: '2026-12-14' }])
+    expect(full.dryingCaution).toMatch(/not a promise/)
+
+    // days worked: crew mark their own day, not someone else's
+    const crewDay = full.days.find((d: any) => d.userId === crewId && d.day === '2026-12-07')
+    const ownerDay = full.days.find((d: any) => d.userId === ownerId)
+    expect((await crew.patch(`/api/job-days/${crewDay.id}`, { worked: true })).status).toBe(200)
+    expect((await crew.patch(`/api/job-days/${ownerDay.id}`, { worked: true })).status).toBe(404)
+    const after = (await owner.get(`/api/jobs/${id}`)).body
+    expect(after.worked).toEqual([{ userId: crewId, name: 'Kit Crewe', halfDays: 2 }])
+
+    // moving a surface by hand: kept, and the broken rule shown in words
+    const plan = after.plan.plan
+    const setOf = (s: string) => plan.sets.find((x: any) => x.tasks.some((t: any) => t.surfaceId === s && t.action === 'skim')).number
+    const moved = await owner.put(`/api/jobs/${id}/plan`, { people: 1, bagsPerPersonPerSet: 3, coverageM2PerBagX10: 100, moves: { [wallB]: setOf(wallA) } })
+    expect(moved.status, JSON.stringify(moved.body)).toBe(200)
+    const movedPlan = moved.body.plan.plan
+    const setAfter = (s: string) => movedPlan.sets.find((x: any) => x.tasks.some((t: any) => t.surfaceId === s && t.action === 'skim')).number
+    expect(setAfter(wallB)).toBe(setAfter(wallA))
+    expect(movedPlan.warnings.join(' ')).toMatch(/corner/i)
+    expect(setAfter(ceiling)).toBeGreaterThan(0)
+    expect((await owner.put(`/api/jobs/${id}/plan`, { people: 0, bagsPerPersonPerSet: 3, coverageM2PerBagX10: 100 })).status).toBe(400)
+  })
+})
+
+describe('the calendar feed', () => {
+  it('gives each person their own days only, and stops the old URL when reset', async () => {
+    const { quoteId } = await acceptedQuote()
+    const { id } = (await owner.post(`/api/quotes/${quoteId}/job`)).body
+    await owner.put(`/api/jobs/${id}/days`, { days: [{ day: '2026-12-15', userId: otherCrewId }, { day: '2026-12-16', userId: ownerId }] })
+    const first = await otherCrew.post('/api/me/calendar')
+    expect(first.status).toBe(200)
+    const path = new URL(first.body.url).pathname
+    const feed = await getText(path)
+    expect(feed.status).toBe(200)
+    expect(feed.headers.get('content-type')).toMatch(/^text\/calendar/)
+    expect(feed.text).toMatch(/^BEGIN:VCALENDAR/)
+    expect(feed.text).toContain('DTSTART;VALUE=DATE:20261215')
+    // the owner's day on the 16th is not in this person's feed (the 15th ends, exclusively, on the 16th)
+    expect(feed.text).not.toContain('DTSTART;VALUE=DATE:20261216')
+    expect(feed.text).toContain('DTEND;VALUE=DATE:20261216')
+    expect(feed.text).toContain('Noor Halloran')
+    expect(feed.text).not.toMatch(/£|Pence/)
+    expect((feed.text.match(/BEGIN:VEVENT/g) ?? []).length).toBe(1)
+    expect(feed.text).toContain('END:VCALENDAR')
+
+    const again = await otherCrew.post('/api/me/calendar')
+    expect((await getText(path)).status).toBe(404)
+    expect((await getText(new URL(again.body.url).pathname)).status).toBe(200)
+    expect((await getText('/calendar/not-a-token.ics')).status).toBe(404)
+    expect((await new Client(app.url).post('/api/me/calendar')).status).toBe(401)
+  })
+})
