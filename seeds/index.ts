@@ -9,6 +9,7 @@ import pg from 'pg'
 import * as schema from '../server/db/schema'
 import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, DEMO_PRICE_BOOK, SECOND_FIRM } from './demo'
 import { seedVisit } from './visit'
+import { seedJob } from './job'
 import { DEFAULT_MATERIALS, defaultMaterialRow } from '../shared/utils/materials'
 
 // the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
@@ -60,6 +61,8 @@ export async function seed(url: string): Promise<'seeded' | 'already'> {
         if (status === 'visit-booked') bookedEnquiry = { id: row!.id, customerId: c.id, siteId: c.sites[site]! }
       }
       if (bookedEnquiry) await seedVisit(tx, { firmId, ...bookedEnquiry, visitorUserId: userIds.owner! })
+      const millbeck = customerIds.millbeck!
+      await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! })
 
       const secondId = randomUUID()
       const { owner: _o, ...second } = SECOND_FIRM

@@ -1,6 +1,6 @@
 import type { Permission } from '#shared/utils/roles'
 
-export type NavIcon = 'today' | 'enquiries' | 'visits' | 'customers' | 'quotes' | 'team' | 'firm' | 'account' | 'settings'
+export type NavIcon = 'today' | 'jobs' | 'enquiries' | 'visits' | 'customers' | 'quotes' | 'team' | 'firm' | 'account' | 'settings'
 export interface NavItem { to: string, label: string, icon: NavIcon, permission?: Permission, anyOf?: Permission[] }
 
 /** The sections of the shell. Each shows only to roles with its permission (the server checks again). */
@@ -10,6 +10,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/visits', label: 'Visits', icon: 'visits', anyOf: ['ledger:write', 'jobs:read-assigned'] },
   { to: '/customers', label: 'Customers', icon: 'customers', permission: 'customers:read' },
   { to: '/quotes', label: 'Quotes', icon: 'quotes', permission: 'money:read' },
+  { to: '/jobs', label: 'Jobs', icon: 'jobs', permission: 'jobs:read-assigned' },
   { to: '/settings', label: 'Settings', icon: 'settings' },
 ]
 

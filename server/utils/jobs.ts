@@ -95,14 +95,15 @@ export async function defaultPlanOptions(f: FirmScope) {
 
 /** The set plan of a job: from its visit's rooms, planned, with the plasterer's moves applied and checked again. */
 export async function jobPlan(f: FirmScope, job: JobRow) {
-  if (!job.visitId) return { plan: { sets: [], warnings: [] }, labels: {} as Record<string, string>, notes: ['This job has no measured visit, so there are no surfaces to plan.'], surfaces: [] as { id: string, label: string, roomName: string, areaM2: number }[] }
+  if (!job.visitId) return { plan: { sets: [], warnings: [] }, planner: { sets: [], warnings: [] }, labels: {} as Record<string, string>, notes: ['This job has no measured visit, so there are no surfaces to plan.'], surfaces: [] as { id: string, label: string, roomName: string, areaM2: number }[] }
   const book = await usePriceBook(f)
   const rooms = await loadRooms(f, job.visitId)
   const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
   const options = job.planOptions
-  let plan = planSets(inputs.surfaces, inputs.corners, options, inputs.labels)
+  const planner = planSets(inputs.surfaces, inputs.corners, options, inputs.labels)
+  let plan = planner
   if (Object.keys(job.planMoves).length) {
-    plan = applyMoves(plan, job.planMoves, inputs.labels)
+    plan = applyMoves(planner, job.planMoves, inputs.labels)
     const broken = checkPlan(inputs.surfaces, inputs.corners, options, plan, inputs.labels)
     plan = { ...plan, warnings: [...new Set([...plan.warnings, ...broken])] }
   }
@@ -110,6 +111,7 @@ export async function jobPlan(f: FirmScope, job: JobRow) {
   for (const r of rooms) for (const s of r.surfaces) roomOf.set(s.id, r.name)
   return {
     plan,
+    planner,
     labels: inputs.labels,
     notes: inputs.notes,
     surfaces: inputs.surfaces.map(s => ({ id: s.id, label: inputs.labels[s.id] ?? s.id, roomName: roomOf.get(s.id) ?? '', areaM2: s.areaM2 })),
@@ -130,7 +132,7 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   const uses = await f.tx.select({ logId: materialUses.logId, materialId: materialUses.materialId, name: materials.name, packLabel: materials.packLabel, packsX1000: materialUses.packsX1000, costPencePerPack: materialUses.costPencePerPack })
     .from(materialUses).innerJoin(materials, and(eq(materials.firmId, materialUses.firmId), eq(materials.id, materialUses.materialId)))
     .where(f.where(materialUses, eq(materialUses.jobId, id)))
-  const planned = await jobPlan(f, job)
+  const { planner: _planner, ...planned } = await jobPlan(f, job)
   const book = await usePriceBook(f)
   const drying = { skimDays: book.drySkimDays, undercoatDays: book.dryUndercoatDays, coldOrDampExtraDays: book.dryColdOrDampExtraDays }
   const comparison = materialsAgainstEstimate(job.materialsEstimate, uses)

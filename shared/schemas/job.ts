@@ -48,8 +48,10 @@ export const planSettingsSchema = z.object({
   bagsPerPersonPerSet: z.int({ error: 'Enter whole bags.' }).min(1, { error: 'At least one bag.' }).max(20, { error: 'Over 20 bags each in one set? Check the figure.' }),
   /** Tenths of a square metre a bag covers at the skim thickness (10 m² = 100). */
   coverageM2PerBagX10: z.int({ error: 'Enter the square metres a bag covers.' }).min(1).max(1000),
-  /** Surfaces moved by hand: surface id -> set number. */
+  /** Surfaces moved by hand now: surface id -> the set number as seen on the plan. Kept with earlier moves. */
   moves: z.record(z.uuid(), z.int().min(1).max(200)).default({}),
+  /** Forget every move made by hand: back to the planner's own plan. */
+  resetMoves: z.boolean().default(false),
 })
 
 export const setLogSchema = z.object({

@@ -6,8 +6,35 @@ import type { PlannedSet, PlanTask, SetPlan } from './set-plan'
 
 const tenths = (bags: number) => Math.round(bags * 10)
 
+/**
+ * Moves are kept in the planner's own set numbers, but people see the plan after empty sets have
+ * closed up. The planner's number of the set someone sees as `shown` (after the moves already
+ * made): a number past the last set is a new set at the end.
+ */
+export function plannerSetNumber(plan: SetPlan, moves: Record<string, number>, shown: number): number {
+  if (!Number.isInteger(shown) || shown < 1) throw new RangeError(`a set number is a whole number from 1, got ${shown}`)
+  const raw = placeSkims(plan, moves).sets
+  const used = raw.map((s, i) => (s.tasks.length ? i + 1 : 0)).filter(n => n > 0)
+  return shown <= used.length ? used[shown - 1]! : raw.length + (shown - used.length)
+}
+
 /** The plan with each surface's skim in the set named by `moves` (surface id -> set number). */
 export function applyMoves(plan: SetPlan, moves: Record<string, number>, labels: Record<string, string> = {}): SetPlan {
+  const { sets, warnings, movedFrom } = placeSkims(plan, moves, labels)
+  const kept = sets.filter(s => s.tasks.length)
+  // the reason names the set the task ends up in, after empty sets have closed up
+  const reasoned = (t: PlanTask, number: number): PlanTask => {
+    const was = movedFrom.get(t)
+    return was === undefined ? t : { ...t, reason: `Moved to set ${number} by hand (the planner had it in set ${was}).` }
+  }
+  return {
+    sets: kept.map((s, i) => ({ number: i + 1, tasks: s.tasks.map(t => reasoned(t, i + 1)), bags: s.tasks.reduce((sum, t) => sum + tenths(t.bags), 0) / 10 })),
+    warnings: [...plan.warnings, ...warnings],
+  }
+}
+
+/** Each moved skim in its set, in the planner's numbering, before empty sets close up. */
+function placeSkims(plan: SetPlan, moves: Record<string, number>, labels: Record<string, string> = {}) {
   const sets: { tasks: PlannedSet['tasks'] }[] = plan.sets.map(s => ({ tasks: s.tasks.map(t => ({ ...t })) }))
   const warnings: string[] = []
   /** Tasks moved by hand, with the set the planner had them in. */
@@ -26,14 +53,5 @@ export function applyMoves(plan: SetPlan, moves: Record<string, number>, labels:
     sets[to - 1]!.tasks.push(task)
     movedFrom.set(task, from + 1)
   }
-  const kept = sets.filter(s => s.tasks.length)
-  // the reason names the set the task ends up in, after empty sets have closed up
-  const reasoned = (t: PlanTask, number: number): PlanTask => {
-    const was = movedFrom.get(t)
-    return was === undefined ? t : { ...t, reason: `Moved to set ${number} by hand (the planner had it in set ${was}).` }
-  }
-  return {
-    sets: kept.map((s, i) => ({ number: i + 1, tasks: s.tasks.map(t => reasoned(t, i + 1)), bags: s.tasks.reduce((sum, t) => sum + tenths(t.bags), 0) / 10 })),
-    warnings: [...plan.warnings, ...warnings],
-  }
+  return { sets, warnings, movedFrom }
 }

@@ -69,7 +69,7 @@ describe('inviting a crew member', () => {
     await expectText(invitee.getByText(`${FIRM_NAME} · Crew`), 'Crew')
 
     // the crew's menu: Today, their visits and Settings; no enquiries or customers
-    expect(await menuLabels(invitee)).toEqual(['Today', 'Visits', 'Settings'])
+    expect(await menuLabels(invitee)).toEqual(['Today', 'Visits', 'Jobs', 'Settings'])
     const nav = invitee.getByRole('navigation', { name: 'Sections' })
     await expectVisible(nav.getByRole('link', { name: 'Today' }))
     expect(await nav.getByRole('link', { name: 'Customers' }).count()).toBe(0)

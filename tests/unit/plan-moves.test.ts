@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import type { PlanCorner, PlanOptions, PlanSurface, SetPlan } from '../../shared/utils/set-plan'
 import { checkPlan, planSets } from '../../shared/utils/set-plan'
-import { applyMoves } from '../../shared/utils/plan-moves'
+import { applyMoves, plannerSetNumber } from '../../shared/utils/plan-moves'
 
 // Sources. What a move does is our product's own rule (shared/utils/plan-moves.ts): a surface's
 // skim goes to the set named, its fill and tight coats stay, empty sets close up, the set numbers
@@ -301,5 +301,32 @@ describe('applyMoves: properties of random moves on random plans (our product\'s
       const stay = Object.fromEntries(surfaces.map(s => [s.id, skimSet(plan, s.id)]))
       expect(applyMoves(plan, stay)).toEqual(plan)
     }), { numRuns: 200 })
+  })
+})
+
+describe('plannerSetNumber', () => {
+  // our own rule: people choose sets by the numbers they see; moves are kept in the planner's numbers
+  const task = (surfaceId: string, bags: number) => ({ surfaceId, action: 'skim' as const, bags, reason: 'r' })
+  const plan = { sets: [{ number: 1, tasks: [task('A', 1)], bags: 1 }, { number: 2, tasks: [task('B', 1)], bags: 1 }, { number: 3, tasks: [task('C', 1)], bags: 1 }], warnings: [] }
+  it.each([
+    // no moves yet: what is seen is the planner's numbering; past the end is a new set
+    { moves: {}, shown: 1, planner: 1 },
+    { moves: {}, shown: 3, planner: 3 },
+    { moves: {}, shown: 4, planner: 4 },
+    // A moved into set 2 empties set 1: people see {B, A} as set 1 and {C} as set 2
+    { moves: { A: 2 }, shown: 1, planner: 2 },
+    { moves: { A: 2 }, shown: 2, planner: 3 },
+    { moves: { A: 2 }, shown: 3, planner: 4 },
+  ])('with $moves, set $shown as seen is the planner\'s set $planner', ({ moves, shown, planner }) => {
+    expect(plannerSetNumber(plan, moves, shown)).toBe(planner)
+  })
+  it('puts C with A and B when C is moved to the set seen as 1', () => {
+    const moves: Record<string, number> = { A: 2 }
+    moves.C = plannerSetNumber(plan, moves, 1)
+    const moved = applyMoves(plan, moves)
+    expect(moved.sets.map(s => s.tasks.map(t => t.surfaceId).sort())).toEqual([['A', 'B', 'C']])
+  })
+  it('refuses a set number that is not a whole number from 1', () => {
+    expect(() => plannerSetNumber(plan, {}, 0)).toThrow(RangeError)
   })
 })
