@@ -15,3 +15,11 @@ export function formatQuantity(x1000: number): string {
   const digits = String(frac).padStart(3, '0')
   return `${whole}.${digits.endsWith('0') ? digits.replace(/0$/, '') : digits}`
 }
+
+/** Thousandths as a plain count with no trailing zeros: 1500 -> '1.5', 2000 -> '2', 1250 -> '1.25'. */
+export function formatCount(x1000: number): string {
+  const sign = x1000 < 0 ? '-' : ''
+  const a = Math.abs(x1000)
+  const frac = String(a % 1000).padStart(3, '0').replace(/0+$/, '')
+  return `${sign}${Math.floor(a / 1000)}${frac ? `.${frac}` : ''}`
+}

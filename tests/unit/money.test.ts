@@ -43,8 +43,10 @@ describe('formatPence', () => {
 })
 
 describe('quantities in thousandths', async () => {
-  const { formatQuantity, parseQuantity } = await import('../../shared/utils/quantity')
+  const { formatCount, formatQuantity, parseQuantity } = await import('../../shared/utils/quantity')
   it.each([['8.4', 8400], ['8.40', 8400], ['12,345', 12345], ['3', 3000], ['0.001', 1]])('%s -> %i', (s, n) => expect(parseQuantity(s)).toBe(n))
   it.each(['', '-1', '1.2345', 'abc', '1e3'])('%s is not a quantity', s => expect(parseQuantity(s)).toBeNull())
   it.each([[8400, '8.40'], [12345, '12.345'], [3000, '3'], [1, '0.001'], [12300, '12.30']])('%i -> %s', (n, s) => expect(formatQuantity(n)).toBe(s))
+  // bags and packs as counts: no trailing zeros, negatives for a difference
+  it.each([[1500, '1.5'], [2000, '2'], [1250, '1.25'], [0, '0'], [-500, '-0.5'], [-2000, '-2'], [1, '0.001']])('count %i -> %s', (n, s) => expect(formatCount(n)).toBe(s))
 })

@@ -1,0 +1,109 @@
+// The crew member's morning on a phone (390 x 844): today's job from the Today screen, the set
+// plan with why each surface is in its set, set 1 logged in a few taps with the bags mixed;
+// then the owner sees the materials used against the estimate.
+import { describe, expect, it } from 'vitest'
+import { Client, uniqueEmail } from '../support/client'
+import { expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { CREW, OWNER } from './demo'
+
+const e2e = useE2E()
+
+/** The office's part, through the API: a measured room, a quote accepted by the customer, the job booked today for the crew. */
+async function jobBookedToday(api: Client) {
+  const email = uniqueEmail('ingrid')
+  const c = (await api.post('/api/customers', { customer: { kind: 'homeowner', name: 'Ingrid Tallow', email }, site: { line1: '9 Coopers Yard', town: 'Kettlebury', postcode: 'KB6 1JT' } })).body
+  const v = (await api.post('/api/visits', { customerId: c.id, siteId: c.sites[0].id, startsAt: new Date(Date.now() - 86_400_000).toISOString() })).body
+  const wallA = crypto.randomUUID()
+  const wallB = crypto.randomUUID()
+  const room = await api.put(`/api/visits/${v.id}/rooms/${crypto.randomUUID()}`, {
+    revision: 0,
+    name: 'Box room',
+    surfaces: [
+      { id: wallA, kind: 'wall', label: 'Outside wall', lengthMm: 2600, secondMm: 2400, conditions: [{ id: crypto.randomUUID(), kind: 'patch-masonry', areaCm2: 3000 }] },
+      { id: wallB, kind: 'wall', label: 'Landing wall', lengthMm: 2200, secondMm: 2400 },
+      { id: crypto.randomUUID(), kind: 'ceiling', lengthMm: 2600, secondMm: 2200 },
+    ],
+    corners: [{ id: crypto.randomUUID(), surfaceAId: wallA, surfaceBId: wallB, kind: 'internal', lengthMm: 2400, returnWidthMm: 70 }],
+  })
+  expect(room.status, JSON.stringify(room.body)).toBe(200)
+  const q = (await api.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
+  expect((await api.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
+  const mail = await e2e.app.waitForMail(email, /Your quote Q-/)
+  const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
+  expect((await new Client(e2e.url).post(`/api/public/quotes/${token}/accept`, { name: 'Ingrid Tallow' })).status).toBe(200)
+  const job = (await api.post(`/api/quotes/${q.id}/job`)).body
+  const members = (await api.get('/api/members')).body
+  const kieran = members.find((m: any) => m.name === CREW.name)
+  const d = new Date()
+  const today = `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`
+  expect((await api.put(`/api/jobs/${job.id}/days`, { days: [{ day: today, userId: kieran.userId }] })).status).toBe(200)
+  return { jobId: job.id as string, reference: job.reference as string }
+}
+
+describe('the set log', () => {
+  it('crew open today\'s job, see the plan and why, log set 1; the owner sees materials used against the estimate', async () => {
+    const api = new Client(e2e.url)
+    await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
+    const { jobId, reference } = await jobBookedToday(api)
+
+    const kieran = await e2e.open()
+    const page = kieran.page
+    await signInToDashboard(page, e2e.url, CREW.email, CREW.password)
+    const today = page.getByTestId('dashboard-jobs')
+    await expectVisible(today.getByText('Ingrid Tallow'))
+    await today.getByRole('link', { name: /Ingrid Tallow/ }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+    await expectText(page.getByText(`Job ${reference}`), new RegExp(`job ${reference}`, 'i'))
+
+    // the plan: each set with its surfaces and the reason in words; no prices for crew
+    const plan = page.getByTestId('set-plan')
+    await expectVisible(plan.getByTestId('set-1'))
+    await expectVisible(plan.getByText(/Fill · Box room · Wall 1 \(Outside wall\)/))
+    const reasons = await plan.locator('li li p.text-slate-700').allTextContents()
+    expect(reasons.length).toBeGreaterThan(2)
+    expect(reasons.join(' ')).toMatch(/corner|suction|patch/i)
+    expect(await page.getByTestId('job-money').count()).toBe(0)
+    expect(await page.locator('body').textContent()).not.toMatch(/£/)
+    await screenshot(page, 'job-plan-crew')
+
+    // log set 1: the set's surfaces tick themselves; a bad figure is named beside its field
+    await page.getByRole('link', { name: 'Log a set' }).first().click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+    await expectVisible(page.getByRole('heading', { name: 'Log a set' }))
+    expect(await page.getByLabel('Set', { exact: true }).inputValue()).toBe('1')
+    expect(await page.locator('input[type=checkbox][value]:checked').count()).toBeGreaterThan(0)
+    const bags = page.getByLabel('Gypsum finish plaster')
+    await bags.fill('lots')
+    await page.getByLabel('Notes (optional)').fill('Patch dubbed out, good suction')
+    await page.getByRole('button', { name: 'Save the set' }).click()
+    await expectText(page.getByRole('alert').filter({ hasText: 'bags' }), 'Enter the bags mixed, like 1.5.')
+    expect(await page.getByLabel('Notes (optional)').inputValue()).toBe('Patch dubbed out, good suction')
+    await bags.fill('1.5')
+    await screenshot(page, 'set-log-form')
+    await page.getByRole('button', { name: 'Save the set' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+    const log = page.getByTestId('set-log')
+    await expectVisible(log.getByText(/Set 1/))
+    await expectVisible(log.getByText('1.5 × Gypsum finish plaster'))
+    await expectText(page.getByTestId('job-status'), 'On site')
+    await expectVisible(page.getByTestId('ready').getByText(/from about/))
+    await expectVisible(page.getByTestId('ready').getByText(/not a promise/))
+    expectCleanRun(kieran)
+
+    // the owner, on a phone too, sees what was used against the estimate, in packs and money
+    const jess = await e2e.open()
+    await signInToDashboard(jess.page, e2e.url, OWNER.email, OWNER.password)
+    await visit(jess.page, `${e2e.url}/jobs/${jobId}`)
+    const row = jess.page.getByTestId('job-materials').locator('tr', { hasText: 'Finish plaster' })
+    await expectVisible(row)
+    const cells = await row.locator('td').allTextContents()
+    const detail = (await api.get(`/api/jobs/${jobId}`)).body
+    const finish = detail.materials.find((m: any) => /finish plaster/i.test(m.name))
+    expect(finish.usedPacksX1000).toBe(1500)
+    expect(cells[2]!.trim()).toBe('1.5')
+    expect(cells[3]).toContain(finish.differencePacksX1000 < 0 ? '−' : '+')
+    expect(cells[3]).toContain('£')
+    await screenshot(jess.page, 'job-materials-owner')
+    expectCleanRun(jess)
+  })
+})
