@@ -12,11 +12,11 @@
 //   big). sharp's limitInputPixels refuses it from the header, before decoding any pixel.
 import type { H3Event } from 'h3'
 import busboy from 'busboy'
-import { and, asc, eq } from 'drizzle-orm'
+import { and, asc, eq, getTableColumns } from 'drizzle-orm'
 import { fileTypeFromBuffer } from 'file-type'
 import sharp from 'sharp'
 import { z } from 'zod'
-import { conditions, enquiries, photos, rooms, surfaces, visits } from '../db/schema'
+import { conditions, enquiries, photos, rooms, setLogPhotos, setLogs, surfaces, visits } from '../db/schema'
 import type { FirmScope } from './db'
 import { fieldErrors } from '#shared/schemas/common'
 
@@ -294,7 +294,7 @@ export function cleanFilename(name: string): string {
 // ---------------------------------------------------------------------------------------------
 // Photos: what they attach to, and how a row is answered
 
-export const PHOTO_TARGET_KEYS = ['enquiryId', 'visitId', 'surfaceId', 'conditionId'] as const
+export const PHOTO_TARGET_KEYS = ['enquiryId', 'visitId', 'surfaceId', 'conditionId', 'setLogId'] as const
 export type PhotoTargetKey = (typeof PHOTO_TARGET_KEYS)[number]
 export type PhotoTarget = Partial<Record<PhotoTargetKey, string>>
 
@@ -308,12 +308,13 @@ const targetShape = {
   visitId: optionalId,
   surfaceId: optionalId,
   conditionId: optionalId,
+  setLogId: optionalId,
 }
 
 function exactlyOneTarget(value: PhotoTarget, ctx: z.RefinementCtx) {
   const named = PHOTO_TARGET_KEYS.filter(k => value[k])
   if (named.length !== 1) {
-    ctx.addIssue({ code: 'custom', path: ['target'], message: 'Say what the photo belongs to: one enquiry, visit, surface or condition.' })
+    ctx.addIssue({ code: 'custom', path: ['target'], message: 'Say what the photo belongs to: one enquiry, visit, surface, condition or logged set.' })
   }
 }
 
@@ -341,7 +342,7 @@ export function mergeUploadInputs(query: Record<string, unknown>, fields: Record
 }
 
 function targetMissing(key: PhotoTargetKey): never {
-  const what = { enquiryId: 'enquiry', visitId: 'visit', surfaceId: 'surface', conditionId: 'condition' }[key]
+  const what = { enquiryId: 'enquiry', visitId: 'visit', surfaceId: 'surface', conditionId: 'condition', setLogId: 'logged set' }[key]
   throw createError({ statusCode: 404, statusMessage: 'Not found', data: { fields: { [key]: `There is no such ${what} in this firm.` } } })
 }
 
@@ -350,7 +351,7 @@ function targetMissing(key: PhotoTargetKey): never {
  * in the visit a surface or condition belongs to, so a visit's photos list them all.
  */
 export async function resolvePhotoTarget(f: FirmScope, auth: FirmContext, target: PhotoTarget) {
-  const out = { enquiryId: null as string | null, visitId: null as string | null, surfaceId: null as string | null, conditionId: null as string | null }
+  const out = { enquiryId: null as string | null, visitId: null as string | null, surfaceId: null as string | null, conditionId: null as string | null, setLogId: null as string | null }
   if (target.enquiryId) {
     const [row] = await f.tx.select({ id: enquiries.id }).from(enquiries).where(f.where(enquiries, eq(enquiries.id, target.enquiryId)))
     if (!row) targetMissing('enquiryId')
@@ -378,6 +379,11 @@ export async function resolvePhotoTarget(f: FirmScope, auth: FirmContext, target
     out.conditionId = row.id
     out.visitId = row.visitId
   }
+  else if (target.setLogId) {
+    const [row] = await f.tx.select({ id: setLogs.id }).from(setLogs).where(f.where(setLogs, eq(setLogs.id, target.setLogId)))
+    if (!row) targetMissing('setLogId')
+    out.setLogId = row.id
+  }
   await assertPhotoAccess(f, auth, out)
   return out
 }
@@ -386,10 +392,22 @@ export async function resolvePhotoTarget(f: FirmScope, auth: FirmContext, target
  * Photos follow what they are attached to: crew see (and add to) only the visits they are down
  * to do, and never enquiries; owner and office see all. 404 otherwise, as for a missing photo.
  */
-export async function assertPhotoAccess(f: FirmScope, auth: FirmContext, target: { enquiryId: string | null, visitId: string | null }) {
+export async function assertPhotoAccess(f: FirmScope, auth: FirmContext, target: { enquiryId: string | null, visitId: string | null, setLogId?: string | null }) {
   if (can(auth.role, 'jobs:read-all')) return
   if (target.enquiryId && !can(auth.role, 'ledger:write')) notFound()
   if (target.visitId) await findVisit(f, auth, target.visitId)
+  if (target.setLogId) {
+    // a set's photos follow its job: crew only on the jobs they are booked on
+    const [log] = await f.tx.select({ jobId: setLogs.jobId }).from(setLogs).where(f.where(setLogs, eq(setLogs.id, target.setLogId)))
+    if (!log) notFound()
+    await findJob(f, auth, log.jobId)
+  }
+}
+
+/** The logged set a photo was taken with, if any. */
+export async function photoSetLog(f: FirmScope, photoId: string): Promise<string | null> {
+  const [link] = await f.tx.select({ setLogId: setLogPhotos.setLogId }).from(setLogPhotos).where(f.where(setLogPhotos, eq(setLogPhotos.photoId, photoId)))
+  return link?.setLogId ?? null
 }
 
 export type PhotoRow = typeof photos.$inferSelect
@@ -423,13 +441,19 @@ export type PhotoJson = ReturnType<typeof photoJson>
 export async function findPhoto(f: FirmScope, auth: FirmContext, id: string): Promise<PhotoRow> {
   const [row] = await f.tx.select().from(photos).where(f.where(photos, eq(photos.id, id)))
   if (!row) notFound()
-  await assertPhotoAccess(f, auth, row)
+  await assertPhotoAccess(f, auth, { ...row, setLogId: row.enquiryId || row.visitId ? null : await photoSetLog(f, row.id) })
   return row
 }
 
 /** The photos of one enquiry, visit, surface or condition, oldest first. */
 export async function listPhotos(f: FirmScope, filter: PhotoTarget): Promise<PhotoRow[]> {
   const key = PHOTO_TARGET_KEYS.find(k => filter[k])!
+  if (key === 'setLogId') {
+    return f.tx.select(getTableColumns(photos)).from(photos)
+      .innerJoin(setLogPhotos, and(eq(setLogPhotos.firmId, photos.firmId), eq(setLogPhotos.photoId, photos.id)))
+      .where(f.where(photos, eq(setLogPhotos.setLogId, filter.setLogId!)))
+      .orderBy(asc(photos.createdAt), asc(photos.id))
+  }
   return f.tx.select().from(photos)
     .where(f.where(photos, eq(photos[key], filter[key]!)))
     .orderBy(asc(photos.createdAt), asc(photos.id))

@@ -1,3 +1,4 @@
+import sharp from 'sharp'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
@@ -166,6 +167,20 @@ describe('days, crew and the set log', () => {
     expect(logged.body.logs).toHaveLength(1)
     expect(logged.body.logs[0].materials[0]).toMatchObject({ name: finish.name, packsX1000: 1500 })
     expect(logged.body.logs[0].materials[0].costPencePerPack).toBeUndefined()
+    // a photo of the set, seen by those on the job only
+    const logId = logged.body.logs[0].id
+    const form = new FormData()
+    form.append('setLogId', logId)
+    form.append('file', new Blob([new Uint8Array(await sharp({ create: { width: 320, height: 240, channels: 3, background: '#c9b8a0' } }).jpeg().toBuffer())], { type: 'image/jpeg' }), 'set1.jpg')
+    const photo = await fetch(`${app.url}/api/photos/uploads`, { method: 'POST', body: form, headers: { cookie: crew.cookieHeader() } })
+    expect(photo.status).toBe(201)
+    const photoId = (await photo.json()).id
+    expect((await crew.get(`/api/photos?setLogId=${logId}`)).body.photos.map((p: any) => p.id)).toEqual([photoId])
+    expect((await owner.get(`/api/photos/${photoId}`)).status).toBe(200)
+    expect((await otherCrew.get(`/api/photos/${photoId}`)).status).toBe(404)
+    expect((await otherCrew.get(`/api/photos?setLogId=${logId}`)).status).toBe(404)
+    expect((await otherFirm.get(`/api/photos?setLogId=${logId}`)).status).toBe(404)
+
     // a problem found
     expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'problem', notes: '' })).status).toBe(400)
     expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'problem', notes: 'Live cable in the wall by the door: isolated before going on.' })).status).toBe(201)

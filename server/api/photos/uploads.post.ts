@@ -1,8 +1,8 @@
-import { photos } from '../../db/schema'
+import { photos, setLogPhotos } from '../../db/schema'
 
 /**
  * Upload one photo: multipart/form-data with the picture in `file`, what it belongs to in exactly
- * one of `enquiryId`, `visitId`, `surfaceId`, `conditionId`, and an optional `caption` (each as
+ * one of `enquiryId`, `visitId`, `surfaceId`, `conditionId`, `setLogId`, and an optional `caption` (each as
  * a form field or in the query string). At /api/photos/uploads because the request guard leaves
  * `/uploads` paths' bodies to the route (it still refuses cross-site requests).
  *
@@ -52,7 +52,7 @@ export default defineEventHandler(async (event) => {
   let row: PhotoRow
   try {
     row = await withFirm(auth, async (f) => {
-      const target = await resolvePhotoTarget(f, auth, input)
+      const { setLogId, ...target } = await resolvePhotoTarget(f, auth, input)
       const [inserted] = await f.tx.insert(photos).values(f.values({
         storageKey,
         thumbKey,
@@ -65,8 +65,10 @@ export default defineEventHandler(async (event) => {
         ...target,
         uploadedBy: auth.userId,
       })).returning()
+      if (setLogId) await f.tx.insert(setLogPhotos).values(f.values({ photoId: inserted!.id, setLogId }))
       await f.audit('photo.uploaded', 'photo', inserted!.id, {
         ...target,
+        setLogId,
         width: full.width,
         height: full.height,
         bytes: full.data.length,

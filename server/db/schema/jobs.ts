@@ -8,7 +8,7 @@ import { firmColumn, sameFirm, timestamps } from './common'
 import { firms } from './firms'
 import { customers, sites } from './ledger'
 import { users } from './users'
-import { visits } from './visits'
+import { photos, visits } from './visits'
 import { materials, quotes, quoteVersions } from './quotes'
 import { JOB_STATUSES, LOG_COATS, DAY_PORTIONS } from '../../../shared/utils/jobs'
 
@@ -121,6 +121,19 @@ export const setLogs = pgTable('set_logs', {
   foreignKey({ name: 'set_logs_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }).onDelete('cascade'),
   index('set_logs_job_idx').on(t.firmId, t.jobId),
   firmPolicy('set_logs'),
+]).enableRLS()
+
+/** Photos taken with a logged set (a photo belongs to one log). */
+export const setLogPhotos = pgTable('set_log_photos', {
+  firmId: firmColumn(),
+  photoId: uuid().notNull(),
+  setLogId: uuid().notNull(),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.photoId] }),
+  foreignKey({ name: 'set_log_photos_photo_fk', columns: [t.firmId, t.photoId], foreignColumns: [photos.firmId, photos.id] }).onDelete('cascade'),
+  foreignKey({ name: 'set_log_photos_log_fk', columns: [t.firmId, t.setLogId], foreignColumns: [setLogs.firmId, setLogs.id] }).onDelete('cascade'),
+  index('set_log_photos_log_idx').on(t.firmId, t.setLogId),
+  firmPolicy('set_log_photos'),
 ]).enableRLS()
 
 /** Bags or packs of one material mixed for a logged set. */
