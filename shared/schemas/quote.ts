@@ -17,6 +17,13 @@ export const priceBookSchema = z.object({
   beadWastePercent: percent(50),
   materialsWastePercent: percent(50),
   m2PerDay: z.int({ error: 'Enter the square metres finished in a day.' }).min(1).max(500),
+  // site rules: optional, so a client that does not know them leaves them as they are
+  drySkimDays: z.int({ error: 'Enter whole days.' }).min(0).max(90, { error: 'Over 90 days? Check the figure.' }).optional(),
+  dryUndercoatDays: z.int({ error: 'Enter whole days.' }).min(0).max(120, { error: 'Over 120 days? Check the figure.' }).optional(),
+  dryColdOrDampExtraDays: z.int({ error: 'Enter whole days.' }).min(0).max(90, { error: 'Over 90 days? Check the figure.' }).optional(),
+  cornerTrowelMm: z.int({ error: 'Enter the width in whole mm.' }).min(20, { error: 'At least 20 mm.' }).max(400, { error: 'Over 400 mm? Check the figure.' }).optional(),
+  outOfTrueToleranceMm: z.int({ error: 'Enter whole mm.' }).min(0).max(100, { error: 'Over 100 mm? Check the figure.' }).optional(),
+  bagsPerPersonPerSet: z.int({ error: 'Enter whole bags.' }).min(1, { error: 'At least one bag.' }).max(20, { error: 'Over 20 bags? Check the figure.' }).optional(),
 })
 export type PriceBookInput = z.infer<typeof priceBookSchema>
 

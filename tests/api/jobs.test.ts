@@ -196,6 +196,13 @@ describe('days, crew and the set log', () => {
     // ready to decorate: the skim logged on 7 December plus the firm's 7 days (common practice, DOMAIN.md: about a week)
     expect(full.ready).toEqual([{ room: 'Back bedroom', from: '2026-12-14' }])
     expect(full.dryingCaution).toMatch(/not a promise/)
+    // the firm changes its rule of thumb: the date follows
+    const book = (await owner.get('/api/price-book')).body
+    const { firmId: _f, createdAt: _c, updatedAt: _u, ...fields } = book
+    expect((await owner.put('/api/price-book', { ...fields, drySkimDays: 10 })).status).toBe(200)
+    expect((await owner.get(`/api/jobs/${id}`)).body.ready).toEqual([{ room: 'Back bedroom', from: '2026-12-17' }])
+    expect((await owner.put('/api/price-book', { ...fields, drySkimDays: -1 })).status).toBe(400)
+    expect((await owner.put('/api/price-book', { ...fields, drySkimDays: 7 })).status).toBe(200)
 
     // days worked: crew mark their own day, not someone else's
     const crewDay = full.days.find((d: any) => d.userId === crewId && d.day === '2026-12-07')
