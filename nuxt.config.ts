@@ -28,6 +28,10 @@ export default defineNuxtConfig({
     smtpPass: '',
     /** Largest photo accepted (bytes): 413 beyond it. */
     uploadMaxBytes: 15 * 1024 * 1024,
+    /** Card payments. Locally the Stripe fake (scripts/lib/stripe-fake.mjs) at stripeApiBase; live: real keys and stripeApiBase empty. */
+    stripeSecretKey: 'sk_test_setwell_local',
+    stripeWebhookSecret: 'whsec_setwell_local',
+    stripeApiBase: 'http://127.0.0.1:12111',
     session: {
       name: 'setwell-session',
       maxAge: 60 * 60 * 24 * 14,

@@ -1,11 +1,12 @@
 // What `npm start` and `npm run dev` both need before the app runs: the dev database (created,
-// migrated and seeded once) and the local mail catcher on loopback.
+// migrated and seeded once), the local mail catcher and the local Stripe fake, on loopback.
 import { profile, urls } from './env.mjs'
 import { bootstrap, migrate, startCluster } from './pg.mjs'
 import { background, bin, isPortFree, run } from './run.mjs'
 
 export const SMTP_PORT = Number(process.env.SETWELL_MAIL_SMTP_PORT ?? 1025)
 export const MAIL_WEB_PORT = Number(process.env.SETWELL_MAIL_WEB_PORT ?? 1080)
+export const STRIPE_FAKE_PORT = Number(process.env.SETWELL_STRIPE_FAKE_PORT ?? 12111)
 
 export async function prepareDevServices() {
   const p = profile('dev')
@@ -18,6 +19,13 @@ export async function prepareDevServices() {
   }
   else {
     console.log(`[setup] ports ${SMTP_PORT}/${MAIL_WEB_PORT} are in use: assuming a mail catcher is already running there`)
+  }
+  // card payments go to our own Stripe fake; its webhooks come back to the app (secret as in nuxt.config.ts)
+  if (await isPortFree(STRIPE_FAKE_PORT)) {
+    background('node', ['scripts/lib/stripe-fake.mjs', '--port', String(STRIPE_FAKE_PORT), '--webhook-url', `${process.env.NUXT_APP_URL ?? 'http://127.0.0.1:3000'}/api/webhooks/stripe`, '--webhook-secret', 'whsec_setwell_local'], { stdio: 'ignore' })
+  }
+  else {
+    console.log(`[setup] port ${STRIPE_FAKE_PORT} is in use: assuming the Stripe fake is already running there`)
   }
   return p
 }

@@ -26,7 +26,7 @@
 // SDK calls go to api.stripe.com. Nothing in the app should know it is talking to this fake.
 //
 // Use: `startStripeFake({ port, webhookUrl, webhookSecret })` from a test, or
-// `node scripts/lib/stripe-fake.mjs --port 12111 --webhook-url http://127.0.0.1:3000/api/stripe/webhook
+// `node scripts/lib/stripe-fake.mjs --port 12111 --webhook-url http://127.0.0.1:3000/api/webhooks/stripe
 // --webhook-secret whsec_...` (see docs/stripe-fake.md).
 import { createHmac, randomBytes } from 'node:crypto'
 import { realpathSync } from 'node:fs'

@@ -26,6 +26,10 @@ export const firmSettingsSchema = z.object({
   dayRatePence: z.int({ error: 'Enter the day rate in pounds.' }).min(0, { error: 'The day rate cannot be negative.' }).max(10_000_00, { error: 'That day rate looks too high.' }),
   paymentTermsDays: z.int({ error: 'Enter the payment terms in days.' }).min(0, { error: 'Payment terms cannot be negative.' }).max(120, { error: 'Keep payment terms to 120 days or fewer.' }),
   invoicePrefix: z.string().trim().max(12, { error: 'Keep the prefix to 12 characters.' }).regex(/^[A-Z0-9/-]*$/i, { error: 'Use letters, digits, - or / only.' }),
+  // optional, so a client that does not know them leaves them as they are
+  creditNoteNumbering: z.enum(['shared', 'own'], { error: 'Number credit notes with the invoices, or on their own.' }).optional(),
+  creditNotePrefix: z.string().trim().max(12, { error: 'Keep the prefix to 12 characters.' }).regex(/^[A-Z0-9/-]*$/i, { error: 'Use letters, digits, - or / only.' }).optional(),
+  bankDetails: text(500).optional(),
 })
   // `when` runs these even while other fields have errors, so every problem shows at once
   .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: () => true })

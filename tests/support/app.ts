@@ -2,13 +2,30 @@
 // that catches what it sends. One per test file: each gets its own ports and its own mailbox.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync, writeFileSync } from 'node:fs'
+// @ts-expect-error plain JavaScript, no types
+import { startStripeFake } from '../../scripts/lib/stripe-fake.mjs'
 import { createServer } from 'node:net'
 import { setTimeout as sleep } from 'node:timers/promises'
 import { simpleParser, type ParsedMail } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 
+/** The parts of scripts/lib/stripe-fake.mjs the tests use (it is plain JavaScript). */
+export interface StripeFake {
+  url: string
+  webhookSecret: string
+  state: { deliveries: { eventId: string, type: string, attempt: number, statusCode?: number, ok?: boolean }[] } & Record<string, unknown>
+  switches: Record<string, unknown>
+  setSwitches(patch: Record<string, unknown>): Record<string, unknown>
+  reset(): void
+  waitForDeliveries(predicate: number | ((d: StripeFake['state']['deliveries']) => boolean), options?: { timeoutMs?: number }): Promise<StripeFake['state']['deliveries']>
+  idle(): Promise<void>
+  close(): Promise<void>
+}
+
 export interface TestApp {
   url: string
+  /** This server's own Stripe fake (webhooks go back to this server). */
+  stripe: StripeFake
   mails: ParsedMail[]
   /** Wait for a message to this address (and matching `subject` when given). */
   waitForMail(to: string, subject?: RegExp, timeoutMs?: number): Promise<ParsedMail>
@@ -55,6 +72,10 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
 
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
+  // a Stripe of our own for this server, delivering its webhooks back to it
+  const stripeSecret = `whsec_test_${port}`
+  const stripe = await startStripeFake({ port: 0, webhookUrl: `${url}/api/webhooks/stripe`, webhookSecret: stripeSecret }) as StripeFake
+  stripe.setSwitches({ retryDelayMs: 50 })
   let out = ''
   const child: ChildProcess = spawn('node', [`${process.env.SETWELL_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
     env: {
@@ -67,6 +88,9 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
       NUXT_DATABASE_URL: requiredEnv('SETWELL_TEST_DATABASE_URL'),
       NUXT_SESSION_PASSWORD: requiredEnv('SETWELL_TEST_SESSION_PASSWORD'),
       NUXT_APP_URL: url,
+      NUXT_STRIPE_API_BASE: stripe.url,
+      NUXT_STRIPE_WEBHOOK_SECRET: stripeSecret,
+      NUXT_STRIPE_SECRET_KEY: 'sk_test_setwell_tests',
       NUXT_SMTP_HOST: '127.0.0.1',
       NUXT_SMTP_PORT: String(smtpPort),
       // photos of the test run stay with the test database, not in the dev folder
@@ -96,6 +120,7 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
 
   return {
     url,
+    stripe,
     mails,
     output: () => out,
     async waitForMail(to, subject, timeoutMs = 10_000) {
@@ -117,6 +142,7 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
         await new Promise(resolve => child.once('exit', resolve))
       }
       await new Promise<void>(resolve => smtp.close(() => resolve()))
+      await stripe.close()
       // the server's own output, for reading after a failure (tests/artefacts is wiped each run)
       if (out.trim()) {
         mkdirSync('tests/artefacts', { recursive: true })

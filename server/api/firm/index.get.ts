@@ -7,10 +7,10 @@ export default defineEventHandler(async (event) => {
   const [firm] = await withFirm(auth, f => f.tx.select().from(firms).where(eq(firms.id, f.firmId)))
   if (!firm) notFound()
   // crew see the firm, but not its money; the enquiry form link is for those who run the ledger
-  const { dayRatePence, enquiryFormKey, ...rest } = firm
+  const { dayRatePence, bankDetails, enquiryFormKey, ...rest } = firm
   return {
     ...rest,
-    ...(can(auth.role, 'money:read') ? { dayRatePence } : {}),
+    ...(can(auth.role, 'money:read') ? { dayRatePence, bankDetails } : {}),
     ...(can(auth.role, 'ledger:write') ? { enquiryFormKey } : {}),
   }
 })

@@ -21,6 +21,11 @@ export const firms = pgTable('firms', {
   dayRatePence: integer().notNull().default(0),
   paymentTermsDays: integer().notNull().default(30),
   invoicePrefix: text().notNull().default('INV-'),
+  /** Credit notes numbered with the invoices ('shared') or in a series of their own ('own', with their prefix). */
+  creditNoteNumbering: text().$type<'shared' | 'own'>().notNull().default('own'),
+  creditNotePrefix: text().notNull().default('CN-'),
+  /** How the firm is paid by transfer, printed on invoices. */
+  bankDetails: text().notNull().default(''),
   /** The secret part of the firm's public enquiry form link; the owner can reset it. */
   enquiryFormKey: text().notNull().unique('firms_enquiry_form_key_unique').default(sql`replace(gen_random_uuid()::text, '-', '')`),
   ...timestamps,

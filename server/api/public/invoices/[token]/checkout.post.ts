@@ -1,0 +1,30 @@
+/**
+ * Public: pay what is owed by card. Makes a Stripe Checkout Session for the outstanding amount
+ * (its metadata names the firm and the invoice, so the webhook can find them) and answers its URL.
+ */
+export default defineEventHandler(async (event) => {
+  const { token } = await readParamsWith(event, invoiceTokenParam)
+  const view = await useDb().transaction(async (tx) => {
+    const { f, invoiceId } = await openInvoiceByToken(tx, token)
+    return { firmId: f.firmId, invoiceId, ...(await publicInvoiceView(f, invoiceId)) }
+  })
+  if (view.outstandingPence <= 0) throw createError({ statusCode: 409, statusMessage: 'Nothing owed', data: { message: 'This invoice is paid: there is nothing to pay.' } })
+  const appUrl = useRuntimeConfig().appUrl.replace(/\/$/, '')
+  const metadata = { firmId: view.firmId, invoiceId: view.invoiceId }
+  try {
+    const session = await useStripe().checkout.sessions.create({
+      mode: 'payment',
+      line_items: [{ quantity: 1, price_data: { currency: 'gbp', unit_amount: view.outstandingPence, product_data: { name: `Invoice ${view.reference} from ${view.firm.tradingName}` } } }],
+      success_url: `${appUrl}/i/${token}?paid={CHECKOUT_SESSION_ID}`,
+      cancel_url: `${appUrl}/i/${token}`,
+      client_reference_id: view.invoiceId,
+      metadata,
+      payment_intent_data: { metadata },
+    }, { idempotencyKey: `checkout-${view.invoiceId}-${view.outstandingPence}-${view.paidPence}` })
+    return { url: session.url }
+  }
+  catch (err) {
+    console.error('[stripe] checkout session not made:', (err as Error).message)
+    throw createError({ statusCode: 502, statusMessage: 'Card payments unavailable', data: { message: 'Card payments are not working just now. Try again later, or pay by bank transfer.' } })
+  }
+})

@@ -1,0 +1,131 @@
+// Invoices, credit notes and payments. An invoice is a draft until it is issued; issuing gives it
+// the firm's next number (under a lock on the firm's row, so no gaps and no duplicates) and
+// freezes it: a credit note corrects an issued invoice, never an edit. Its status (issued, part
+// paid, paid, overdue, credited) follows from its payments and dates (shared/utils/invoices.ts),
+// never set by hand. Money is integer pence; quantities thousandths.
+import { sql } from 'drizzle-orm'
+import { date, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { firmColumn, sameFirm, timestamps } from './common'
+import { firms } from './firms'
+import { customers, sites } from './ledger'
+import { users } from './users'
+import { lineKind, vatTreatment } from './quotes'
+import { jobs } from './jobs'
+import { INVOICE_KINDS, PAYMENT_METHODS } from '../../../shared/utils/invoices'
+
+const firmPolicy = (name: string) => pgPolicy(`${name}_firm`, { for: 'all', using: sameFirm, withCheck: sameFirm })
+
+export const invoiceKind = pgEnum('invoice_kind', INVOICE_KINDS)
+export const paymentMethod = pgEnum('payment_method', PAYMENT_METHODS)
+
+export const invoices = pgTable('invoices', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  kind: invoiceKind().notNull(),
+  /** The number series: invoices, or credit notes when the firm numbers them apart. */
+  series: text().$type<'invoice' | 'credit-note'>().notNull().default('invoice'),
+  /** Given when issued; drafts have none. Invoices and credit notes number apart or together, as the firm chooses. */
+  number: integer(),
+  reference: text(),
+  customerId: uuid().notNull(),
+  siteId: uuid(),
+  jobId: uuid(),
+  /** The invoice a credit note corrects. */
+  creditsInvoiceId: uuid(),
+  vat: vatTreatment().notNull(),
+  /** Why the VAT treatment differs from the one suggested (kept when it was changed). */
+  vatReason: text().notNull().default(''),
+  cisRatePercent: integer(),
+  issuedOn: date({ mode: 'string' }),
+  dueOn: date({ mode: 'string' }),
+  /** The totals (shared/utils/tax.ts invoiceTotals) as last saved; frozen once issued. */
+  totals: jsonb().$type<Record<string, number>>().notNull().default({}),
+  amountDuePence: integer().notNull().default(0),
+  notes: text().notNull().default(''),
+  /** The customer's link to view and pay: only its hash. */
+  tokenHash: text(),
+  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('invoices_firm_number_unique').on(t.firmId, t.series, t.number),
+  unique('invoices_token_unique').on(t.tokenHash),
+  foreignKey({ name: 'invoices_customer_fk', columns: [t.firmId, t.customerId], foreignColumns: [customers.firmId, customers.id] }),
+  foreignKey({ name: 'invoices_site_fk', columns: [t.firmId, t.siteId], foreignColumns: [sites.firmId, sites.id] }),
+  foreignKey({ name: 'invoices_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }),
+  foreignKey({ name: 'invoices_credits_fk', columns: [t.firmId, t.creditsInvoiceId], foreignColumns: [t.firmId, t.id] }),
+  index('invoices_firm_issued_idx').on(t.firmId, t.issuedOn),
+  index('invoices_job_idx').on(t.firmId, t.jobId),
+  pgPolicy('invoices_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.invoice_token_hash', true), '')` }),
+  firmPolicy('invoices'),
+]).enableRLS()
+
+export const invoiceLines = pgTable('invoice_lines', {
+  firmId: firmColumn(),
+  id: uuid().notNull().defaultRandom(),
+  invoiceId: uuid().notNull(),
+  position: integer().notNull().default(0),
+  kind: lineKind().notNull(),
+  description: text().notNull(),
+  quantityX1000: integer().notNull(),
+  unit: text().notNull(),
+  unitPence: integer().notNull(),
+  vatRatePercent: integer().notNull().default(20),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  foreignKey({ name: 'invoice_lines_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
+  index('invoice_lines_invoice_idx').on(t.firmId, t.invoiceId, t.position),
+  firmPolicy('invoice_lines'),
+]).enableRLS()
+
+/** Money received against an invoice (a refund is a negative amount). */
+export const payments = pgTable('payments', {
+  firmId: firmColumn(),
+  id: uuid().notNull().defaultRandom(),
+  invoiceId: uuid().notNull(),
+  method: paymentMethod().notNull(),
+  amountPence: integer().notNull(),
+  receivedOn: date({ mode: 'string' }).notNull(),
+  reference: text().notNull().default(''),
+  /** Card payments: the PaymentIntent, once (a second event for it does nothing). */
+  stripePaymentIntentId: text(),
+  stripeRefundId: text(),
+  recordedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('payments_intent_unique').on(t.firmId, t.stripePaymentIntentId),
+  unique('payments_refund_unique').on(t.firmId, t.stripeRefundId),
+  foreignKey({ name: 'payments_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
+  index('payments_invoice_idx').on(t.firmId, t.invoiceId),
+  firmPolicy('payments'),
+]).enableRLS()
+
+/** Stripe events already acted on, written in the same transaction as their effect. */
+export const stripeEvents = pgTable('stripe_events', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  eventId: text().notNull(),
+  type: text().notNull(),
+  outcome: text().notNull().default(''),
+  receivedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.eventId] }),
+  firmPolicy('stripe_events'),
+]).enableRLS()
+
+/** The chase log of an invoice: calls, messages, promises to pay, reminders sent. */
+export const chaseNotes = pgTable('chase_notes', {
+  firmId: firmColumn(),
+  id: uuid().notNull().defaultRandom(),
+  invoiceId: uuid().notNull(),
+  kind: text().$type<'call' | 'message' | 'promise' | 'reminder'>().notNull(),
+  note: text().notNull().default(''),
+  promisedOn: date({ mode: 'string' }),
+  byUserId: uuid().references(() => users.id, { onDelete: 'set null' }),
+  at: timestamp({ withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  foreignKey({ name: 'chase_notes_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
+  index('chase_notes_invoice_idx').on(t.firmId, t.invoiceId),
+  firmPolicy('chase_notes'),
+]).enableRLS()

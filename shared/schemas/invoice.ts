@@ -1,0 +1,50 @@
+import { z } from 'zod'
+import { PAYMENT_METHODS } from '../utils/invoices'
+
+const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(1_000_000_00, { error: `${what} looks too high.` })
+
+export const newInvoiceSchema = z.object({
+  kind: z.enum(['deposit', 'stage', 'final', 'blank'], { error: 'Choose the kind of invoice.' }),
+  jobId: z.uuid().nullable().default(null),
+  customerId: z.uuid({ error: 'Choose the customer.' }).nullable().default(null),
+  /** Deposit or stage: a percentage of the job's price... */
+  percent: z.number({ error: 'Enter a percentage.' }).min(0.01, { error: 'Enter a percentage from 1 to 100.' }).max(100, { error: 'Enter a percentage from 1 to 100.' }).nullable().default(null),
+  /** ...or an amount (before VAT). */
+  amountPence: pence('The amount').nullable().default(null),
+})
+  .refine(v => v.kind === 'blank' || v.jobId !== null, { path: ['jobId'], error: 'Choose the job to invoice.', when: () => true })
+  .refine(v => v.kind !== 'blank' || v.customerId !== null, { path: ['customerId'], error: 'Choose the customer.', when: () => true })
+
+export const invoiceLineSchema = z.object({
+  kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
+  description: z.string({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
+  quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
+  unit: z.string().trim().min(1).max(20).default('item'),
+  unitPence: pence('The unit price'),
+  vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
+})
+
+export const invoiceDraftSchema = z.object({
+  vat: z.enum(['standard', 'reverse-charge', 'not-registered']),
+  /** Why the VAT treatment was changed from the one suggested; kept with the invoice. */
+  vatReason: z.string().trim().max(500).default(''),
+  cisRatePercent: z.union([z.literal(0), z.literal(20), z.literal(30)]).nullable().default(null),
+  notes: z.string().trim().max(4000).default(''),
+  lines: z.array(invoiceLineSchema).max(200).default([]),
+})
+  .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: () => true })
+
+export const paymentSchema = z.object({
+  method: z.enum(['transfer', 'cash', 'cheque'], { error: 'Choose transfer, cash or cheque (card payments arrive by themselves).' }),
+  amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount received.' }).max(1_000_000_00),
+  receivedOn: z.iso.date({ error: 'Pick the date it arrived.' }),
+  reference: z.string().trim().max(200).default(''),
+})
+
+export const chaseNoteSchema = z.object({
+  kind: z.enum(['call', 'message', 'promise'], { error: 'Call, message or promise to pay?' }),
+  note: z.string().trim().max(2000).default(''),
+  promisedOn: z.iso.date({ error: 'Pick the date they promised.' }).nullable().default(null),
+}).refine(v => v.kind !== 'promise' || v.promisedOn !== null, { path: ['promisedOn'], error: 'Pick the date they promised to pay by.', when: () => true })
+
+export { PAYMENT_METHODS }

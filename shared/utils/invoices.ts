@@ -1,0 +1,145 @@
+// The words and arithmetic of invoices: kinds, payment methods, the status that follows from an
+// invoice's payments and dates (never set by hand), aged debts, and the lines of a deposit, a
+// stage or the final invoice worked out from the job's price. Pure; money in integer pence.
+
+export const INVOICE_KINDS = ['deposit', 'stage', 'final', 'blank', 'credit-note'] as const
+export type InvoiceKind = (typeof INVOICE_KINDS)[number]
+export const INVOICE_KIND_LABELS: Record<InvoiceKind, string> = {
+  'deposit': 'Deposit invoice',
+  'stage': 'Stage invoice',
+  'final': 'Final invoice',
+  'blank': 'Invoice',
+  'credit-note': 'Credit note',
+}
+
+export const PAYMENT_METHODS = ['card', 'transfer', 'cash', 'cheque'] as const
+export type PaymentMethod = (typeof PAYMENT_METHODS)[number]
+export const PAYMENT_METHOD_LABELS: Record<PaymentMethod, string> = { card: 'Card', transfer: 'Bank transfer', cash: 'Cash', cheque: 'Cheque' }
+
+export type InvoiceStatus = 'draft' | 'issued' | 'part-paid' | 'paid' | 'overdue' | 'credited'
+export const INVOICE_STATUS_LABELS: Record<InvoiceStatus, string> = {
+  'draft': 'Draft',
+  'issued': 'Issued',
+  'part-paid': 'Part paid',
+  'paid': 'Paid',
+  'overdue': 'Overdue',
+  'credited': 'Credited',
+}
+
+export interface StatusInput {
+  issuedOn: string | null
+  dueOn: string | null
+  /** What the customer owes on the invoice (gross less any CIS deduction). */
+  amountDuePence: number
+  /** Payments less refunds. */
+  paidPence: number
+  /** Credit notes issued against it. */
+  creditedPence: number
+  /** ISO date. */
+  today: string
+}
+
+/** What is still owed: never below 0 (an overpayment is flagged apart). */
+export function outstandingPence(i: Pick<StatusInput, 'amountDuePence' | 'paidPence' | 'creditedPence'>): number {
+  return Math.max(0, i.amountDuePence - i.paidPence - i.creditedPence)
+}
+
+export function overpaidPence(i: Pick<StatusInput, 'amountDuePence' | 'paidPence' | 'creditedPence'>): number {
+  return Math.max(0, i.paidPence + i.creditedPence - i.amountDuePence)
+}
+
+/**
+ * The status of an invoice from its dates, payments and credit notes:
+ * a draft until issued; credited when credit notes cover it all; paid when nothing is owed;
+ * overdue when something is owed after the due date; part paid; otherwise issued.
+ */
+export function invoiceStatus(i: StatusInput): InvoiceStatus {
+  if (!i.issuedOn) return 'draft'
+  if (i.creditedPence > 0 && i.creditedPence >= i.amountDuePence) return 'credited'
+  if (outstandingPence(i) === 0) return 'paid'
+  if (i.dueOn && i.today > i.dueOn) return 'overdue'
+  if (i.paidPence > 0) return 'part-paid'
+  return 'issued'
+}
+
+export const AGE_BUCKETS = ['not-due', '1-30', '31-60', '61-90', 'over-90'] as const
+export type AgeBucket = (typeof AGE_BUCKETS)[number]
+export const AGE_BUCKET_LABELS: Record<AgeBucket, string> = { 'not-due': 'Not yet due', '1-30': '1–30 days', '31-60': '31–60 days', '61-90': '61–90 days', 'over-90': 'Over 90 days' }
+
+/** Whole calendar days from a to b (b - a). */
+export function daysBetween(a: string, b: string): number {
+  return Math.round((Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / 86_400_000)
+}
+
+/** Which age a debt is, by the days since its due date. */
+export function ageBucket(dueOn: string, today: string): AgeBucket {
+  const late = daysBetween(dueOn, today)
+  if (late <= 0) return 'not-due'
+  if (late <= 30) return '1-30'
+  if (late <= 60) return '31-60'
+  if (late <= 90) return '61-90'
+  return 'over-90'
+}
+
+/** The due date: issued on + the firm's payment terms (days). */
+export function dueDateFor(issuedOn: string, termsDays: number): string {
+  const d = new Date(`${issuedOn}T00:00:00Z`)
+  d.setUTCDate(d.getUTCDate() + termsDays)
+  return d.toISOString().slice(0, 10)
+}
+
+// ---------------------------------------------------------------------------------------------
+// Lines from a job
+
+export interface JobPrice { reference: string, labourNetPence: number, materialsNetPence: number }
+export interface InvoicedSoFar { labourNetPence: number, materialsNetPence: number }
+export interface DraftInvoiceLine { kind: 'labour' | 'materials', description: string, quantityX1000: number, unit: string, unitPence: number, vatRatePercent: number }
+
+/** a x num / den, rounded half up, in integers. */
+function share(a: number, num: number, den: number): number {
+  if (den === 0) return 0
+  return Number((BigInt(a) * BigInt(num) * 2n + BigInt(den)) / (BigInt(den) * 2n))
+}
+
+const line = (kind: 'labour' | 'materials', description: string, pence: number, vatRatePercent: number): DraftInvoiceLine =>
+  ({ kind, description, quantityX1000: 1000, unit: 'item', unitPence: pence, vatRatePercent })
+
+/**
+ * A deposit or stage invoice: a percentage of the job's price, or an amount, split between labour
+ * and materials in the job's own proportion (so CIS, worked on the labour, stays right).
+ */
+export function partLines(kind: 'deposit' | 'stage', job: JobPrice, part: { percent: number } | { amountPence: number }, vatRatePercent = 20): DraftInvoiceLine[] {
+  const total = job.labourNetPence + job.materialsNetPence
+  const word = kind === 'deposit' ? 'Deposit' : 'Stage payment'
+  let labour: number
+  let materials: number
+  let what: string
+  if ('percent' in part) {
+    if (!(part.percent > 0 && part.percent <= 100)) throw new RangeError(`percent must be over 0 and at most 100, got ${part.percent}`)
+    const bp = Math.round(part.percent * 100)
+    labour = share(job.labourNetPence, bp, 10_000)
+    materials = share(job.materialsNetPence, bp, 10_000)
+    what = `${part.percent}% of ${job.reference}`
+  }
+  else {
+    if (!Number.isSafeInteger(part.amountPence) || part.amountPence <= 0 || part.amountPence > total) throw new RangeError(`amountPence must be over 0 and at most the job's price (${total}), got ${part.amountPence}`)
+    labour = share(part.amountPence, job.labourNetPence, total)
+    materials = part.amountPence - labour
+    what = `towards ${job.reference}`
+  }
+  return [
+    ...(labour > 0 ? [line('labour', `${word} ${what}: labour`, labour, vatRatePercent)] : []),
+    ...(materials > 0 ? [line('materials', `${word} ${what}: materials`, materials, vatRatePercent)] : []),
+  ]
+}
+
+/** The final invoice: the job's price less what was already invoiced, labour and materials apart. */
+export function finalLines(job: JobPrice, invoiced: InvoicedSoFar, vatRatePercent = 20): DraftInvoiceLine[] {
+  const labour = job.labourNetPence - invoiced.labourNetPence
+  const materials = job.materialsNetPence - invoiced.materialsNetPence
+  const less = invoiced.labourNetPence + invoiced.materialsNetPence > 0
+  return [
+    ...(labour > 0 ? [line('labour', less ? `Labour for ${job.reference}, less invoiced before` : `Labour for ${job.reference}`, labour, vatRatePercent)] : []),
+    ...(materials > 0 ? [line('materials', less ? `Materials for ${job.reference}, less invoiced before` : `Materials for ${job.reference}`, materials, vatRatePercent)] : []),
+  ]
+}

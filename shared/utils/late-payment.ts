@@ -1,0 +1,160 @@
+// Statutory late-payment claim on a business-to-business invoice: the due date when none was
+// agreed, the interest rate, the interest to a day and the fixed compensation sum.
+//
+// A rule of thumb for the product, not legal advice: the firm's solicitor or accountant, and the
+// court, decide what is owed. The product says so wherever these figures are shown.
+//
+// Sources (../shared/DOMAIN.md, "Money rules", "Late payment"):
+// - Late Payment of Commercial Debts (Interest) Act 1998 (England, Wales and Northern Ireland;
+//   Scotland has its own rate order with the same formula):
+//   - s.1: the debt carries simple interest;
+//   - s.4(5) as enacted (since SI 2015/1336, s.4(2A)(b) and (2H)): with no agreed payment date the
+//     relevant day is the last day of the 30 days beginning with the later of the work being done
+//     and the purchaser having notice of the debt (the invoice): `defaultDueDate`;
+//   - s.4(2): interest runs from the day after the relevant day;
+//   - s.5A: a fixed sum per debt: under GBP 1,000 -> 40, under GBP 10,000 -> 70, otherwise 100.
+// - Late Payment of Commercial Debts (Rate of Interest) (No. 3) Order 2002 (SI 2002/1675) art. 4:
+//   8% a year over the Bank of England official dealing rate (Bank Rate) in force on the 31 December
+//   (interest starting 1 January to 30 June) or 30 June (starting 1 July to 31 December)
+//   immediately before interest starts; that rate is fixed for the life of the debt.
+// - Daily interest = debt x rate / 365 (DOMAIN.md), in leap years too.
+//
+// Our rules: interest is worked exactly in integers (the rate in hundredths of a percent, BigInt
+// for the product) and rounded half up to the penny once, at the end. A debt of 0 claims nothing
+// (no interest, no fixed sum). Out of scope: agreed payment dates (pass the agreed date as
+// `dueDate`; the Act's caps on long agreed terms are not applied), part payments, public-authority
+// purchasers and recovery costs beyond the fixed sum (s.5A(2A)).
+
+export interface BankRateChange { from: string, ratePercent: number } // ISO date the rate took effect
+
+export interface LatePaymentClaim {
+  /** The day after the due date (Act s.4(2)). */
+  interestStart: string
+  /** 8 + the Bank Rate in force on the reference day (SI 2002/1675 art. 4). */
+  ratePercent: number
+  /** Calendar days from the due date to asOf; 0 when not yet overdue. */
+  days: number
+  interestPence: number
+  /** Fixed compensation (Act s.5A); 0 when not yet overdue. */
+  fixedSumPence: number
+  totalPence: number
+}
+
+/**
+ * Bank Rate changes as DOMAIN.md gives them ("news reports, not the Bank's own table; verify before
+ * relying"). A seed for the firm's own editable table, not a constant to calculate with.
+ * - DOMAIN.md gives 5.25% only as "to 1 Aug 2024", with no start date, so it is left out: a
+ *   reference day before 2024-08-01 (30 June 2024 and earlier) finds no rate until the firm adds it.
+ * - "4.75% from Nov 2024" and "3.75% from Dec 2025" give no day: we use the last day of the month,
+ *   by which the rate was in force. The reference days (30 June, 31 December) are not affected.
+ */
+export const DEFAULT_BANK_RATES: BankRateChange[] = [
+  { from: '2024-08-01', ratePercent: 5 }, // DOMAIN.md: "5.25% to 1 Aug 2024, 5.00%"
+  { from: '2024-11-30', ratePercent: 4.75 }, // DOMAIN.md: "4.75% from Nov 2024" (day not given)
+  { from: '2025-02-06', ratePercent: 4.5 }, // DOMAIN.md: "4.50% from 6 Feb 2025"
+  { from: '2025-05-08', ratePercent: 4.25 }, // DOMAIN.md: "4.25% from 8 May 2025"
+  { from: '2025-08-07', ratePercent: 4 }, // DOMAIN.md: "4.00% from 7 Aug 2025"
+  { from: '2025-12-31', ratePercent: 3.75 }, // DOMAIN.md: "3.75% from Dec 2025" (day not given)
+]
+
+const MS_PER_DAY = 86_400_000
+const STATUTORY_MARGIN_HUNDREDTHS = 800 // the 8% of SI 2002/1675 art. 4
+
+/** An ISO date as days since 1970-01-01; RangeError naming the field when it is not a real YYYY-MM-DD date. */
+function dayNumber(iso: unknown, field: string): number {
+  const m = typeof iso === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso) : null
+  if (!m) throw new RangeError(`${field} must be an ISO date (YYYY-MM-DD), got ${String(iso)}`)
+  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])]
+  // setUTCFullYear, not Date.UTC, which reads years 0 to 99 as 1900 to 1999
+  const date = new Date(0)
+  date.setUTCFullYear(y, mo - 1, d)
+  if (date.getUTCFullYear() !== y || date.getUTCMonth() !== mo - 1 || date.getUTCDate() !== d) throw new RangeError(`${field} is not a real date: ${iso as string}`)
+  return date.getTime() / MS_PER_DAY
+}
+
+function isoFromDayNumber(n: number, field: string): string {
+  const date = new Date(n * MS_PER_DAY)
+  const out = Number.isNaN(date.getTime()) ? '' : date.toISOString().slice(0, 10)
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(out)) throw new RangeError(`${field} falls outside the years 0000 to 9999`)
+  return out
+}
+
+/** The last day of the 30 days beginning with the later of the two dates (Act s.4(5) as enacted): the later date + 29 days. */
+export function defaultDueDate(workDone: string, invoiceReceived: string): string {
+  const later = Math.max(dayNumber(workDone, 'workDone'), dayNumber(invoiceReceived, 'invoiceReceived'))
+  return isoFromDayNumber(later + 29, 'the due date')
+}
+
+/** The 31 December or 30 June whose Bank Rate fixes the rate for interest starting on interestStart (SI 2002/1675 art. 4). */
+export function referenceDate(interestStart: string): string {
+  dayNumber(interestStart, 'interestStart')
+  const year = Number(interestStart.slice(0, 4))
+  const month = Number(interestStart.slice(5, 7))
+  if (month <= 6) {
+    if (year === 0) throw new RangeError('interestStart is too early: its reference day would be before the year 0000')
+    return `${String(year - 1).padStart(4, '0')}-12-31`
+  }
+  return `${String(year).padStart(4, '0')}-06-30`
+}
+
+/** ratePercent as whole hundredths of a percent (4.25 -> 425); RangeError when it has more than 2 decimals. */
+function hundredths(ratePercent: unknown, field: string): number {
+  if (typeof ratePercent !== 'number' || !Number.isFinite(ratePercent) || ratePercent < 0 || ratePercent > 100) {
+    throw new RangeError(`${field} must be a percentage from 0 to 100, got ${String(ratePercent)}`)
+  }
+  const h = Math.round(ratePercent * 100)
+  if (Math.abs(ratePercent * 100 - h) > 1e-6) throw new RangeError(`${field} must have at most 2 decimals, got ${ratePercent}`)
+  return h
+}
+
+/** The Bank Rate (in hundredths) in force on the reference day: the latest change on or before it. The table may come in any order. */
+function bankRateOn(reference: string, bankRates: readonly BankRateChange[]): number {
+  if (!Array.isArray(bankRates) || bankRates.length === 0) throw new RangeError('bankRates must list at least one Bank Rate change')
+  const changes = bankRates.map((c, i) => {
+    if (c === null || typeof c !== 'object') throw new RangeError(`bankRates[${i}] must be { from, ratePercent }`)
+    return { day: dayNumber(c.from, `bankRates[${i}].from`), from: c.from, h: hundredths(c.ratePercent, `bankRates[${i}].ratePercent`) }
+  }).sort((a, b) => a.day - b.day)
+  for (let i = 1; i < changes.length; i++) {
+    if (changes[i]!.day === changes[i - 1]!.day && changes[i]!.h !== changes[i - 1]!.h) {
+      throw new RangeError(`bankRates gives two different rates from ${changes[i]!.from}`)
+    }
+  }
+  const refDay = dayNumber(reference, 'reference day')
+  const inForce = changes.filter(c => c.day <= refDay).at(-1)
+  if (!inForce) throw new RangeError(`bankRates has no rate in force on ${reference}, the reference day (SI 2002/1675 art. 4): add the Bank Rate in force then`)
+  return inForce.h
+}
+
+/** Fixed compensation by the size of the debt (Act s.5A). */
+function fixedSumPence(debtPence: number): number {
+  if (debtPence < 100_000) return 4_000
+  if (debtPence < 1_000_000) return 7_000
+  return 10_000
+}
+
+/**
+ * The claim on a debt as of a day: simple interest at 8% over the reference Bank Rate from the day
+ * after dueDate to asOf, plus the fixed sum once it is overdue. See the header for the sources.
+ */
+export function latePaymentClaim(input: { debtPence: number, dueDate: string, asOf: string, bankRates: BankRateChange[] }): LatePaymentClaim {
+  if (input === null || typeof input !== 'object') throw new RangeError('latePaymentClaim needs { debtPence, dueDate, asOf, bankRates }')
+  const { debtPence, dueDate, asOf, bankRates } = input
+  if (!Number.isSafeInteger(debtPence) || debtPence < 0) throw new RangeError(`debtPence must be a whole number of pence, 0 or more, got ${String(debtPence)}`)
+  const due = dayNumber(dueDate, 'dueDate')
+  const now = dayNumber(asOf, 'asOf')
+  const interestStart = isoFromDayNumber(due + 1, 'interestStart (the day after dueDate)')
+  const rateHundredths = STATUTORY_MARGIN_HUNDREDTHS + bankRateOn(referenceDate(interestStart), bankRates)
+  const ratePercent = rateHundredths / 100
+
+  const days = Math.max(0, now - due)
+  if (days === 0 || debtPence === 0) return { interestStart, ratePercent, days, interestPence: 0, fixedSumPence: 0, totalPence: debtPence }
+
+  // debt x (rate / 10000) x days / 365, half up: floor((2 x num + den) / (2 x den))
+  const num = BigInt(debtPence) * BigInt(rateHundredths) * BigInt(days)
+  const den = 10_000n * 365n
+  const interestPence = Number((2n * num + den) / (2n * den))
+  const fixed = fixedSumPence(debtPence)
+  const totalPence = debtPence + interestPence + fixed
+  if (!Number.isSafeInteger(totalPence)) throw new RangeError('debtPence is too large to total exactly')
+  return { interestStart, ratePercent, days, interestPence, fixedSumPence: fixed, totalPence }
+}

@@ -1,0 +1,214 @@
+import Stripe from 'stripe'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { startApp, type TestApp } from '../support/app'
+import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { inviteAndJoin } from './support'
+
+// Invoices: drafted from a job or blank, numbered when issued (no gaps, no duplicates, even 50 at
+// once), frozen after; credit notes; payments by hand; card payments through the local Stripe fake
+// and its signed webhooks, each event acted on once, whatever the order.
+
+let app: TestApp
+let owner: Client
+let firmId: string
+let other: Client
+const stripe = new Stripe('sk_test_setwell_tests')
+
+beforeAll(async () => {
+  app = await startApp()
+  ;({ client: owner, firmId } = await signUpFirm(app.url, 'Invoice Firm'))
+  ;({ client: other } = await signUpFirm(app.url, 'Other Invoice Firm'))
+})
+afterAll(async () => {
+  await app?.stop()
+})
+
+async function customer(extra: Record<string, unknown> = {}) {
+  return (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Wynn Carrow', email: uniqueEmail('wynn'), ...extra }, site: { line1: '5 Brewer Row', postcode: 'KB8 2PL' } })).body
+}
+
+/** A blank invoice with one labour line, issued; returns its detail and the customer's link token. */
+async function issued(amountPence = 120_00) {
+  const c = await customer()
+  const draft = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+  const saved = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: 'Patch and skim the landing', quantityX1000: 1000, unitPence: amountPence }] })
+  expect(saved.status, JSON.stringify(saved.body)).toBe(200)
+  const res = await owner.post(`/api/invoices/${draft.id}/issue`)
+  expect(res.status, JSON.stringify(res.body)).toBe(200)
+  const mail = await app.waitForMail(c.email, /Invoice /)
+  const token = /\/i\/([\w-]+)/.exec(mail.text!)![1]!
+  return { invoice: res.body, token, customer: c }
+}
+
+/** Pay by card through the public link and the fake's pay page; resolves when the fake has delivered its events. */
+async function payByCard(token: string) {
+  const before = app.stripe.state.deliveries.length
+  const checkout = await new Client(app.url).post(`/api/public/invoices/${token}/checkout`)
+  expect(checkout.status, JSON.stringify(checkout.body)).toBe(200)
+  const sessionId = new URL(checkout.body.url).pathname.split('/').pop()!
+  const paid = await fetch(`${app.stripe.url}/pay/${sessionId}/pay`, { method: 'POST', redirect: 'manual' })
+  expect(paid.status).toBe(303)
+  await app.stripe.waitForDeliveries(d => d.length >= before + 2 && d.slice(before).every(x => x.ok !== undefined))
+  await app.stripe.idle()
+  return sessionId
+}
+
+function signed(payload: object, timestamp?: number) {
+  const body = JSON.stringify(payload)
+  const header = stripe.webhooks.generateTestHeaderString({ payload: body, secret: app.stripe.webhookSecret, ...(timestamp ? { timestamp } : {}) })
+  return fetch(`${app.url}/api/webhooks/stripe`, { method: 'POST', body, headers: { 'content-type': 'application/json', 'stripe-signature': header } })
+}
+
+describe('drafting and issuing', () => {
+  it('drafts a blank invoice, refuses bad ones by field, and deletes only drafts', async () => {
+    const bad = await owner.post('/api/invoices', { kind: 'blank' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields.customerId).toBeTruthy()
+    expect((await owner.post('/api/invoices', { kind: 'deposit' })).status).toBe(400)
+    const c = await customer()
+    const draft = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+    expect(draft).toMatchObject({ number: null, reference: null, status: 'draft' })
+    const badLines = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: '', quantityX1000: 0, unitPence: -1 }] })
+    expect(badLines.status).toBe(400)
+    expect(Object.keys(badLines.body.data.fields).sort()).toEqual(['lines.0.description', 'lines.0.quantityX1000', 'lines.0.unitPence'])
+    // changing the VAT treatment needs a reason, kept with the invoice
+    expect((await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'standard', lines: [] })).body.data?.fields?.vatReason).toBeTruthy()
+    expect((await owner.post(`/api/invoices/${draft.id}/issue`)).status).toBe(400)
+    expect((await owner.delete(`/api/invoices/${draft.id}`)).status).toBe(200)
+    expect((await owner.get(`/api/invoices/${draft.id}`)).status).toBe(404)
+  })
+
+  it('numbers 50 invoices issued at once 1 to 50, with no gap and no duplicate', async () => {
+    const c = await customer()
+    const drafts: string[] = []
+    for (let i = 0; i < 50; i++) {
+      const d = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+      await owner.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: `Job ${i}`, quantityX1000: 1000, unitPence: 1000 + i }] })
+      drafts.push(d.id)
+    }
+    const before = (await owner.get('/api/invoices')).body.filter((i: any) => i.number !== null && i.series === 'invoice').length
+    const results = await Promise.all(drafts.map(id => owner.post(`/api/invoices/${id}/issue`)))
+    expect(results.map(r => r.status)).toEqual(drafts.map(() => 200))
+    const numbers = results.map(r => r.body.number).sort((a, b) => a - b)
+    expect(numbers).toEqual(Array.from({ length: 50 }, (_, i) => before + i + 1))
+    expect(new Set(results.map(r => r.body.reference)).size).toBe(50)
+    expect(results[0]!.body.reference).toMatch(/^INV-\d{4}$/)
+  })
+
+  it('never changes or deletes an issued invoice; a credit note corrects it, numbered on its own', async () => {
+    const { invoice } = await issued()
+    expect(invoice.status).toBe('issued')
+    expect(invoice.dueOn > invoice.issuedOn).toBe(true)
+    expect((await owner.put(`/api/invoices/${invoice.id}/draft`, { vat: invoice.vat, lines: [] })).status).toBe(409)
+    expect((await owner.delete(`/api/invoices/${invoice.id}`)).status).toBe(409)
+    expect((await owner.post(`/api/invoices/${invoice.id}/issue`)).status).toBe(409)
+    const note = await owner.post(`/api/invoices/${invoice.id}/credit-note`)
+    expect(note.status).toBe(201)
+    expect(note.body).toMatchObject({ kind: 'credit-note', creditsInvoiceId: invoice.id, amountDuePence: invoice.amountDuePence })
+    const issuedNote = await owner.post(`/api/invoices/${note.body.id}/issue`)
+    expect(issuedNote.status).toBe(200)
+    expect(issuedNote.body.reference).toMatch(/^CN-\d{4}$/)
+    expect((await owner.get(`/api/invoices/${invoice.id}`)).body.status).toBe('credited')
+    expect((await owner.post(`/api/invoices/${note.body.id}/credit-note`)).status).toBe(409)
+  })
+})
+
+describe('payments by hand', () => {
+  it('adds part payments up, flags an overpayment, and checks the fields', async () => {
+    const { invoice } = await issued(100_00)
+    const bad = await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'card', amountPence: 0, receivedOn: 'yesterday' })
+    expect(bad.status).toBe(400)
+    expect(Object.keys(bad.body.data.fields).sort()).toEqual(['amountPence', 'method', 'receivedOn'])
+    const part = await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'transfer', amountPence: 40_00, receivedOn: '2026-12-01', reference: 'FPS WYNN' })
+    expect(part.status).toBe(201)
+    expect(part.body).toMatchObject({ status: 'part-paid', paidPence: 40_00, outstandingPence: invoice.amountDuePence - 40_00 })
+    const rest = await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'cash', amountPence: invoice.amountDuePence - 40_00 + 5_00, receivedOn: '2026-12-01' })
+    expect(rest.body).toMatchObject({ status: 'paid', outstandingPence: 0, overpaidPence: 5_00 })
+  })
+})
+
+describe('card payments through the Stripe fake', () => {
+  it('pays by card from the customer\'s link, once, with one receipt, even when every event comes five times', async () => {
+    const { invoice, token, customer: c } = await issued(85_50)
+    app.stripe.setSwitches({ duplicate: 5 })
+    try {
+      await payByCard(token)
+    }
+    finally {
+      app.stripe.setSwitches({ duplicate: 1 })
+    }
+    const after = (await owner.get(`/api/invoices/${invoice.id}`)).body
+    expect(after.status).toBe('paid')
+    expect(after.payments).toHaveLength(1)
+    expect(after.payments[0]).toMatchObject({ method: 'card', amountPence: invoice.amountDuePence })
+    await app.waitForMail(c.email, /Receipt/)
+    await new Promise(r => setTimeout(r, 300))
+    expect(app.mails.filter(m => /Receipt/.test(m.subject ?? '') && m.to && JSON.stringify(m.to).includes(c.email))).toHaveLength(1)
+    // the public view says paid, and there is nothing left to pay
+    const view = (await new Client(app.url).get(`/api/public/invoices/${token}`)).body
+    expect(view).toMatchObject({ status: 'paid', outstandingPence: 0, customer: { name: 'Wynn Carrow' } })
+    expect(JSON.stringify(view)).not.toMatch(/tokenHash|firmId/)
+    expect((await new Client(app.url).post(`/api/public/invoices/${token}/checkout`)).status).toBe(409)
+  })
+
+  it('ends paid when the events arrive last first', async () => {
+    const { invoice, token } = await issued(64_00)
+    app.stripe.setSwitches({ reorder: true })
+    try {
+      await payByCard(token)
+    }
+    finally {
+      app.stripe.setSwitches({ reorder: false })
+    }
+    const after = (await owner.get(`/api/invoices/${invoice.id}`)).body
+    expect(after.status).toBe('paid')
+    expect(after.payments).toHaveLength(1)
+  })
+
+  it('refuses a bad signature or an old timestamp and changes nothing; an amount that does not match leaves it unpaid', async () => {
+    const { invoice } = await issued(50_00)
+    const evt = (id: string, amount: number, currency = 'gbp') => ({
+      id, object: 'event', type: 'payment_intent.succeeded', created: Math.floor(Date.now() / 1000), livemode: false, api_version: '2025-01-27.acacia',
+      data: { object: { id: `pi_${id}`, object: 'payment_intent', amount, amount_received: amount, currency, status: 'succeeded', metadata: { firmId, invoiceId: invoice.id } } },
+    })
+    const tampered = await fetch(`${app.url}/api/webhooks/stripe`, { method: 'POST', body: JSON.stringify(evt('evt_bad1', invoice.amountDuePence)), headers: { 'content-type': 'application/json', 'stripe-signature': 't=1,v1=deadbeef' } })
+    expect(tampered.status).toBe(400)
+    const old = await signed(evt('evt_old1', invoice.amountDuePence), Math.floor(Date.now() / 1000) - 600)
+    expect(old.status).toBe(400)
+    expect((await fetch(`${app.url}/api/webhooks/stripe`, { method: 'POST', body: '{}', headers: { 'content-type': 'application/json' } })).status).toBe(400)
+    expect((await owner.get(`/api/invoices/${invoice.id}`)).body.payments).toHaveLength(0)
+
+    const wrongAmount = await signed(evt('evt_amt1', invoice.amountDuePence + 1))
+    expect(wrongAmount.status).toBe(200)
+    expect((await wrongAmount.json()).outcome).toMatch(/does not match/)
+    const wrongCurrency = await signed(evt('evt_cur1', invoice.amountDuePence, 'eur'))
+    expect((await wrongCurrency.json()).outcome).toMatch(/does not match/)
+    const still = (await owner.get(`/api/invoices/${invoice.id}`)).body
+    expect(still).toMatchObject({ status: 'issued', paidPence: 0 })
+
+    // the right amount, signed: paid; the same event again: nothing more
+    const right = await signed(evt('evt_ok1', invoice.amountDuePence))
+    expect((await right.json()).outcome).toBe('payment recorded')
+    expect((await (await signed(evt('evt_ok1', invoice.amountDuePence))).json()).outcome).toBe('duplicate')
+    expect((await owner.get(`/api/invoices/${invoice.id}`)).body).toMatchObject({ status: 'paid', payments: [expect.objectContaining({ amountPence: invoice.amountDuePence })] })
+  })
+})
+
+describe('money routes, roles and firms', () => {
+  it('gives crew 403 on every money route, hides another firm\'s invoices, and keeps the link to its own invoice', async () => {
+    const { invoice, token } = await issued()
+    const { client: crew } = await inviteAndJoin(app, owner, uniqueEmail('crew'), 'crew')
+    const body = { method: 'cash', amountPence: 100, receivedOn: '2026-12-01' }
+    for (const [method, path] of [['GET', '/api/invoices'], ['POST', '/api/invoices'], ['GET', `/api/invoices/${invoice.id}`], ['PUT', `/api/invoices/${invoice.id}/draft`], ['POST', `/api/invoices/${invoice.id}/issue`], ['POST', `/api/invoices/${invoice.id}/payments`], ['POST', `/api/invoices/${invoice.id}/credit-note`], ['DELETE', `/api/invoices/${invoice.id}`]] as const) {
+      expect((await crew.request(method, path, method === 'GET' || method === 'DELETE' ? undefined : body)).status, `${method} ${path}`).toBe(403)
+    }
+    const { client: accountant } = await inviteAndJoin(app, owner, uniqueEmail('acct'), 'accountant')
+    expect((await accountant.get(`/api/invoices/${invoice.id}`)).status).toBe(200)
+    expect((await accountant.post(`/api/invoices/${invoice.id}/payments`, body)).status).toBe(403)
+    expect((await other.get(`/api/invoices/${invoice.id}`)).status).toBe(404)
+    expect((await other.post(`/api/invoices/${invoice.id}/payments`, body)).status).toBe(404)
+    expect((await new Client(app.url).get('/api/invoices')).status).toBe(401)
+    expect((await new Client(app.url).get(`/api/public/invoices/${token}x`)).status).toBe(404)
+    expect((await new Client(app.url).get(`/api/public/invoices/${'a'.repeat(43)}`)).status).toBe(404)
+  })
+})
