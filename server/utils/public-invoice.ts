@@ -20,11 +20,11 @@ export async function publicInvoiceView(f: FirmScope, invoiceId: string) {
   const d = await invoiceDetail(f, invoiceId)
   const [firm] = await f.tx.select({ tradingName: firms.tradingName, addressLine1: firms.addressLine1, town: firms.town, postcode: firms.postcode, email: firms.email, phone: firms.phone, vatNumber: firms.vatNumber, vatRegistered: firms.vatRegistered, bankDetails: firms.bankDetails })
     .from(firms).where(eq(firms.id, f.firmId))
-  const [customer] = await f.tx.select({ name: customers.name }).from(customers).where(f.where(customers, eq(customers.id, d.customerId)))
+  const [customer] = await f.tx.select({ name: customers.name, billingLine1: customers.billingLine1, billingTown: customers.billingTown, billingPostcode: customers.billingPostcode }).from(customers).where(f.where(customers, eq(customers.id, d.customerId)))
   return {
     reference: d.reference, kind: d.kind, issuedOn: d.issuedOn, dueOn: d.dueOn, vat: d.vat, cisRatePercent: d.cisRatePercent, notes: d.notes,
     totals: d.totals, amountDuePence: d.amountDuePence, status: d.status, paidPence: d.paidPence, outstandingPence: d.outstandingPence,
-    firm: firm!, customer: customer!, site: d.site,
+    firm: firm!, customer: customer!, site: d.site, credits: d.credits?.reference ?? null,
     lines: d.lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent })),
   }
 }

@@ -105,38 +105,47 @@ const line = (kind: 'labour' | 'materials', description: string, pence: number, 
   ({ kind, description, quantityX1000: 1000, unit: 'item', unitPence: pence, vatRatePercent })
 
 /**
- * A deposit or stage invoice: a percentage of the job's price, or an amount, split between labour
- * and materials in the job's own proportion (so CIS, worked on the labour, stays right).
+ * A deposit or stage invoice: a percentage of the job's price (rounded half up to the penny), or an
+ * amount, split between labour and materials in the job's own proportion (so CIS, worked on the
+ * labour, stays right): the labour share rounded half up, the materials the rest, so the two add
+ * up to the invoice's amount exactly.
  */
 export function partLines(kind: 'deposit' | 'stage', job: JobPrice, part: { percent: number } | { amountPence: number }, vatRatePercent = 20): DraftInvoiceLine[] {
   const total = job.labourNetPence + job.materialsNetPence
   const word = kind === 'deposit' ? 'Deposit' : 'Stage payment'
-  let labour: number
-  let materials: number
+  let amount: number
   let what: string
   if ('percent' in part) {
     if (!(part.percent > 0 && part.percent <= 100)) throw new RangeError(`percent must be over 0 and at most 100, got ${part.percent}`)
-    const bp = Math.round(part.percent * 100)
-    labour = share(job.labourNetPence, bp, 10_000)
-    materials = share(job.materialsNetPence, bp, 10_000)
+    // the percentage of the whole price, then split like an amount: rounding labour and materials
+    // each on its own could put the invoice a penny off the percentage (50% of 1p + 1p was 2p)
+    amount = share(total, Math.round(part.percent * 100), 10_000)
     what = `${part.percent}% of ${job.reference}`
   }
   else {
     if (!Number.isSafeInteger(part.amountPence) || part.amountPence <= 0 || part.amountPence > total) throw new RangeError(`amountPence must be over 0 and at most the job's price (${total}), got ${part.amountPence}`)
-    labour = share(part.amountPence, job.labourNetPence, total)
-    materials = part.amountPence - labour
+    amount = part.amountPence
     what = `towards ${job.reference}`
   }
+  const labour = share(amount, job.labourNetPence, total)
+  const materials = amount - labour
   return [
     ...(labour > 0 ? [line('labour', `${word} ${what}: labour`, labour, vatRatePercent)] : []),
     ...(materials > 0 ? [line('materials', `${word} ${what}: materials`, materials, vatRatePercent)] : []),
   ]
 }
 
-/** The final invoice: the job's price less what was already invoiced, labour and materials apart. */
+/**
+ * The final invoice: the job's price less what was already invoiced, labour and materials apart.
+ * Several deposits and stages, each rounded half up, can claim a penny or so more than the job's
+ * labour (or materials) while the other side is short by as much: that side's excess is taken off
+ * the other's remainder, so the invoices together never come to more than the job's price.
+ */
 export function finalLines(job: JobPrice, invoiced: InvoicedSoFar, vatRatePercent = 20): DraftInvoiceLine[] {
-  const labour = job.labourNetPence - invoiced.labourNetPence
-  const materials = job.materialsNetPence - invoiced.materialsNetPence
+  const labourLeft = job.labourNetPence - invoiced.labourNetPence
+  const materialsLeft = job.materialsNetPence - invoiced.materialsNetPence
+  const labour = materialsLeft < 0 ? labourLeft + materialsLeft : labourLeft
+  const materials = labourLeft < 0 ? materialsLeft + labourLeft : materialsLeft
   const less = invoiced.labourNetPence + invoiced.materialsNetPence > 0
   return [
     ...(labour > 0 ? [line('labour', less ? `Labour for ${job.reference}, less invoiced before` : `Labour for ${job.reference}`, labour, vatRatePercent)] : []),

@@ -1,4 +1,5 @@
 import Stripe from 'stripe'
+import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
@@ -210,5 +211,40 @@ describe('money routes, roles and firms', () => {
     expect((await new Client(app.url).get('/api/invoices')).status).toBe(401)
     expect((await new Client(app.url).get(`/api/public/invoices/${token}x`)).status).toBe(404)
     expect((await new Client(app.url).get(`/api/public/invoices/${'a'.repeat(43)}`)).status).toBe(404)
+  })
+})
+
+describe('the PDF of an invoice', () => {
+  it('carries the VAT invoice fields, the reverse-charge wording and the CIS figures', async () => {
+    const firm = (await owner.get('/api/firm')).body
+    const { id: _i, createdAt: _c, updatedAt: _u, enquiryFormKey: _k, ...fields } = firm
+    const patched = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankDetails: 'Invoice Firm, sort code 00-00-00, account 00000000' })
+    expect(patched.status, JSON.stringify(patched.body)).toBe(200)
+    const c = (await owner.post('/api/customers', { customer: { kind: 'builder', name: 'Łukasz Quarry Builds Ltd', email: uniqueEmail('lqb'), billingLine1: '9 Kiln Lane', billingTown: 'Kettlebury', billingPostcode: 'KB3 4CD', vatRegistered: true, vatNumber: 'GB999999973', paysUnderCis: true, cisRatePercent: 20 } })).body
+    const draft = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+    // a VAT- and CIS-registered builder who is not the end user: the reverse charge (DOMAIN.md), CIS at 20% on labour
+    expect(draft).toMatchObject({ vat: 'reverse-charge', cisRatePercent: 20 })
+    const saved = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'reverse-charge', cisRatePercent: 20, lines: [
+      { kind: 'labour', description: 'Skim the first-floor flats', quantityX1000: 1000, unitPence: 1_000_00, vatRatePercent: 20 },
+      { kind: 'materials', description: 'Finish plaster', quantityX1000: 10_000, unitPence: 12_40, vatRatePercent: 20 },
+    ] })
+    expect(saved.status, JSON.stringify(saved.body)).toBe(200)
+    // labour £1,000.00 + materials £124.00; VAT not charged; CIS 20% of labour only = £200.00; payable £924.00 (DOMAIN.md, CIS on labour only)
+    expect(saved.body.totals).toMatchObject({ labourNetPence: 1_000_00, materialsNetPence: 124_00, vatPence: 0, reverseChargeVatPence: 224_80, grossPence: 1_124_00, cisDeductionPence: 200_00, amountDuePence: 924_00 })
+    const issuedRes = await owner.post(`/api/invoices/${draft.id}/issue`)
+    expect(issuedRes.status).toBe(200)
+    const res = await fetch(`${app.url}/invoices/${draft.id}/pdf`, { headers: { cookie: owner.cookieHeader() } })
+    expect(res.status).toBe(200)
+    expect(res.headers.get('content-type')).toBe('application/pdf')
+    const pdf = await getDocumentProxy(new Uint8Array(await res.arrayBuffer()))
+    const text = (await extractText(pdf, { mergePages: true })).text.replace(/\s+/g, ' ')
+    for (const expected of [
+      `Invoice ${issuedRes.body.reference}`, 'Invoice Firm', '2 Lime Walk', 'GB999999973', 'Date and tax point', 'Łukasz Quarry Builds Ltd', '9 Kiln Lane',
+      'Skim the first-floor flats', 'Finish plaster', '20%', '£1,000.00', '£124.00', '£1,124.00',
+      'Reverse charge: customer to pay the VAT to HMRC', '£224.80', 'deducts 20% from the labour', '£200.00', '£924.00', 'sort code 00-00-00',
+    ]) expect(text, expected).toContain(expected)
+    // crew and another firm get nothing
+    expect((await fetch(`${app.url}/invoices/${draft.id}/pdf`, { headers: { cookie: other.cookieHeader() } })).status).toBe(404)
+    expect((await fetch(`${app.url}/invoices/${draft.id}/pdf`)).status).toBe(401)
   })
 })
