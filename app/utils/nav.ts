@@ -9,9 +9,16 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/enquiries', label: 'Enquiries', icon: 'enquiries', permission: 'ledger:write' },
   { to: '/visits', label: 'Visits', icon: 'visits', anyOf: ['ledger:write', 'jobs:read-assigned'] },
   { to: '/customers', label: 'Customers', icon: 'customers', permission: 'customers:read' },
-  { to: '/quotes', label: 'Quotes', icon: 'quotes', permission: 'money:read' },
   { to: '/jobs', label: 'Jobs', icon: 'jobs', permission: 'jobs:read-assigned' },
+  { to: '/money', label: 'Money', icon: 'quotes', permission: 'money:read' },
   { to: '/settings', label: 'Settings', icon: 'settings' },
+]
+
+/** What Money holds: the pages under it light up its item in the bar. */
+export const MONEY_ITEMS: NavItem[] = [
+  { to: '/quotes', label: 'Quotes', icon: 'quotes', permission: 'money:read' },
+  { to: '/invoices', label: 'Invoices', icon: 'quotes', permission: 'money:read' },
+  { to: '/owed', label: 'What is owed', icon: 'quotes', permission: 'money:read' },
 ]
 
 /** What Settings holds, by permission. */

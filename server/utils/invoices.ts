@@ -112,13 +112,16 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
       if (!lines.length) throw createError({ statusCode: 409, statusMessage: 'Nothing left', data: { message: 'Everything on this job has been invoiced already.' } })
     }
     else if (input.kind === 'deposit' || input.kind === 'stage') {
-      const part = input.percent ? { percent: input.percent } : input.amountPence ? { amountPence: input.amountPence } : null
+      const part: { percent: number } | { amountPence: number } | null = input.percent ? { percent: input.percent } : input.amountPence ? { amountPence: input.amountPence } : null
       if (!part) throw fieldError({ percent: 'Enter a percentage or an amount.' })
+      const invoiced = await invoicedForJob(f, job.id)
+      const left = price.labourNetPence + price.materialsNetPence - invoiced.labourNetPence - invoiced.materialsNetPence
+      if ('amountPence' in part && part.amountPence > left) throw fieldError({ amountPence: `That is more than is left to invoice on the job (${formatPence(Math.max(0, left))}).` })
       try {
         lines = partLines(input.kind, price, part)
       }
-      catch (err) {
-        throw fieldError({ [input.percent ? 'percent' : 'amountPence']: (err as Error).message.includes('at most the job') ? 'That is more than the job\'s price.' : 'Enter a percentage from 1 to 100.' })
+      catch {
+        throw fieldError('percent' in part ? { percent: 'Enter a percentage from 1 to 100.' } : { amountPence: 'Enter an amount in pounds and pence, more than 0.' })
       }
     }
   }

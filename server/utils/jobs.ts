@@ -146,6 +146,9 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
       .map(l => ({ day: (l.endedAt ?? l.startedAt ?? l.createdAt).toISOString().slice(0, 10), coat: l.coat!, coldOrDamp: l.coldOrDamp }))
     return { room, from: readyToDecorateFrom(coats, drying) }
   })
+  const jobInvoices = money
+    ? (await listInvoices(f)).filter(i => i.jobId === job.id).map(i => ({ id: i.id, kind: i.kind, reference: i.reference, status: i.status, amountDuePence: i.amountDuePence, outstandingPence: i.outstandingPence }))
+    : []
   const { labourNetPence, materialsNetPence, netPence, grossPence, materialsEstimate, ...rest } = job
   return {
     ...rest,
@@ -160,7 +163,7 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     ready,
     dryingCaution: READY_CAUTION,
     materials: comparison.map(c => money ? c : { materialId: c.materialId, name: c.name, estimatedPacksX1000: c.estimatedPacksX1000, usedPacksX1000: c.usedPacksX1000, differencePacksX1000: c.differencePacksX1000 }),
-    ...(money ? { money: { labourNetPence, materialsNetPence, netPence, grossPence } } : {}),
+    ...(money ? { money: { labourNetPence, materialsNetPence, netPence, grossPence }, invoices: jobInvoices } : {}),
   }
 }
 

@@ -29,7 +29,8 @@ export interface Person {
   close(): Promise<void>
 }
 
-export interface OpenOptions { desktop?: boolean }
+/** `alsoAllow`: other loopback origins the page may reach (the app's own Stripe fake, standing in for Stripe's pay page). */
+export interface OpenOptions { desktop?: boolean, alsoAllow?: string[] }
 
 /** A fresh browser profile: nobody signed in, no cookies shared with any other person. */
 export async function openPerson(appUrl: string, options: OpenOptions = {}): Promise<Person> {
@@ -53,11 +54,11 @@ export async function openPerson(appUrl: string, options: OpenOptions = {}): Pro
   context.setDefaultTimeout(WAIT_MS)
   context.setDefaultNavigationTimeout(WAIT_MS * 2)
 
-  const origin = new URL(appUrl).origin
+  const origins = [appUrl, ...(options.alsoAllow ?? [])].map(u => new URL(u).origin)
   const offHostRequests: string[] = []
   await context.route('**/*', (route) => {
     const url = route.request().url()
-    if (url.startsWith(`${origin}/`) || url === origin) return route.continue()
+    if (origins.some(origin => url.startsWith(`${origin}/`) || url === origin)) return route.continue()
     offHostRequests.push(url)
     return route.abort('blockedbyclient')
   })
@@ -252,7 +253,7 @@ export function useE2E() {
     },
     /** A new person with a browser of their own, closed after the test. */
     async open(options: OpenOptions = {}): Promise<Person> {
-      const person = await openPerson(this.app.url, options)
+      const person = await openPerson(this.app.url, { ...options, alsoAllow: [this.app.stripe.url, ...(options.alsoAllow ?? [])] })
       people.push(person)
       return person
     },

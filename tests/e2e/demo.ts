@@ -10,6 +10,7 @@ function person(key: string): DemoPerson {
 export const OWNER = person('owner')
 export const ACCOUNTANT = person('accountant')
 export const CREW = person('crew')
+export const OFFICE = person('office')
 export const FIRM_NAME = DEMO_FIRM.tradingName
 export const SECOND_FIRM_NAME = SECOND_FIRM.tradingName
 

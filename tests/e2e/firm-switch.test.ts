@@ -14,7 +14,7 @@ describe('switching firm', () => {
     await expectText(page.getByTestId('dashboard-heading'), `Hello, ${firstName(ACCOUNTANT)}`)
     await expectVisible(page.getByTestId('dashboard-accountant'))
     // an accountant reads customers; no enquiries or visits to run (here in the sidebar)
-    expect(await menuLabels(page)).toEqual(['Today', 'Customers', 'Quotes', 'Settings'])
+    expect(await menuLabels(page)).toEqual(['Today', 'Customers', 'Money', 'Settings'])
 
     const select = page.getByTestId('firm-switch')
     await expectVisible(select)

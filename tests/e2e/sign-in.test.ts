@@ -25,7 +25,7 @@ describe('sign in', () => {
     expect(await page.title()).toBe('Today · Setwell')
 
     // an owner sees every section in the bottom bar
-    expect(await menuLabels(page)).toEqual(['Today', 'Enquiries', 'Visits', 'Customers', 'Quotes', 'Jobs', 'Settings'])
+    expect(await menuLabels(page)).toEqual(['Today', 'Enquiries', 'Visits', 'Customers', 'Jobs', 'Money', 'Settings'])
     expect(await textOf(page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Today' }))).toBe('Today')
     expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Today' }).getAttribute('aria-current')).toBe('page')
 
