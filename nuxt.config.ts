@@ -29,6 +29,10 @@ export default defineNuxtConfig({
     /** Largest photo accepted (bytes): 413 beyond it. */
     uploadMaxBytes: 15 * 1024 * 1024,
     /** Card payments. Locally the Stripe fake (scripts/lib/stripe-fake.mjs) at stripeApiBase; live: real keys and stripeApiBase empty. */
+    /** Background jobs (pg-boss): payment reminders. NUXT_JOBS_ENABLED=false turns them off. */
+    jobsEnabled: true,
+    /** How often the reminder sweep runs (cron, in the server's time zone). */
+    remindersCron: '*/15 * * * *',
     stripeSecretKey: 'sk_test_setwell_local',
     stripeWebhookSecret: 'whsec_setwell_local',
     stripeApiBase: 'http://127.0.0.1:12111',

@@ -216,6 +216,32 @@ export async function migrate(p) {
     log('migrations applied')
   }
   finally { await pool.end() }
+  await installJobQueue(p)
+}
+
+/** The background jobs' queue names (server/plugins/jobs.ts works them). */
+export const JOB_QUEUES = ['reminders-sweep', 'reminder-send']
+
+/**
+ * pg-boss's own schema, installed and upgraded here as the owner role, with its queues, so the
+ * running app (which owns nothing) only reads and writes jobs: it starts pg-boss with migrate off.
+ */
+async function installJobQueue(p) {
+  const { default: PgBoss } = await import('pg-boss')
+  const boss = new PgBoss({ connectionString: urls(p).owner, schema: 'pgboss', supervise: false, schedule: false, max: 2 })
+  boss.on('error', err => console.error('[jobs]', err.message))
+  await boss.start()
+  for (const name of JOB_QUEUES) {
+    if (!(await boss.getQueue(name))) await boss.createQueue(name, { retryLimit: 3, retryDelay: 30, retryBackoff: true })
+  }
+  await boss.stop({ graceful: false, wait: true })
+  await withClient(urls(p).owner, async (c) => {
+    await c.query(`grant usage on schema pgboss to ${ident(APP_ROLE)}`)
+    await c.query(`grant select, insert, update, delete on all tables in schema pgboss to ${ident(APP_ROLE)}`)
+    await c.query(`grant usage, select on all sequences in schema pgboss to ${ident(APP_ROLE)}`)
+    await c.query(`grant execute on all functions in schema pgboss to ${ident(APP_ROLE)}`)
+  })
+  log('job queue ready')
 }
 
 /** Drop and recreate the database (the test profile starts from nothing on every run). */

@@ -1,7 +1,7 @@
 // Invoices on the server: finding, numbering under a lock, drafting from a job, issuing (frozen
 // after), credit notes, payments and the status that follows from them.
 import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
-import { customers, firms, invoiceLines, invoices, jobs, payments, sites } from '../db/schema'
+import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users } from '../db/schema'
 import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
 import { invoiceTotals } from '#shared/utils/tax'
 
@@ -67,6 +67,8 @@ export async function invoiceDetail(f: FirmScope, id: string) {
     .from(invoices).where(f.where(invoices, eq(invoices.creditsInvoiceId, id))).orderBy(asc(invoices.createdAt))
   const [credits] = inv.creditsInvoiceId ? await f.tx.select({ id: invoices.id, reference: invoices.reference }).from(invoices).where(f.where(invoices, eq(invoices.id, inv.creditsInvoiceId))) : []
   const money = await moneyAgainst(f, [id])
+  const chase = await f.tx.select({ id: chaseNotes.id, kind: chaseNotes.kind, note: chaseNotes.note, promisedOn: chaseNotes.promisedOn, at: chaseNotes.at, sentAt: chaseNotes.sentAt, by: users.name })
+    .from(chaseNotes).leftJoin(users, eq(users.id, chaseNotes.byUserId)).where(f.where(chaseNotes, eq(chaseNotes.invoiceId, id))).orderBy(asc(chaseNotes.at))
   const { tokenHash: _t, ...rest } = inv
   return {
     ...rest,
@@ -77,6 +79,8 @@ export async function invoiceDetail(f: FirmScope, id: string) {
     payments: paymentRows,
     creditNotes,
     credits: credits ?? null,
+    chase,
+    businessCustomer: customer ? customer.kind !== 'homeowner' : false,
     ...statusOf(inv, money),
   }
 }

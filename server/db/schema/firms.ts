@@ -36,6 +36,8 @@ export const firms = pgTable('firms', {
     // ...and the firm behind a public enquiry form link, to someone holding that link (app.enquiry_form_key)
     using: sql`id = app_firm_id() or id in (select m.firm_id from memberships m where m.user_id = app_user_id()) or enquiry_form_key = nullif(current_setting('app.enquiry_form_key', true), '')`,
   }),
+  // the background jobs' sweep (server/plugins/jobs.ts) lists the firms, in its own transaction only
+  pgPolicy('firms_job_sweep', { for: 'select', using: sql`current_setting('app.job_sweep', true) = 'on'` }),
   pgPolicy('firms_write', {
     for: 'all',
     using: sql`id = app_firm_id()`,

@@ -121,11 +121,41 @@ export const chaseNotes = pgTable('chase_notes', {
   kind: text().$type<'call' | 'message' | 'promise' | 'reminder'>().notNull(),
   note: text().notNull().default(''),
   promisedOn: date({ mode: 'string' }),
+  /** A reminder sent by the schedule: invoice + step, so a retried job never sends twice. */
+  reminderKey: text(),
+  /** When the reminder's e-mail went (null while sending, or when it failed). */
+  sentAt: timestamp({ withTimezone: true }),
   byUserId: uuid().references(() => users.id, { onDelete: 'set null' }),
   at: timestamp({ withTimezone: true }).notNull().defaultNow(),
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
   foreignKey({ name: 'chase_notes_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
   index('chase_notes_invoice_idx').on(t.firmId, t.invoiceId),
+  unique('chase_notes_reminder_unique').on(t.firmId, t.reminderKey),
   firmPolicy('chase_notes'),
+]).enableRLS()
+
+/** The firm's reminder schedule: days from the due date (negative: before it), with the e-mail's words. */
+export const reminderRules = pgTable('reminder_rules', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  offsetDays: integer().notNull(),
+  subject: text().notNull(),
+  body: text().notNull(),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('reminder_rules_offset_unique').on(t.firmId, t.offsetDays),
+  firmPolicy('reminder_rules'),
+]).enableRLS()
+
+/** The Bank of England Bank Rate as the firm keeps it, for statutory interest (shared/utils/late-payment.ts). */
+export const bankRates = pgTable('bank_rates', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  fromDate: date({ mode: 'string' }).notNull(),
+  /** Hundredths of a percent (4.25% = 425). */
+  rateBp: integer().notNull(),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.fromDate] }),
+  firmPolicy('bank_rates'),
 ]).enableRLS()

@@ -1,0 +1,33 @@
+// Statutory late-payment claims (Late Payment of Commercial Debts (Interest) Act 1998) on a
+// business customer's overdue invoice: interest and the fixed sum worked out by
+// shared/utils/late-payment.ts from the firm's Bank Rate table, and a letter as PDF. A rule of
+// thumb for the product, not legal advice.
+import { asc } from 'drizzle-orm'
+import { bankRates } from '../db/schema'
+import { DEFAULT_BANK_RATES, latePaymentClaim } from '#shared/utils/late-payment'
+
+export const CLAIM_CAUTION = 'This is worked out from the Late Payment of Commercial Debts (Interest) Act 1998 as a rule of thumb, not legal advice. It applies to business customers only; check the figures and your contract, and take advice before going to court.'
+
+/** The firm's Bank Rate table, seeded from DOMAIN.md's figures the first time. */
+export async function bankRateTable(f: FirmScope) {
+  const list = () => f.tx.select().from(bankRates).where(f.where(bankRates)).orderBy(asc(bankRates.fromDate))
+  const rows = await list()
+  if (rows.length) return rows
+  await f.tx.insert(bankRates).values(DEFAULT_BANK_RATES.map(r => f.values({ fromDate: r.from, rateBp: Math.round(r.ratePercent * 100) }))).onConflictDoNothing()
+  return list()
+}
+
+/** The claim on an invoice as of today: 409 for a homeowner, an invoice not overdue, or one with nothing owed. */
+export async function claimFor(f: FirmScope, invoiceId: string, asOf = todayIso()) {
+  const d = await invoiceDetail(f, invoiceId)
+  if (!d.businessCustomer) throw createError({ statusCode: 409, statusMessage: 'Not a business customer', data: { message: 'Statutory interest is claimed from business customers only, never from a homeowner.' } })
+  if (!d.issuedOn || !d.dueOn || d.kind === 'credit-note' || d.outstandingPence <= 0 || d.dueOn >= asOf) throw createError({ statusCode: 409, statusMessage: 'Not overdue', data: { message: 'Only an overdue invoice with something still owed has a claim.' } })
+  const rates = (await bankRateTable(f)).map(r => ({ from: r.fromDate, ratePercent: r.rateBp / 100 }))
+  try {
+    const claim = latePaymentClaim({ debtPence: d.outstandingPence, dueDate: d.dueOn, asOf, bankRates: rates })
+    return { invoice: d, claim, asOf, caution: CLAIM_CAUTION }
+  }
+  catch (err) {
+    throw createError({ statusCode: 409, statusMessage: 'No Bank Rate', data: { message: `The Bank Rate table has no rate for this period: add it under Settings, Firm. (${(err as Error).message})` } })
+  }
+}
