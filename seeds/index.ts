@@ -10,6 +10,7 @@ import * as schema from '../server/db/schema'
 import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, DEMO_PRICE_BOOK, SECOND_FIRM } from './demo'
 import { seedVisit } from './visit'
 import { seedJob } from './job'
+import { seedInvoices } from './invoices'
 import { DEFAULT_MATERIALS, defaultMaterialRow } from '../shared/utils/materials'
 
 // the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
@@ -62,7 +63,13 @@ export async function seed(url: string): Promise<'seeded' | 'already'> {
       }
       if (bookedEnquiry) await seedVisit(tx, { firmId, ...bookedEnquiry, visitorUserId: userIds.owner! })
       const millbeck = customerIds.millbeck!
-      await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! })
+      const job = await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! })
+      const stonegate = customerIds.stonegate!
+      await seedInvoices(tx, {
+        firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!,
+        job: { id: job.jobId, customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
+        builder: { id: stonegate.id, siteId: stonegate.sites[0]! },
+      })
 
       const secondId = randomUUID()
       const { owner: _o, ...second } = SECOND_FIRM

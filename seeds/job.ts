@@ -113,5 +113,5 @@ export async function seedJob(tx: Tx, o: { firmId: string, customerId: string, s
     ...(finish ? [{ materialId: finish.id, packsX1000: 500, costPencePerPack: costs['finish-plaster']! }] : []),
   ]
   if (uses.length) await tx.insert(schema.materialUses).values(uses.map(u => ({ firmId, jobId: job!.id, logId: log!.id, ...u })))
-  return { jobId: job!.id }
+  return { jobId: job!.id, labourNetPence: totals.labourNetPence, materialsNetPence: totals.materialsNetPence }
 }

@@ -19,6 +19,7 @@ export const MONEY_ITEMS: NavItem[] = [
   { to: '/quotes', label: 'Quotes', icon: 'quotes', permission: 'money:read' },
   { to: '/invoices', label: 'Invoices', icon: 'quotes', permission: 'money:read' },
   { to: '/owed', label: 'What is owed', icon: 'quotes', permission: 'money:read' },
+  { to: '/chasing', label: 'Reminders and Bank Rate', icon: 'quotes', permission: 'money:read' },
 ]
 
 /** What Settings holds, by permission. */
