@@ -152,6 +152,29 @@ describe('card payments through the Stripe fake', () => {
     expect((await new Client(app.url).post(`/api/public/invoices/${token}/checkout`)).status).toBe(409)
   })
 
+  it('refunds a card payment through Stripe, counted once when its event arrives, and a transfer by hand', async () => {
+    const { invoice, token } = await issued(90_00)
+    await payByCard(token)
+    const paid = (await owner.get(`/api/invoices/${invoice.id}`)).body
+    const card = paid.payments[0]
+    expect((await owner.post(`/api/invoices/${invoice.id}/refunds`, { paymentId: card.id, amountPence: card.amountPence + 1 })).status).toBe(400)
+    const before = app.stripe.state.deliveries.length
+    const refund = await owner.post(`/api/invoices/${invoice.id}/refunds`, { paymentId: card.id, amountPence: 30_00 })
+    expect(refund.status).toBe(202)
+    await app.stripe.waitForDeliveries(d => d.length > before && d.slice(before).some(x => x.type === 'charge.refunded' && x.ok !== undefined))
+    await app.stripe.idle()
+    const after = (await owner.get(`/api/invoices/${invoice.id}`)).body
+    expect(after.payments.map((p: any) => p.amountPence)).toEqual([card.amountPence, -30_00])
+    expect(after).toMatchObject({ status: 'part-paid', outstandingPence: 30_00 })
+
+    const { invoice: other2 } = await issued(40_00)
+    const cash = (await owner.post(`/api/invoices/${other2.id}/payments`, { method: 'cash', amountPence: other2.amountDuePence, receivedOn: '2026-12-01' })).body.payments[0]
+    const back = await owner.post(`/api/invoices/${other2.id}/refunds`, { paymentId: cash.id, amountPence: 10_00 })
+    expect(back.status).toBe(201)
+    expect(back.body).toMatchObject({ status: 'part-paid', paidPence: other2.amountDuePence - 10_00 })
+    expect((await owner.post(`/api/invoices/${other2.id}/refunds`, { paymentId: cash.id, amountPence: other2.amountDuePence })).status).toBe(400)
+  })
+
   it('ends paid when the events arrive last first', async () => {
     const { invoice, token } = await issued(64_00)
     app.stripe.setSwitches({ reorder: true })
@@ -200,7 +223,9 @@ describe('money routes, roles and firms', () => {
     const { invoice, token } = await issued()
     const { client: crew } = await inviteAndJoin(app, owner, uniqueEmail('crew'), 'crew')
     const body = { method: 'cash', amountPence: 100, receivedOn: '2026-12-01' }
-    for (const [method, path] of [['GET', '/api/invoices'], ['POST', '/api/invoices'], ['GET', `/api/invoices/${invoice.id}`], ['PUT', `/api/invoices/${invoice.id}/draft`], ['POST', `/api/invoices/${invoice.id}/issue`], ['POST', `/api/invoices/${invoice.id}/payments`], ['POST', `/api/invoices/${invoice.id}/credit-note`], ['DELETE', `/api/invoices/${invoice.id}`]] as const) {
+    for (const [method, path] of [['GET', '/api/invoices'], ['POST', '/api/invoices'], ['GET', `/api/invoices/${invoice.id}`], ['PUT', `/api/invoices/${invoice.id}/draft`], ['POST', `/api/invoices/${invoice.id}/issue`], ['POST', `/api/invoices/${invoice.id}/payments`], ['POST', `/api/invoices/${invoice.id}/credit-note`], ['DELETE', `/api/invoices/${invoice.id}`],
+      ['POST', `/api/invoices/${invoice.id}/refunds`], ['POST', `/api/invoices/${invoice.id}/reminders`], ['POST', `/api/invoices/${invoice.id}/chase-notes`], ['GET', `/api/invoices/${invoice.id}/claim`],
+      ['GET', '/api/owed'], ['GET', '/api/reminders'], ['PUT', '/api/reminders'], ['POST', '/api/reminders/run'], ['GET', '/api/bank-rates'], ['PUT', '/api/bank-rates']] as const) {
       expect((await crew.request(method, path, method === 'GET' || method === 'DELETE' ? undefined : body)).status, `${method} ${path}`).toBe(403)
     }
     const { client: accountant } = await inviteAndJoin(app, owner, uniqueEmail('acct'), 'accountant')

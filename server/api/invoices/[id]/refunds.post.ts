@@ -1,0 +1,42 @@
+import { eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { payments } from '../../../db/schema'
+import { idParam } from '#shared/schemas/common'
+
+const schema = z.object({
+  paymentId: z.uuid({ error: 'Choose the payment to refund.' }),
+  amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount to refund.' }).max(1_000_000_00),
+  reference: z.string().trim().max(200).default(''),
+})
+
+/**
+ * Refund a payment, in part or in full. A card payment is refunded through Stripe and recorded
+ * when Stripe's charge.refunded event arrives (so it is counted once); a transfer, cash or cheque
+ * refund is recorded now, as money out.
+ */
+export default defineEventHandler(async (event) => {
+  const auth = await requireAuth(event, 'money:write')
+  const { id } = await readParamsWith(event, idParam)
+  const input = await readBodyWith(event, schema)
+  const card = await withFirm(auth, async (f) => {
+    await findInvoice(f, id, true)
+    const [p] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.id, input.paymentId), eq(payments.invoiceId, id)))
+    if (!p || p.amountPence <= 0) throw fieldError({ paymentId: 'Choose one of this invoice\'s payments.' })
+    const refunded = (await f.tx.select().from(payments).where(f.where(payments, eq(payments.invoiceId, id))))
+      .filter(r => r.amountPence < 0 && r.reference === (p.stripePaymentIntentId ?? `refund of ${p.id}`)).reduce((s, r) => s - r.amountPence, 0)
+    if (input.amountPence > p.amountPence - refunded) throw fieldError({ amountPence: `At most ${formatPence(p.amountPence - refunded)} of this payment is left to refund.` })
+    if (p.method === 'card') return { intent: p.stripePaymentIntentId! }
+    await recordPayment(f, id, { method: p.method, amountPence: -input.amountPence, receivedOn: todayIso(), reference: `refund of ${p.id}` })
+    return null
+  })
+  if (card) {
+    try {
+      await useStripe().refunds.create({ payment_intent: card.intent, amount: input.amountPence }, { idempotencyKey: `refund-${input.paymentId}-${input.amountPence}-${input.reference}` })
+    }
+    catch (err) {
+      throw createError({ statusCode: 502, statusMessage: 'Refund not made', data: { message: `The card company refused the refund: ${(err as Error).message}` } })
+    }
+  }
+  setResponseStatus(event, card ? 202 : 201)
+  return withFirm(auth, f => invoiceDetail(f, id))
+})
