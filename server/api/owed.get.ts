@@ -7,8 +7,7 @@ import { AGE_BUCKETS, ageBucket, type AgeBucket } from '#shared/utils/invoices'
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:read')
   const today = todayIso()
-  const all = await withFirm(auth, f => listInvoices(f, today))
-  const owing = all.filter(i => i.kind !== 'credit-note' && i.issuedOn && i.outstandingPence > 0)
+  const owing = (await withFirm(auth, f => listOwing(f, today))).filter(i => i.outstandingPence > 0)
   const empty = () => Object.fromEntries(AGE_BUCKETS.map(b => [b, 0])) as Record<AgeBucket, number>
   const byCustomer = new Map<string, { customerId: string, customer: string, buckets: Record<AgeBucket, number>, totalPence: number, invoices: { id: string, reference: string | null, dueOn: string | null, outstandingPence: number, bucket: AgeBucket, status: string, kind: string }[] }>()
   const totals = empty()

@@ -189,10 +189,28 @@ export async function recordPayment(f: FirmScope, invoiceId: string, p: { method
   return row!
 }
 
-export async function listInvoices(f: FirmScope, today = todayIso()) {
+export async function listInvoices(f: FirmScope, today = todayIso(), filter: { jobId?: string } = {}) {
   const rows = await f.tx.select({ inv: invoices, customer: customers.name }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-    .where(f.where(invoices)).orderBy(sql`${invoices.issuedOn} desc nulls first`, desc(invoices.number), desc(invoices.createdAt)).limit(500)
+    .where(f.where(invoices, filter.jobId ? eq(invoices.jobId, filter.jobId) : undefined)).orderBy(sql`${invoices.issuedOn} desc nulls first`, desc(invoices.number), desc(invoices.createdAt)).limit(500)
+  const money = await moneyAgainst(f, rows.map(r => r.inv.id))
+  return rows.map(({ inv, customer }) => {
+    const { tokenHash: _t, ...rest } = inv
+    return { ...rest, customer, ...statusOf(inv, money, today) }
+  })
+}
+
+/**
+ * Every issued invoice with something still owed (no limit: the owed list and the reminders must
+ * see them all), filtered in SQL by its payments and credit notes, with its status.
+ */
+export async function listOwing(f: FirmScope, today = todayIso()) {
+  const paid = sql`coalesce((select sum(p.amount_pence) from payments p where p.firm_id = ${invoices.firmId} and p.invoice_id = ${invoices.id}), 0)`
+  const credited = sql`coalesce((select sum(c.amount_due_pence) from invoices c where c.firm_id = ${invoices.firmId} and c.credits_invoice_id = ${invoices.id} and c.issued_on is not null), 0)`
+  const rows = await f.tx.select({ inv: invoices, customer: customers.name }).from(invoices)
+    .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
+    .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${paid} + ${credited}`))
+    .orderBy(asc(invoices.dueOn), asc(invoices.number))
   const money = await moneyAgainst(f, rows.map(r => r.inv.id))
   return rows.map(({ inv, customer }) => {
     const { tokenHash: _t, ...rest } = inv

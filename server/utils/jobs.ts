@@ -147,7 +147,7 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     return { room, from: readyToDecorateFrom(coats, drying) }
   })
   const jobInvoices = money
-    ? (await listInvoices(f)).filter(i => i.jobId === job.id).map(i => ({ id: i.id, kind: i.kind, reference: i.reference, status: i.status, amountDuePence: i.amountDuePence, outstandingPence: i.outstandingPence }))
+    ? (await listInvoices(f, undefined, { jobId: job.id })).map(i => ({ id: i.id, kind: i.kind, reference: i.reference, status: i.status, amountDuePence: i.amountDuePence, outstandingPence: i.outstandingPence }))
     : []
   const { labourNetPence, materialsNetPence, netPence, grossPence, materialsEstimate, ...rest } = job
   return {

@@ -18,7 +18,7 @@ export async function reminderRulesFor(f: FirmScope) {
 export async function dueReminders(f: FirmScope, today = todayIso()) {
   const rules = await reminderRulesFor(f)
   if (!rules.length) return []
-  const owing = (await listInvoices(f, today)).filter(i => i.kind !== 'credit-note' && i.issuedOn && i.dueOn && i.outstandingPence > 0)
+  const owing = (await listOwing(f, today)).filter(i => i.dueOn && i.outstandingPence > 0)
   const sent = new Set((await f.tx.select({ key: chaseNotes.reminderKey }).from(chaseNotes).where(f.where(chaseNotes, eq(chaseNotes.kind, 'reminder')))).map(r => r.key))
   const out: { invoiceId: string, offsetDays: number }[] = []
   for (const i of owing) {
