@@ -92,11 +92,18 @@ export async function nextInvoiceNumber(f: FirmScope, series: 'invoice' | 'credi
   return (row?.n ?? 0) + 1
 }
 
-/** What the job's invoices (issued or not, but not credit notes, not this one) have already claimed, labour and materials apart. */
+/**
+ * What the job's invoices have already claimed (issued or not, not this one), labour and
+ * materials apart, less what issued credit notes against them gave back.
+ */
 export async function invoicedForJob(f: FirmScope, jobId: string, except?: string) {
-  const rows = await f.tx.select({ totals: invoices.totals }).from(invoices)
-    .where(f.where(invoices, eq(invoices.jobId, jobId), ne(invoices.kind, 'credit-note'), except ? ne(invoices.id, except) : undefined))
-  return rows.reduce((s, r) => ({ labourNetPence: s.labourNetPence + (r.totals.labourNetPence ?? 0), materialsNetPence: s.materialsNetPence + (r.totals.materialsNetPence ?? 0) }), { labourNetPence: 0, materialsNetPence: 0 })
+  const rows = await f.tx.select({ kind: invoices.kind, issuedOn: invoices.issuedOn, totals: invoices.totals }).from(invoices)
+    .where(f.where(invoices, eq(invoices.jobId, jobId), except ? ne(invoices.id, except) : undefined))
+  return rows.reduce((s, r) => {
+    if (r.kind === 'credit-note' && !r.issuedOn) return s
+    const sign = r.kind === 'credit-note' ? -1 : 1
+    return { labourNetPence: s.labourNetPence + sign * (r.totals.labourNetPence ?? 0), materialsNetPence: s.materialsNetPence + sign * (r.totals.materialsNetPence ?? 0) }
+  }, { labourNetPence: 0, materialsNetPence: 0 })
 }
 
 /** A new draft: blank for a customer, or from a job (deposit, stage or final). The VAT treatment and CIS rate are suggested from the firm and the customer. */

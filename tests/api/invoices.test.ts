@@ -114,6 +114,45 @@ describe('drafting and issuing', () => {
   })
 })
 
+describe('invoices from a job', () => {
+  it('takes a deposit as a share of the price, and the final is the rest: less a credited deposit, the whole price', async () => {
+    const email = uniqueEmail('job')
+    const c = (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Tam Rowley', email }, site: { line1: '8 Quarry Steps', postcode: 'KB1 7YU' } })).body
+    const v = (await owner.post('/api/visits', { customerId: c.id, siteId: c.sites[0].id, startsAt: '2026-11-20T09:00:00Z' })).body
+    await owner.put(`/api/visits/${v.id}/rooms/${crypto.randomUUID()}`, { revision: 0, name: 'Porch', surfaces: [{ id: crypto.randomUUID(), kind: 'wall', lengthMm: 2000, secondMm: 2400 }] })
+    await owner.put('/api/price-book', { ...(await priceBookFields()), skimWallsPerM2Pence: 20_00 })
+    const q = (await owner.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
+    expect((await owner.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
+    const token = /\/q\/([\w-]+)/.exec((await app.waitForMail(email, /Your quote/)).text!)![1]!
+    await new Client(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Tam Rowley' })
+    const job = (await owner.post(`/api/quotes/${q.id}/job`)).body
+    const price = (await owner.get(`/api/jobs/${job.id}`)).body.money
+
+    expect((await owner.post('/api/invoices', { kind: 'deposit', jobId: job.id, percent: 150 })).status).toBe(400)
+    const deposit = (await owner.post('/api/invoices', { kind: 'deposit', jobId: job.id, percent: 50 })).body
+    // 50% of the net price, labour and materials in the job's own proportion (our own rule), adding up exactly
+    expect(deposit.totals.netPence).toBe(Math.floor((price.netPence + 1) / 2))
+    expect((await owner.post(`/api/invoices/${deposit.id}/issue`)).status).toBe(200)
+    const tooMuch = await owner.post('/api/invoices', { kind: 'stage', jobId: job.id, amountPence: price.netPence })
+    expect(tooMuch.status).toBe(400)
+    expect(tooMuch.body.data.fields.amountPence).toMatch(/left to invoice/)
+
+    const final = (await owner.post('/api/invoices', { kind: 'final', jobId: job.id })).body
+    expect(final.totals).toMatchObject({ labourNetPence: price.labourNetPence - deposit.totals.labourNetPence, materialsNetPence: price.materialsNetPence - deposit.totals.materialsNetPence })
+    await owner.delete(`/api/invoices/${final.id}`)
+    // the deposit credited in full: the final is the whole price again
+    const note = (await owner.post(`/api/invoices/${deposit.id}/credit-note`)).body
+    expect((await owner.post(`/api/invoices/${note.id}/issue`)).status).toBe(200)
+    const again = (await owner.post('/api/invoices', { kind: 'final', jobId: job.id })).body
+    expect(again.totals).toMatchObject({ labourNetPence: price.labourNetPence, materialsNetPence: price.materialsNetPence })
+  })
+})
+
+async function priceBookFields() {
+  const { firmId: _f, createdAt: _c, updatedAt: _u, ...fields } = (await owner.get('/api/price-book')).body
+  return fields
+}
+
 describe('payments by hand', () => {
   it('adds part payments up, flags an overpayment, and checks the fields', async () => {
     const { invoice } = await issued(100_00)
