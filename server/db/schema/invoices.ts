@@ -159,3 +159,38 @@ export const bankRates = pgTable('bank_rates', {
   primaryKey({ columns: [t.firmId, t.fromDate] }),
   firmPolicy('bank_rates'),
 ]).enableRLS()
+
+export const purchaseCategory = pgEnum('purchase_category', ['materials', 'tools', 'fuel', 'vehicle', 'other'])
+
+/** Materials and other costs as they are bought (issue 7): what the VAT return's input side and the profit table read. */
+export const purchases = pgTable('purchases', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  supplier: text().notNull(),
+  boughtOn: date({ mode: 'string' }).notNull(),
+  category: purchaseCategory().notNull(),
+  netPence: integer().notNull(),
+  vatPence: integer().notNull().default(0),
+  reference: text().notNull().default(''),
+  notes: text().notNull().default(''),
+  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  index('purchases_firm_date_idx').on(t.firmId, t.boughtOn),
+  firmPolicy('purchases'),
+]).enableRLS()
+
+/** A purchase's net split across the jobs it was for (the rest is the firm's overhead). */
+export const purchaseJobs = pgTable('purchase_jobs', {
+  firmId: firmColumn(),
+  purchaseId: uuid().notNull(),
+  jobId: uuid().notNull(),
+  netPence: integer().notNull(),
+}, t => [
+  primaryKey({ columns: [t.firmId, t.purchaseId, t.jobId] }),
+  foreignKey({ name: 'purchase_jobs_purchase_fk', columns: [t.firmId, t.purchaseId], foreignColumns: [purchases.firmId, purchases.id] }).onDelete('cascade'),
+  foreignKey({ name: 'purchase_jobs_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }),
+  index('purchase_jobs_job_idx').on(t.firmId, t.jobId),
+  firmPolicy('purchase_jobs'),
+]).enableRLS()
