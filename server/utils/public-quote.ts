@@ -33,7 +33,7 @@ export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferS
   const [site] = quote.siteId ? await f.tx.select({ line1: sites.line1, town: sites.town, postcode: sites.postcode }).from(sites).where(f.where(sites, eq(sites.id, quote.siteId))) : []
   const lines = customerLinesOrWorking(version, await versionLines(f, version.id)).lines
   return {
-    reference: `Q-${String(quote.number).padStart(4, '0')}`,
+    reference: quoteReference(quote.number),
     version: version.version,
     status: version.status,
     firm: firm!,
