@@ -79,6 +79,9 @@ describe('the set log', () => {
     await expectText(page.getByRole('alert').filter({ hasText: 'bags' }), 'Enter the bags mixed, like 1.5.')
     expect(await page.getByLabel('Notes (optional)').inputValue()).toBe('Patch dubbed out, good suction')
     await bags.fill('1.5')
+    // a late set that ran past midnight: the finish is earlier in the day than the start, so it began the day before
+    await page.getByLabel('Started').fill('23:10')
+    await page.getByLabel('Finished').fill('00:40')
     await screenshot(page, 'set-log-form')
     await page.getByRole('button', { name: 'Save the set' }).click()
     await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
@@ -98,6 +101,8 @@ describe('the set log', () => {
     await expectVisible(row)
     const cells = await row.locator('td').allTextContents()
     const detail = (await api.get(`/api/jobs/${jobId}`)).body
+    const logged = detail.logs.find((l: any) => l.setNumber === 1)
+    expect(Date.parse(logged.endedAt) - Date.parse(logged.startedAt)).toBe(90 * 60_000)
     const finish = detail.materials.find((m: any) => /finish plaster/i.test(m.name))
     expect(finish.usedPacksX1000).toBe(1500)
     expect(cells[2]!.trim()).toBe('1.5')
