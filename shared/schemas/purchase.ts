@@ -1,7 +1,7 @@
 import { z } from 'zod'
 
-export const PURCHASE_CATEGORIES = ['materials', 'tools', 'fuel', 'vehicle', 'other'] as const
-export const PURCHASE_CATEGORY_LABELS: Record<(typeof PURCHASE_CATEGORIES)[number], string> = { materials: 'Materials', tools: 'Tools', fuel: 'Fuel', vehicle: 'Vehicle', other: 'Other' }
+export const PURCHASE_CATEGORIES = ['materials', 'tools', 'fuel', 'vehicle', 'labour', 'other'] as const
+export const PURCHASE_CATEGORY_LABELS: Record<(typeof PURCHASE_CATEGORIES)[number], string> = { materials: 'Materials', tools: 'Tools', fuel: 'Fuel', vehicle: 'Vehicle', labour: 'Labour paid to others', other: 'Other' }
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(10_000_000_00, { error: `${what} looks too high.` })
 
@@ -9,7 +9,7 @@ const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and penc
 export const purchaseSchema = z.object({
   supplier: z.string({ error: 'Name the supplier.' }).trim().min(1, { error: 'Name the supplier.' }).max(200),
   boughtOn: z.iso.date({ error: 'Pick the date of the receipt.' }),
-  category: z.enum(PURCHASE_CATEGORIES, { error: 'Choose materials, tools, fuel, vehicle or other.' }),
+  category: z.enum(PURCHASE_CATEGORIES, { error: 'Choose materials, tools, fuel, vehicle, labour paid to others, or other.' }),
   netPence: pence('The amount before VAT'),
   vatPence: pence('The VAT').default(0),
   reference: z.string().trim().max(200).default(''),

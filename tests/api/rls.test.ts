@@ -19,7 +19,7 @@ afterAll(async () => {
   await app?.stop()
 })
 
-const FIRM_TABLES = ['firms', 'memberships', 'invitations', 'audit_log', 'customers', 'sites', 'enquiries', 'enquiry_events', 'visits', 'rooms', 'surfaces', 'openings', 'conditions', 'corners', 'photos', 'price_books', 'materials', 'quotes', 'quote_versions', 'quote_lines', 'jobs', 'job_status_changes', 'job_days', 'set_logs', 'material_uses', 'calendar_feeds', 'set_log_photos', 'invoices', 'invoice_lines', 'payments', 'stripe_events', 'chase_notes', 'reminder_rules', 'bank_rates', 'purchases', 'purchase_jobs']
+const FIRM_TABLES = ['firms', 'memberships', 'invitations', 'audit_log', 'customers', 'sites', 'enquiries', 'enquiry_events', 'visits', 'rooms', 'surfaces', 'openings', 'conditions', 'corners', 'photos', 'price_books', 'materials', 'quotes', 'quote_versions', 'quote_lines', 'jobs', 'job_status_changes', 'job_days', 'set_logs', 'material_uses', 'calendar_feeds', 'set_log_photos', 'invoices', 'invoice_lines', 'payments', 'stripe_events', 'chase_notes', 'reminder_rules', 'bank_rates', 'purchases', 'purchase_jobs', 'cis_statements', 'documents']
 
 describe('row-level security, as the app\'s database role', () => {
   it.each(FIRM_TABLES)('%s returns no rows with no firm set', async (table) => {

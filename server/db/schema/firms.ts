@@ -16,6 +16,10 @@ export const firms = pgTable('firms', {
   phone: text().notNull().default(''),
   vatRegistered: boolean().notNull().default(false),
   vatNumber: text(),
+  /** Which months the firm's VAT quarters end in (shared/utils/periods.ts vatQuarter): 1 March/June/..., 2 April/..., 3 May/.... */
+  vatStagger: integer().$type<1 | 2 | 3>().notNull().default(1),
+  /** On HMRC's cash accounting scheme: VAT counted when money moves, not when invoices are issued. */
+  vatCashAccounting: boolean().notNull().default(false),
   cisStatus: cisStatus().notNull().default('not-registered'),
   utr: text(),
   dayRatePence: integer().notNull().default(0),

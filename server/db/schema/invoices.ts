@@ -4,7 +4,7 @@
 // paid, paid, overdue, credited) follows from its payments and dates (shared/utils/invoices.ts),
 // never set by hand. Money is integer pence; quantities thousandths.
 import { sql } from 'drizzle-orm'
-import { date, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { check, date, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
 import { firmColumn, sameFirm, timestamps } from './common'
 import { firms } from './firms'
 import { customers, sites } from './ledger'
@@ -12,6 +12,7 @@ import { users } from './users'
 import { lineKind, vatTreatment } from './quotes'
 import { jobs } from './jobs'
 import { INVOICE_KINDS, PAYMENT_METHODS } from '../../../shared/utils/invoices'
+import { PURCHASE_CATEGORIES } from '../../../shared/schemas/purchase'
 
 const firmPolicy = (name: string) => pgPolicy(`${name}_firm`, { for: 'all', using: sameFirm, withCheck: sameFirm })
 
@@ -160,7 +161,7 @@ export const bankRates = pgTable('bank_rates', {
   firmPolicy('bank_rates'),
 ]).enableRLS()
 
-export const purchaseCategory = pgEnum('purchase_category', ['materials', 'tools', 'fuel', 'vehicle', 'other'])
+export const purchaseCategory = pgEnum('purchase_category', PURCHASE_CATEGORIES)
 
 /** Materials and other costs as they are bought (issue 7): what the VAT return's input side and the profit table read. */
 export const purchases = pgTable('purchases', {
@@ -193,4 +194,53 @@ export const purchaseJobs = pgTable('purchase_jobs', {
   foreignKey({ name: 'purchase_jobs_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }),
   index('purchase_jobs_job_idx').on(t.firmId, t.jobId),
   firmPolicy('purchase_jobs'),
+]).enableRLS()
+
+/**
+ * What a contractor customer's monthly CIS statement says it paid and deducted (issue 7), one per
+ * contractor and tax month (the month starting on the 6th), to reconcile against the firm's own figures.
+ */
+export const cisStatements = pgTable('cis_statements', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  customerId: uuid().notNull(),
+  /** The first day (the 6th) of the tax month the statement covers. */
+  taxMonthStart: date({ mode: 'string' }).notNull(),
+  grossPence: integer().notNull(),
+  materialsPence: integer().notNull().default(0),
+  deductionPence: integer().notNull(),
+  reference: text().notNull().default(''),
+  notes: text().notNull().default(''),
+  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  unique('cis_statements_month_unique').on(t.firmId, t.customerId, t.taxMonthStart),
+  foreignKey({ name: 'cis_statements_customer_fk', columns: [t.firmId, t.customerId], foreignColumns: [customers.firmId, customers.id] }),
+  firmPolicy('cis_statements'),
+]).enableRLS()
+
+/**
+ * A stored file that is not a site photo: a receipt (photo or PDF) for a purchase, or the PDF or
+ * photo of a contractor's CIS statement. Uploaded through the same checked, streamed path as photos.
+ */
+export const documents = pgTable('documents', {
+  firmId: firmColumn().references(() => firms.id, { onDelete: 'cascade' }),
+  id: uuid().notNull().defaultRandom(),
+  purchaseId: uuid(),
+  cisStatementId: uuid(),
+  storageKey: text().notNull(),
+  contentType: text().notNull(),
+  bytes: integer().notNull(),
+  originalName: text().notNull().default(''),
+  uploadedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.firmId, t.id] }),
+  foreignKey({ name: 'documents_purchase_fk', columns: [t.firmId, t.purchaseId], foreignColumns: [purchases.firmId, purchases.id] }).onDelete('cascade'),
+  foreignKey({ name: 'documents_cis_statement_fk', columns: [t.firmId, t.cisStatementId], foreignColumns: [cisStatements.firmId, cisStatements.id] }).onDelete('cascade'),
+  index('documents_purchase_idx').on(t.firmId, t.purchaseId),
+  index('documents_cis_statement_idx').on(t.firmId, t.cisStatementId),
+  check('documents_one_target', sql`num_nonnulls(${t.purchaseId}, ${t.cisStatementId}) = 1`),
+  firmPolicy('documents'),
 ]).enableRLS()
