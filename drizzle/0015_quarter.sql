@@ -34,6 +34,7 @@ CREATE TABLE "documents" (
 );
 --> statement-breakpoint
 ALTER TABLE "documents" ENABLE ROW LEVEL SECURITY;--> statement-breakpoint
+DROP INDEX "invoices_firm_issued_idx";--> statement-breakpoint
 ALTER TABLE "firms" ADD COLUMN "vat_stagger" integer DEFAULT 1 NOT NULL;--> statement-breakpoint
 ALTER TABLE "firms" ADD COLUMN "vat_cash_accounting" boolean DEFAULT false NOT NULL;--> statement-breakpoint
 ALTER TABLE "cis_statements" ADD CONSTRAINT "cis_statements_firm_id_firms_id_fk" FOREIGN KEY ("firm_id") REFERENCES "public"."firms"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
@@ -45,6 +46,8 @@ ALTER TABLE "documents" ADD CONSTRAINT "documents_purchase_fk" FOREIGN KEY ("fir
 ALTER TABLE "documents" ADD CONSTRAINT "documents_cis_statement_fk" FOREIGN KEY ("firm_id","cis_statement_id") REFERENCES "public"."cis_statements"("firm_id","id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 CREATE INDEX "documents_purchase_idx" ON "documents" USING btree ("firm_id","purchase_id");--> statement-breakpoint
 CREATE INDEX "documents_cis_statement_idx" ON "documents" USING btree ("firm_id","cis_statement_id");--> statement-breakpoint
+CREATE INDEX "payments_received_idx" ON "payments" USING btree ("firm_id","received_on","id");--> statement-breakpoint
+CREATE INDEX "invoices_firm_issued_idx" ON "invoices" USING btree ("firm_id","issued_on","series","number");--> statement-breakpoint
 CREATE POLICY "cis_statements_firm" ON "cis_statements" AS PERMISSIVE FOR ALL TO public USING (firm_id = app_firm_id()) WITH CHECK (firm_id = app_firm_id());--> statement-breakpoint
 CREATE POLICY "documents_firm" ON "documents" AS PERMISSIVE FOR ALL TO public USING (firm_id = app_firm_id()) WITH CHECK (firm_id = app_firm_id());--> statement-breakpoint
 ALTER TABLE "cis_statements" FORCE ROW LEVEL SECURITY;

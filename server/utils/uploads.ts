@@ -47,7 +47,7 @@ function megabytes(bytes: number) {
 }
 
 export function uploadTooLarge(maxFileBytes: number) {
-  return fieldError({ file: `That photo is too large: the limit is ${megabytes(maxFileBytes)}. Take it again at a lower size, or send a smaller copy.` }, 413, 'Upload too large')
+  return fieldError({ file: `That file is too large: the limit is ${megabytes(maxFileBytes)}. Take the photo again at a lower size, or send a smaller copy.` }, 413, 'Upload too large')
 }
 
 export function notAPhoto(detail = 'That file is not a photo. Send a JPEG, PNG, WebP or HEIC picture.') {
@@ -83,7 +83,7 @@ export function limitUnreadBody(event: H3Event, capBytes: number) {
 export function assertMultipartRequest(event: H3Event, maxRequestBytes: number, maxFileBytes: number) {
   const type = (getRequestHeader(event, 'content-type') ?? '').split(';')[0]!.trim().toLowerCase()
   if (type !== 'multipart/form-data') {
-    throw createError({ statusCode: 415, statusMessage: 'Send the photo as multipart/form-data, in the field "file"' })
+    throw createError({ statusCode: 415, statusMessage: 'Send the file as multipart/form-data, in the field "file"' })
   }
   const declared = getRequestHeader(event, 'content-length')
   if (declared !== undefined && Number(declared) > maxRequestBytes) throw uploadTooLarge(maxFileBytes)
@@ -137,7 +137,7 @@ export function readMultipartUpload(event: H3Event, opts: MultipartOptions): Pro
   }
   catch {
     // no boundary, or a content type busboy does not read
-    throw createError({ statusCode: 415, statusMessage: 'Send the photo as multipart/form-data, in the field "file"' })
+    throw createError({ statusCode: 415, statusMessage: 'Send the file as multipart/form-data, in the field "file"' })
   }
 
   return new Promise<MultipartUpload>((resolve, reject) => {

@@ -60,4 +60,6 @@ export const customerListQuery = z.object({
   page: z.coerce.number().int().min(1).max(10_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
   sort: z.enum(CUSTOMER_SORTS).default('name'),
+  /** Only contractors that pay the firm under CIS (the CIS statements form). */
+  cis: z.enum(['yes'], { error: 'Use cis=yes or leave it out.' }).optional(),
 })

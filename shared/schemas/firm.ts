@@ -30,6 +30,8 @@ export const firmSettingsSchema = z.object({
   creditNoteNumbering: z.enum(['shared', 'own'], { error: 'Number credit notes with the invoices, or on their own.' }).optional(),
   creditNotePrefix: z.string().trim().max(12, { error: 'Keep the prefix to 12 characters.' }).regex(/^[A-Z0-9/-]*$/i, { error: 'Use letters, digits, - or / only.' }).optional(),
   bankDetails: text(500).optional(),
+  vatStagger: z.union([z.literal(1), z.literal(2), z.literal(3)], { error: 'Choose the months the VAT quarters end in.' }).optional(),
+  vatCashAccounting: z.boolean({ error: 'Say whether the firm uses cash accounting.' }).optional(),
 })
   // `when` runs these even while other fields have errors, so every problem shows at once
   .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: () => true })

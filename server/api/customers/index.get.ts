@@ -1,4 +1,4 @@
-import { asc, count, desc, like } from 'drizzle-orm'
+import { asc, count, desc, eq, like } from 'drizzle-orm'
 import { customers } from '../../db/schema'
 import { customerListQuery } from '#shared/schemas/customer'
 
@@ -20,13 +20,13 @@ const likeEscape = (s: string) => s.replace(/[\\%_]/g, ch => `\\${ch}`)
  */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'customers:read')
-  const { q, page, pageSize, sort } = await readQueryWith(event, customerListQuery)
+  const { q, page, pageSize, sort, cis } = await readQueryWith(event, customerListQuery)
   const needle = q.toLowerCase()
   // phone numbers are matched on their digits, postcodes without spaces
   const digits = needle.replace(/[\s()+-]/g, '')
   const term = /^\d{3,}$/.test(digits) ? digits : needle.replace(/\s+/g, /^[a-z]{1,2}\d/.test(needle) ? '' : ' ')
   return withFirm(auth, async (f) => {
-    const where = f.where(customers, term ? like(customers.searchText, `%${likeEscape(term)}%`) : undefined)
+    const where = f.where(customers, term ? like(customers.searchText, `%${likeEscape(term)}%`) : undefined, cis ? eq(customers.paysUnderCis, true) : undefined)
     const [total] = await f.tx.select({ n: count() }).from(customers).where(where)
     const rows = await f.tx.select({
       id: customers.id,

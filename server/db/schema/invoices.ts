@@ -55,7 +55,8 @@ export const invoices = pgTable('invoices', {
   foreignKey({ name: 'invoices_site_fk', columns: [t.firmId, t.siteId], foreignColumns: [sites.firmId, sites.id] }),
   foreignKey({ name: 'invoices_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }),
   foreignKey({ name: 'invoices_credits_fk', columns: [t.firmId, t.creditsInvoiceId], foreignColumns: [t.firmId, t.id] }),
-  index('invoices_firm_issued_idx').on(t.firmId, t.issuedOn),
+  // the exports page through issued invoices in this order (keyset)
+  index('invoices_firm_issued_idx').on(t.firmId, t.issuedOn, t.series, t.number),
   index('invoices_job_idx').on(t.firmId, t.jobId),
   pgPolicy('invoices_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.invoice_token_hash', true), '')` }),
   firmPolicy('invoices'),
@@ -99,6 +100,8 @@ export const payments = pgTable('payments', {
   unique('payments_refund_unique').on(t.firmId, t.stripeRefundId),
   foreignKey({ name: 'payments_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
   index('payments_invoice_idx').on(t.firmId, t.invoiceId),
+  // the quarter's exports and the cash-basis VAT return read payments by the day received
+  index('payments_received_idx').on(t.firmId, t.receivedOn, t.id),
   firmPolicy('payments'),
 ]).enableRLS()
 
