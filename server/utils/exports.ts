@@ -9,7 +9,7 @@
 import type { H3Event } from 'h3'
 import { and, asc, eq, gte, inArray, isNotNull, lte, sql } from 'drizzle-orm'
 import { Zip, ZipDeflate, strToU8 } from 'fflate'
-import { customers, documents, invoiceLines, invoices, jobs, payments, purchaseJobs, purchases } from '../db/schema'
+import { customers, invoiceLines, invoices, jobs, payments, purchases } from '../db/schema'
 import type { FirmScope } from './db'
 import type { Period } from './quarter'
 import { type CsvCell, poundsCell, toCsv, UTF8_BOM } from '#shared/utils/csv'
@@ -149,8 +149,9 @@ const purchasesSource: Source = {
   async* batches(f, period) {
     type After = { boughtOn: string, id: string } | null
     let after: After = null
-    const split = sql<string>`coalesce((select string_agg('J-' || lpad(j.number::text, 4, '0') || ' ' || to_char(pj.net_pence / 100.0, 'FM999999990.00'), '; ' order by j.number) from purchase_jobs pj join jobs j on j.firm_id = pj.firm_id and j.id = pj.job_id where pj.firm_id = ${purchases.firmId} and pj.purchase_id = ${purchases.id}), '')`
-    const kept = sql<boolean>`exists (select 1 from ${documents} d where d.firm_id = ${purchases.firmId} and d.purchase_id = ${purchases.id})`
+    const split = sql<string>`coalesce((select string_agg('J-' || lpad(j.number::text, 4, '0') || ' ' || to_char(pj.net_pence / 100.0, 'FM999999990.00'), '; ' order by j.number) from purchase_jobs pj join jobs j on j.firm_id = pj.firm_id and j.id = pj.job_id where pj.firm_id = "purchases"."firm_id" and pj.purchase_id = "purchases"."id"), '')`
+    // qualified by hand: drizzle leaves a one-table select's columns unqualified inside sql``
+    const kept = sql<boolean>`exists (select 1 from documents d where d.firm_id = "purchases"."firm_id" and d.purchase_id = "purchases"."id")`
     const page = (after: After) => f.tx.select({ id: purchases.id, boughtOn: purchases.boughtOn, supplier: purchases.supplier, category: purchases.category, reference: purchases.reference, netPence: purchases.netPence, vatPence: purchases.vatPence, notes: purchases.notes, jobs: split, kept })
       .from(purchases)
       .where(f.where(purchases, gte(purchases.boughtOn, period.start), lte(purchases.boughtOn, period.end),
@@ -239,8 +240,18 @@ function writer(event: H3Event) {
   return async (chunk: string | Uint8Array) => {
     if (res.destroyed) throw new Error('client went away')
     if (!res.write(chunk)) await new Promise<void>((resolve, reject) => {
-      const done = () => { res.off('drain', done); res.off('close', gone); resolve() }
-      const gone = () => { res.off('drain', done); res.off('close', gone); reject(new Error('client went away')) }
+      const stop = () => {
+        res.off('drain', done)
+        res.off('close', gone)
+      }
+      const done = () => {
+        stop()
+        resolve()
+      }
+      const gone = () => {
+        stop()
+        reject(new Error('client went away'))
+      }
       res.on('drain', done)
       res.on('close', gone)
     })
@@ -258,6 +269,26 @@ function startDownload(event: H3Event, contentType: string, fileName: string) {
 
 /** One CSV, streamed. Everything is read in one transaction (one consistent view), a batch at a time. */
 export async function streamCsv(event: H3Event, auth: { firmId: string, userId: string }, kind: ExportKind, period: Period) {
+  await failMidStream(event, () => writeCsv(event, auth, kind, period))
+  await withFirm(auth, f => f.audit('export.downloaded', 'firm', f.firmId, { kind, from: period.start, to: period.end }))
+}
+
+/**
+ * Once the first bytes are out, an error can no longer be a tidy answer: cut the connection, so
+ * the download fails in the browser rather than hanging or ending as a file that looks whole.
+ */
+async function failMidStream(event: H3Event, fn: () => Promise<void>) {
+  try {
+    await fn()
+  }
+  catch (err) {
+    if (!event.node.res.headersSent) throw err
+    console.error('[exports] failed part way through a download', err)
+    event.node.res.destroy(err as Error)
+  }
+}
+
+async function writeCsv(event: H3Event, auth: { firmId: string, userId: string }, kind: ExportKind, period: Period) {
   const source = EXPORT_SOURCES[kind]
   const write = writer(event)
   let started = false
@@ -277,7 +308,6 @@ export async function streamCsv(event: H3Event, auth: { firmId: string, userId: 
     }
   })
   event.node.res.end()
-  await withFirm(auth, f => f.audit('export.downloaded', 'firm', f.firmId, { kind, from: period.start, to: period.end }))
 }
 
 export const PACK_NOTE = (period: Period) => [
@@ -293,6 +323,11 @@ export const PACK_NOTE = (period: Period) => [
 
 /** All the CSVs of a period in one ZIP, compressed as it streams (fflate). */
 export async function streamPack(event: H3Event, auth: { firmId: string, userId: string }, period: Period) {
+  await failMidStream(event, () => writePack(event, auth, period))
+  await withFirm(auth, f => f.audit('export.downloaded', 'firm', f.firmId, { kind: 'pack', from: period.start, to: period.end }))
+}
+
+async function writePack(event: H3Event, auth: { firmId: string, userId: string }, period: Period) {
   const write = writer(event)
   let pending: Uint8Array[] = []
   let failed: Error | null = null
@@ -329,5 +364,4 @@ export async function streamPack(event: H3Event, auth: { firmId: string, userId:
     await flush()
   })
   event.node.res.end()
-  await withFirm(auth, f => f.audit('export.downloaded', 'firm', f.firmId, { kind: 'pack', from: period.start, to: period.end }))
 }
