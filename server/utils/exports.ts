@@ -12,6 +12,7 @@ import { Zip, ZipDeflate, strToU8 } from 'fflate'
 import { customers, invoiceLines, invoices, jobs, payments, purchases } from '../db/schema'
 import type { FirmScope } from './db'
 import type { Period } from './quarter'
+import { periodQuery } from '#shared/schemas/quarter'
 import { type CsvCell, poundsCell, toCsv, UTF8_BOM } from '#shared/utils/csv'
 import { INVOICE_KIND_LABELS, PAYMENT_METHOD_LABELS } from '#shared/utils/invoices'
 import { CUSTOMER_KIND_LABELS } from '#shared/utils/ledger'
@@ -364,4 +365,16 @@ async function writePack(event: H3Event, auth: { firmId: string, userId: string 
     await flush()
   })
   event.node.res.end()
+}
+
+/**
+ * A download route (server/routes/exports/*.csv and quarter.zip): owner, office and the accountant,
+ * who reads only. 400 names a bad period; streamed in batches.
+ */
+export async function exportDownload(event: H3Event, kind: ExportKind | 'pack') {
+  const auth = await requireAuth(event, 'exports:download')
+  const q = await readQueryWith(event, periodQuery)
+  const period = await withFirm(auth, f => periodOf(f, q))
+  if (kind === 'pack') await streamPack(event, auth, period)
+  else await streamCsv(event, auth, kind, period)
 }

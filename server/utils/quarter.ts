@@ -98,8 +98,8 @@ export async function cisDeductions(f: FirmScope, period: Period) {
   const ids = [...new Set(money.map(p => p.invoiceId))]
   const rows = ids.length
     ? await f.tx.select({ id: invoices.id, reference: invoices.reference, customerId: invoices.customerId, customerName: customers.name, cisRatePercent: invoices.cisRatePercent, totals: invoices.totals, amountDuePence: invoices.amountDuePence })
-      .from(invoices).innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-      .where(f.where(invoices, inArray(invoices.id, ids)))
+        .from(invoices).innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
+        .where(f.where(invoices, inArray(invoices.id, ids)))
     : []
   const cisInvoices: CisInvoice[] = rows.map(r => ({
     id: r.id, reference: r.reference ?? '', customerId: r.customerId, customerName: r.customerName, cisRatePercent: r.cisRatePercent ?? 0,

@@ -288,7 +288,7 @@ describe('receipts and statements as files', () => {
 
 describe('the accountant\'s exports', () => {
   it('invoices.csv holds every issued invoice and credit note of the quarter, as the database does, credit notes negative', async () => {
-    const res = await download(accountant, `/api/exports/invoices?quarterOf=${today}`)
+    const res = await download(accountant, `/exports/invoices.csv?quarterOf=${today}`)
     expect(res.status).toBe(200)
     expect(res.headers.get('content-type')).toBe('text/csv; charset=utf-8')
     expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="setwell-invoices-\d{4}-\d{2}-\d{2}-to-\d{4}-\d{2}-\d{2}\.csv"$/)
@@ -312,37 +312,37 @@ describe('the accountant\'s exports', () => {
   })
 
   it('invoice lines, payments and purchases read back equal to the database', async () => {
-    const lines = csv((await download(accountant, `/api/exports/invoice-lines?quarterOf=${today}`)).data)
+    const lines = csv((await download(accountant, `/exports/invoice-lines.csv?quarterOf=${today}`)).data)
     const dbLines = await sql(`select i.reference, l.description, l.unit_pence, l.quantity_x_1000 as quantity_x1000 from invoice_lines l join invoices i on i.firm_id = l.firm_id and i.id = l.invoice_id where i.issued_on is not null order by i.issued_on, i.series, i.number, l.position`)
     expect(lines.map(l => [l['Invoice number'], l.Description, l['Unit price (pounds)'], l.Quantity])).toEqual(dbLines.map(l => [l.reference, l.description, pounds(l.unit_pence), String(l.quantity_x1000 / 1000)]))
     expect(lines.find(l => l.Description === 'Materials not used')!['Line net (pounds)']).toBe('-120.00')
 
-    const paid = csv((await download(accountant, `/api/exports/payments?quarterOf=${today}`)).data)
+    const paid = csv((await download(accountant, `/exports/payments.csv?quarterOf=${today}`)).data)
     const dbPaid = await sql(`select p.amount_pence, i.reference from payments p join invoices i on i.firm_id = p.firm_id and i.id = p.invoice_id order by p.received_on, p.id`)
     expect(paid.map(p => [p['Invoice number'], p['Amount (pounds)']])).toEqual(dbPaid.map(p => [p.reference, pounds(p.amount_pence)]))
 
-    const bought = csv((await download(accountant, `/api/exports/purchases?quarterOf=${today}`)).data)
+    const bought = csv((await download(accountant, `/exports/purchases.csv?quarterOf=${today}`)).data)
     expect(bought).toHaveLength(1)
     // a supplier and a reference that start like formulas are neutralised; quotes and commas survive
     expect(bought[0]).toMatchObject({ 'Supplier': '\'@Merchant "Yard", Unit 2', 'Reference': '\'+INV-77', 'Net (pounds)': '300.00', 'VAT (pounds)': '60.00', 'Gross (pounds)': '360.00', 'Receipt kept': 'Yes' })
-    const all = csv((await download(accountant, '/api/exports/purchases?from=2020-01-01&to=2020-12-31')).data)
+    const all = csv((await download(accountant, '/exports/purchases.csv?from=2020-01-01&to=2020-12-31')).data)
     expect(all.map(p => p.Supplier)).toEqual(['Old yard'])
   })
 
   it('the VAT summary, its breakdown and the CIS file match the summaries on screen', async () => {
     const v = (await accountant.get(`/api/vat-return?quarterOf=${today}`)).body
-    const boxes = csv((await download(accountant, `/api/exports/vat-summary?quarterOf=${today}`)).data)
+    const boxes = csv((await download(accountant, `/exports/vat-summary.csv?quarterOf=${today}`)).data)
     expect(boxes.map(b => Number(b.Box))).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9])
     for (const b of boxes) expect(b['Amount (pounds)']).toBe(pounds(v.boxes[b.Box!]))
     expect(boxes.find(b => b.Box === '6')!['Whole pounds for the return']).toBe('1700')
-    const breakdown = csv((await download(accountant, `/api/exports/vat-breakdown?quarterOf=${today}`)).data)
+    const breakdown = csv((await download(accountant, `/exports/vat-breakdown.csv?quarterOf=${today}`)).data)
     expect(breakdown).toHaveLength(v.entries.length)
-    const cis = csv((await download(accountant, `/api/exports/cis-deductions?quarterOf=${today}`)).data)
+    const cis = csv((await download(accountant, `/exports/cis-deductions.csv?quarterOf=${today}`)).data)
     expect(cis).toEqual([expect.objectContaining({ 'Contractor': 'Stonecrop Builders Ltd', 'CIS deducted (pounds)': '200.00', 'Statement deduction (pounds)': '210.00', 'Deduction difference (pounds)': '10.00' })])
   })
 
   it('the quarter-end pack is one ZIP of every file, each the same as its own download', async () => {
-    const res = await download(accountant, `/api/exports/pack?quarterOf=${today}`)
+    const res = await download(accountant, `/exports/quarter.zip?quarterOf=${today}`)
     expect(res.status).toBe(200)
     expect(res.headers.get('content-type')).toBe('application/zip')
     const files = unzipSync(new Uint8Array(res.data))
@@ -352,25 +352,25 @@ describe('the accountant\'s exports', () => {
     for (const kind of ['invoices', 'invoice-lines', 'payments', 'purchases', 'cis-deductions', 'vat-summary', 'vat-breakdown']) {
       const name = names.find(n => n.startsWith(`setwell-${kind}-`))!
       expect(name, kind).toBeTruthy()
-      const single = await download(accountant, `/api/exports/${kind}?quarterOf=${today}`)
+      const single = await download(accountant, `/exports/${kind}.csv?quarterOf=${today}`)
       expect(csv(Buffer.from(files[name]!)), kind).toEqual(csv(single.data))
     }
     expect(strFromU8(files['about-this-pack.txt']!)).toMatch(/accountant/)
   })
 
   it('another firm\'s export holds none of this firm\'s rows; crew get 403; signed out 401; bad periods 400; unknown files 404', async () => {
-    const theirs = csv((await download(other, `/api/exports/invoices?quarterOf=${today}`)).data)
+    const theirs = csv((await download(other, `/exports/invoices.csv?quarterOf=${today}`)).data)
     expect(theirs).toEqual([])
-    const theirPurchases = (await download(other, `/api/exports/purchases?from=2020-01-01&to=2020-12-31`)).data.toString('utf8')
+    const theirPurchases = (await download(other, `/exports/purchases.csv?from=2020-01-01&to=2020-12-31`)).data.toString('utf8')
     expect(theirPurchases).not.toContain('Old yard')
-    const pack = unzipSync(new Uint8Array((await download(other, `/api/exports/pack?quarterOf=${today}`)).data))
+    const pack = unzipSync(new Uint8Array((await download(other, `/exports/quarter.zip?quarterOf=${today}`)).data))
     for (const [name, bytes] of Object.entries(pack)) expect(strFromU8(bytes), name).not.toMatch(/Stonecrop|HYPERLINK|Merchant/)
-    expect((await download(crew, `/api/exports/invoices?quarterOf=${today}`)).status).toBe(403)
-    expect((await download(crew, `/api/exports/pack?quarterOf=${today}`)).status).toBe(403)
-    expect((await fetch(`${app.url}/api/exports/invoices?quarterOf=${today}`)).status).toBe(401)
-    expect((await accountant.get('/api/exports/invoices?from=2026-10-01&to=2026-09-01')).status).toBe(400)
-    expect((await accountant.get('/api/exports/pack')).status).toBe(400)
-    expect((await accountant.get(`/api/exports/customers?quarterOf=${today}`)).status).toBe(404)
+    expect((await download(crew, `/exports/invoices.csv?quarterOf=${today}`)).status).toBe(403)
+    expect((await download(crew, `/exports/quarter.zip?quarterOf=${today}`)).status).toBe(403)
+    expect((await fetch(`${app.url}/exports/invoices.csv?quarterOf=${today}`)).status).toBe(401)
+    expect((await accountant.get('/exports/invoices.csv?from=2026-10-01&to=2026-09-01')).status).toBe(400)
+    expect((await accountant.get('/exports/quarter.zip')).status).toBe(400)
+    expect((await accountant.get(`/exports/customers.csv?quarterOf=${today}`)).status).toBe(404)
     expect(otherFirmId).not.toBe(firmId)
   })
 

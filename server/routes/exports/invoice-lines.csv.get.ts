@@ -1,0 +1,2 @@
+// The accountant's invoice-lines CSV for a VAT quarter (`quarterOf`) or a date range (`from`, `to`): server/utils/exports.ts.
+export default defineEventHandler(event => exportDownload(event, 'invoice-lines'))

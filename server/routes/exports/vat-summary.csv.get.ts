@@ -1,0 +1,2 @@
+// The accountant's vat-summary CSV for a VAT quarter (`quarterOf`) or a date range (`from`, `to`): server/utils/exports.ts.
+export default defineEventHandler(event => exportDownload(event, 'vat-summary'))
