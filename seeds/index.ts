@@ -11,6 +11,7 @@ import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, DEMO_PRICE_BOOK
 import { seedVisit } from './visit'
 import { seedJob } from './job'
 import { seedInvoices } from './invoices'
+import { seedQuarter } from './quarter'
 import { DEFAULT_MATERIALS, defaultMaterialRow } from '../shared/utils/materials'
 
 // the same scrypt driver and defaults nuxt-auth-utils uses, so the server verifies these hashes
@@ -63,11 +64,13 @@ export async function seed(url: string): Promise<'seeded' | 'already'> {
       }
       if (bookedEnquiry) await seedVisit(tx, { firmId, ...bookedEnquiry, visitorUserId: userIds.owner! })
       const millbeck = customerIds.millbeck!
-      const job = await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! })
       const stonegate = customerIds.stonegate!
+      // last quarter first, so job and invoice numbers follow the dates
+      const quarter = await seedQuarter(tx, { firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, people: { ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! }, stonegate: stonegate.id })
+      const job = await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew!, number: quarter.jobs + 1 })
       await seedInvoices(tx, {
-        firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!,
-        job: { id: job.jobId, customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
+        firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!, firstNumber: quarter.invoices + 1,
+        job: { id: job.jobId, reference: `J-${String(quarter.jobs + 1).padStart(4, '0')}`, customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
         builder: { id: stonegate.id, siteId: stonegate.sites[0]! },
       })
 

@@ -28,16 +28,16 @@ async function invoice(tx: Tx, o: { firmId: string, number: number, prefix: stri
   return { id, totals }
 }
 
-export async function seedInvoices(tx: Tx, o: { firmId: string, prefix: string, termsDays: number, officeId: string, job: { id: string, customerId: string, siteId: string, labourNetPence: number, materialsNetPence: number }, builder: { id: string, siteId: string } }) {
+export async function seedInvoices(tx: Tx, o: { firmId: string, prefix: string, termsDays: number, officeId: string, firstNumber?: number, job: { id: string, reference: string, customerId: string, siteId: string, labourNetPence: number, materialsNetPence: number }, builder: { id: string, siteId: string } }) {
   const deposit = await invoice(tx, {
-    firmId: o.firmId, number: 1, prefix: o.prefix, kind: 'deposit', customerId: o.job.customerId, siteId: o.job.siteId, jobId: o.job.id, vat: 'standard', cis: null,
+    firmId: o.firmId, number: (o.firstNumber ?? 1) + 1, prefix: o.prefix, kind: 'deposit', customerId: o.job.customerId, siteId: o.job.siteId, jobId: o.job.id, vat: 'standard', cis: null,
     issued: -7, termsDays: 7, by: o.officeId,
-    lines: partLines('deposit', { reference: 'J-0001', labourNetPence: o.job.labourNetPence, materialsNetPence: o.job.materialsNetPence }, { percent: 25 }),
+    lines: partLines('deposit', { reference: o.job.reference, labourNetPence: o.job.labourNetPence, materialsNetPence: o.job.materialsNetPence }, { percent: 25 }),
   })
   await tx.insert(schema.payments).values({ firmId: o.firmId, invoiceId: deposit.id, method: 'transfer', amountPence: deposit.totals.amountDuePence, receivedOn: day(-5), reference: 'MILLBECK FLAT5 DEP', recordedBy: o.officeId })
 
   const overdue = await invoice(tx, {
-    firmId: o.firmId, number: 2, prefix: o.prefix, kind: 'blank', customerId: o.builder.id, siteId: o.builder.siteId, jobId: null, vat: 'reverse-charge', cis: 20,
+    firmId: o.firmId, number: o.firstNumber ?? 1, prefix: o.prefix, kind: 'blank', customerId: o.builder.id, siteId: o.builder.siteId, jobId: null, vat: 'reverse-charge', cis: 20,
     issued: -50, termsDays: o.termsDays, by: o.officeId,
     lines: [
       { kind: 'labour', description: 'Hollow Barn: skim the ground-floor walls and ceilings', quantityX1000: 1000, unit: 'item', unitPence: 1_850_00, vatRatePercent: 20 },

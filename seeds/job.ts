@@ -20,7 +20,7 @@ const day = (offset: number) => {
 }
 const at = (offset: number, hh: number, mm: number) => new Date(`${day(offset)}T${String(hh).padStart(2, '0')}:${String(mm).padStart(2, '0')}:00Z`)
 
-export async function seedJob(tx: Tx, o: { firmId: string, customerId: string, siteId: string, ownerId: string, officeId: string, crewId: string }) {
+export async function seedJob(tx: Tx, o: { firmId: string, customerId: string, siteId: string, ownerId: string, officeId: string, crewId: string, number?: number }) {
   const { firmId } = o
   const [visit] = await tx.insert(schema.visits).values({
     firmId, customerId: o.customerId, siteId: o.siteId, startsAt: at(-9, 9, 30), durationMinutes: 40,
@@ -80,7 +80,7 @@ export async function seedJob(tx: Tx, o: { firmId: string, customerId: string, s
     .map(m => ({ materialId: materialRows.find(r => r.key === m.materialKey)?.id ?? null, name: m.name, packs: m.packs, costPence: m.costPence, derivation: m.derivation }))
   const planOptions = { people: 2, bagsPerPersonPerSet: 3, coverageM2PerBag: 10 }
   const [job] = await tx.insert(schema.jobs).values({
-    firmId, number: 1, title: 'Q-0001: Patch and skim the living room', customerId: o.customerId, siteId: o.siteId, quoteId: quote!.id, quoteVersionId: version!.id, visitId: visit!.id,
+    firmId, number: o.number ?? 1, title: 'Q-0001: Patch and skim the living room', customerId: o.customerId, siteId: o.siteId, quoteId: quote!.id, quoteVersionId: version!.id, visitId: visit!.id,
     status: 'in-progress', labourNetPence: totals.labourNetPence, materialsNetPence: totals.materialsNetPence, netPence: totals.netPence, grossPence: totals.grossPence,
     estimatedDaysX100, materialsEstimate: estimate, planOptions, createdBy: o.officeId,
   }).returning()
