@@ -64,7 +64,7 @@ try {
     SETWELL_ARTEFACTS: artefacts,
     SETWELL_TEST_STORAGE_DIR: storageDir,
   }
-  const projects = projectArg ? projectArg.slice('--project='.length).split(',') : ['unit', 'api', 'e2e']
+  const projects = projectArg ? projectArg.slice('--project='.length).split(',') : ['unit', 'api', 'reliability', 'e2e']
   let failed = false
   try {
     run(bin('vitest'), ['run', ...projects.flatMap(x => ['--project', x]), '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...passthrough], { env })
