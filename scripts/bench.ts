@@ -27,11 +27,8 @@ import { chromium } from 'playwright-core'
 import { planSets, type PlanCorner, type PlanSurface } from '../shared/utils/set-plan'
 import { DEMO_PEOPLE } from '../seeds/demo'
 
-// @ts-expect-error plain ES modules of ours, without types
 const env = await import('./lib/env.mjs')
-// @ts-expect-error plain ES modules of ours, without types
 const pgLib = await import('./lib/pg.mjs')
-// @ts-expect-error plain ES modules of ours, without types
 const runLib = await import('./lib/run.mjs')
 
 const SIZE = {
@@ -52,7 +49,7 @@ const add = (r: Row) => {
 // ---------------------------------------------------------------------------------------------
 // The database and the seed
 
-async function ownerQuery<T = any>(text: string, values: unknown[] = [], firmId?: string): Promise<T[]> {
+async function ownerQuery<T = Record<string, unknown>>(text: string, values: unknown[] = [], firmId?: string): Promise<T[]> {
   const client = new pg.Client({ connectionString: env.urls(p).owner })
   await client.connect()
   try {
@@ -174,12 +171,13 @@ async function signIn(url: string) {
 async function latency(url: string, cookie: string, connections: number) {
   const times: number[] = []
   const non2xx = { n: 0 }
-  const instance = autocannon({ url, connections, duration: SECONDS, headers: { cookie } })
-  instance.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
-    times.push(ms)
-    if (status >= 300) non2xx.n++
+  await new Promise<void>((resolve, reject) => {
+    const instance = autocannon({ url, connections, duration: SECONDS, headers: { cookie } }, err => (err ? reject(err) : resolve()))
+    instance.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
+      times.push(ms)
+      if (status >= 300) non2xx.n++
+    })
   })
-  await instance
   times.sort((a, b) => a - b)
   const q = (f: number) => times[Math.min(times.length - 1, Math.floor(f * times.length))] ?? Number.NaN
   return { p50: q(0.5), p95: q(0.95), requests: times.length, non2xx: non2xx.n }
