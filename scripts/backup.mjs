@@ -83,8 +83,9 @@ async function hasTables(p, name) {
 
 /**
  * Dump a database of profile `p` to a file and return its path. `out` is a file, or a folder to
- * put <database>-<time>.dump in (default <dataDir>/backups, so setwell-<time>.dump). `snapshot` dumps as of a snapshot
- * exported by another session (pg_export_snapshot()), so a caller can compare with what it saw.
+ * put <database>-<time>.dump in (default <dataDir>/backups, so setwell-<time>.dump). `snapshot`
+ * dumps as of a snapshot exported by another session (pg_export_snapshot()), so a caller can
+ * compare the dump with what it saw itself.
  */
 export async function backup(p, { out, database = DB_NAME, snapshot } = {}) {
   checkDatabaseName(database)

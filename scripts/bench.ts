@@ -49,12 +49,14 @@ const add = (r: Row) => {
 // ---------------------------------------------------------------------------------------------
 // The database and the seed
 
-async function ownerQuery<T = Record<string, unknown>>(text: string, values: unknown[] = [], firmId?: string): Promise<T[]> {
+async function ownerQuery<T = Record<string, unknown>>(text: string, values: unknown[] = [], firmId?: string, sweep = false): Promise<T[]> {
   const client = new pg.Client({ connectionString: env.urls(p).owner })
   await client.connect()
   try {
     await client.query('begin')
     if (firmId) await client.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+    // the firms table shows every firm only to the background sweep's setting (RLS is forced)
+    if (sweep) await client.query(`select set_config('app.job_sweep', 'on', true)`)
     const { rows } = await client.query(text, values)
     await client.query('commit')
     return rows as T[]
@@ -125,7 +127,7 @@ async function seed() {
   await pgLib.bootstrap(p)
   await pgLib.migrate(p)
   runLib.run(runLib.bin('tsx'), ['seeds/index.ts'], { env: { ...process.env, NUXT_DATABASE_OWNER_URL: env.urls(p).owner, NUXT_STORAGE_DIR: join(p.dataDir, 'uploads') } })
-  const firms = await ownerQuery<{ id: string, trading_name: string }>(`select set_config('app.job_sweep', 'on', true); select id, trading_name from firms`)
+  const firms = await ownerQuery<{ id: string, trading_name: string }>('select id, trading_name from firms', [], undefined, true)
   const [demo, second] = [firms.find(f => f.trading_name === 'Brackenridge Plastering')!, firms.find(f => f.trading_name !== 'Brackenridge Plastering')!]
   const [owner] = await ownerQuery<{ id: string }>('select id from users where email = $1', [DEMO_PEOPLE[0]!.email])
   const t = performance.now()

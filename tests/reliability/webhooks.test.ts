@@ -51,6 +51,8 @@ async function issued(amountPence: number) {
   return { id: draft.id as string, amountDuePence: res.body.amountDuePence as number, token, email }
 }
 
+type Issued = Awaited<ReturnType<typeof issued>>
+
 /** The customer opens the checkout from their link and presses Pay on the fake's page; nothing waits for the webhooks. */
 async function pay(token: string) {
   const checkout = await new Client(app.url).post(`/api/public/invoices/${token}/checkout`)
@@ -81,7 +83,7 @@ async function outcomes(eventIds: string[]) {
 const receiptsTo = (email: string) => app.mails.filter(m => /^Receipt/.test(m.subject ?? '') && JSON.stringify(m.to).includes(email))
 
 /** One payment row per PaymentIntent, for its amount, on its invoice; the invoice paid; one receipt each. */
-async function expectPaidOnce(invoices: Awaited<ReturnType<typeof issued>>[]) {
+async function expectPaidOnce(invoices: Issued[]) {
   const rows = await paymentRows(invoices.map(i => i.id))
   for (const inv of invoices) {
     const mine = intents().filter(pi => pi.metadata.invoiceId === inv.id)
@@ -102,7 +104,7 @@ async function expectPaidOnce(invoices: Awaited<ReturnType<typeof issued>>[]) {
 
 describe('every webhook three times, late and last first', () => {
   it('records one payment per checkout, some paid at once, with one receipt each', async () => {
-    const invoices = []
+    const invoices: Issued[] = []
     for (const amount of [48_00, 135_50, 72_25, 310_00, 99_99, 61_40]) invoices.push(await issued(amount))
     const fromEvent = events().length
     const fromDelivery = deliveries().length
@@ -182,7 +184,7 @@ describe('the same events sent all at once', () => {
   }
 
   it('records one payment per PaymentIntent and one receipt each when the copies race', async () => {
-    const invoices = []
+    const invoices: Issued[] = []
     for (const amount of [56_00, 87_30, 240_00]) invoices.push(await issued(amount))
     // the fake keeps its events but sends none: we deliver them
     app.stripe.setSwitches({ webhookUrl: null })

@@ -58,6 +58,9 @@ export const invoices = pgTable('invoices', {
   // the exports page through issued invoices in this order (keyset)
   index('invoices_firm_issued_idx').on(t.firmId, t.issuedOn, t.series, t.number),
   index('invoices_job_idx').on(t.firmId, t.jobId),
+  // what has been credited against an invoice (the owed view, statuses, the invoice page): without
+  // it every invoice scans every other one
+  index('invoices_credits_idx').on(t.firmId, t.creditsInvoiceId).where(sql`${t.creditsInvoiceId} is not null`),
   pgPolicy('invoices_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.invoice_token_hash', true), '')` }),
   firmPolicy('invoices'),
 ]).enableRLS()

@@ -7,6 +7,8 @@ const schema = z.object({
   paymentId: z.uuid({ error: 'Choose the payment to refund.' }),
   amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount to refund.' }).max(1_000_000_00),
   reference: z.string().trim().max(200).default(''),
+  /** One per refund the person means to make (the form makes it): a repeat of the same request is one refund. */
+  requestId: z.uuid({ error: 'That is not a request id.' }).optional(),
 })
 
 /**
@@ -25,13 +27,13 @@ export default defineEventHandler(async (event) => {
     const refunded = (await f.tx.select().from(payments).where(f.where(payments, eq(payments.invoiceId, id))))
       .filter(r => r.amountPence < 0 && r.reference === (p.stripePaymentIntentId ?? `refund of ${p.id}`)).reduce((s, r) => s - r.amountPence, 0)
     if (input.amountPence > p.amountPence - refunded) throw fieldError({ amountPence: `At most ${formatPence(p.amountPence - refunded)} of this payment is left to refund.` })
-    if (p.method === 'card') return { intent: p.stripePaymentIntentId! }
+    if (p.method === 'card') return { intent: p.stripePaymentIntentId!, refunded }
     await recordPayment(f, id, { method: p.method, amountPence: -input.amountPence, receivedOn: todayIso(), reference: `refund of ${p.id}` })
     return null
   })
   if (card) {
     try {
-      await useStripe().refunds.create({ payment_intent: card.intent, amount: input.amountPence }, { idempotencyKey: `refund-${input.paymentId}-${input.amountPence}-${input.reference}` })
+      await useStripe().refunds.create({ payment_intent: card.intent, amount: input.amountPence }, { idempotencyKey: input.requestId ? `refund-${input.requestId}` : `refund-${input.paymentId}-${input.amountPence}-${card.refunded}-${input.reference}` })
     }
     catch (err) {
       throw createError({ statusCode: 502, statusMessage: 'Refund not made', data: { message: `The card company refused the refund: ${(err as Error).message}` } })

@@ -1,3 +1,5 @@
+import { count, eq } from 'drizzle-orm'
+import { payments } from '../../../../db/schema'
 /**
  * Public: pay what is owed by card. Makes a Stripe Checkout Session for the outstanding amount
  * (its metadata names the firm and the invoice, so the webhook can find them) and answers its URL.
@@ -6,7 +8,10 @@ export default defineEventHandler(async (event) => {
   const { token } = await readParamsWith(event, invoiceTokenParam)
   const view = await useDb().transaction(async (tx) => {
     const { f, invoiceId } = await openInvoiceByToken(tx, token)
-    return { firmId: f.firmId, invoiceId, ...(await publicInvoiceView(f, invoiceId)) }
+    // how many payments and refunds there have been: after a refund the amounts can be what they
+    // were at the first checkout, and the same key would hand back that finished session
+    const [moves] = await f.tx.select({ n: count() }).from(payments).where(f.where(payments, eq(payments.invoiceId, invoiceId)))
+    return { firmId: f.firmId, invoiceId, moves: moves?.n ?? 0, ...(await publicInvoiceView(f, invoiceId)) }
   })
   if (view.outstandingPence <= 0) throw createError({ statusCode: 409, statusMessage: 'Nothing owed', data: { message: 'This invoice is paid: there is nothing to pay.' } })
   const appUrl = useRuntimeConfig().appUrl.replace(/\/$/, '')
@@ -20,7 +25,7 @@ export default defineEventHandler(async (event) => {
       client_reference_id: view.invoiceId,
       metadata,
       payment_intent_data: { metadata },
-    }, { idempotencyKey: `checkout-${view.invoiceId}-${view.outstandingPence}-${view.paidPence}` })
+    }, { idempotencyKey: `checkout-${view.invoiceId}-${view.outstandingPence}-${view.paidPence}-${view.moves}` })
     return { url: session.url }
   }
   catch (err) {

@@ -1,0 +1,1 @@
+CREATE INDEX "invoices_credits_idx" ON "invoices" USING btree ("firm_id","credits_invoice_id") WHERE "invoices"."credits_invoice_id" is not null;
