@@ -196,10 +196,13 @@ export async function recordPayment(f: FirmScope, invoiceId: string, p: { method
   return row!
 }
 
-export async function listInvoices(f: FirmScope, today = todayIso(), filter: { jobId?: string } = {}) {
+export async function listInvoices(f: FirmScope, today = todayIso(), filter: { jobId?: string, limit?: number } = {}) {
+  // drafts first, then the newest issued: the issued index read backwards gives this order
   const rows = await f.tx.select({ inv: invoices, customer: customers.name }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-    .where(f.where(invoices, filter.jobId ? eq(invoices.jobId, filter.jobId) : undefined)).orderBy(sql`${invoices.issuedOn} desc nulls first`, desc(invoices.number), desc(invoices.createdAt)).limit(500)
+    .where(f.where(invoices, filter.jobId ? eq(invoices.jobId, filter.jobId) : undefined))
+    .orderBy(sql`${invoices.issuedOn} desc nulls first`, desc(invoices.series), desc(invoices.number))
+    .limit(filter.limit ?? 500)
   const money = await moneyAgainst(f, rows.map(r => r.inv.id))
   return rows.map(({ inv, customer }) => {
     const { tokenHash: _t, ...rest } = inv

@@ -30,3 +30,10 @@ export function fieldErrors(issues: readonly { path: PropertyKey[], message: str
   }
   return out
 }
+
+/**
+ * For cross-field rules that run even while other fields have errors (so every problem shows at
+ * once): run them only on an object, never on a body that is null, an array or a string, where
+ * reading its fields would throw instead of naming the problem.
+ */
+export const whenObject = (payload: { value: unknown }) => typeof payload.value === 'object' && payload.value !== null && !Array.isArray(payload.value)

@@ -1,10 +1,11 @@
 import { z } from 'zod'
+import { whenObject } from './common'
 import { CUSTOMER_KINDS } from '../utils/ledger'
 
 const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
 const optionalEmail = z.union([
   z.literal(''),
-  z.string().trim().toLowerCase().pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' })),
+  z.string().trim().toLowerCase().max(254, { error: 'An e-mail address is at most 254 characters.' }).pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' })),
 ])
 /** UK phone numbers as people write them: digits, spaces, +, brackets, dashes; 10 to 13 digits. */
 const phone = z.string().trim().max(30, { error: 'That phone number is too long.' })
@@ -35,12 +36,12 @@ export const customerSchema = z.object({
   cisRatePercent: z.union([z.literal(0), z.literal(20), z.literal(30)], { error: 'The CIS rate is 0, 20 or 30%.' }).nullable().default(null),
   endUserNotified: z.boolean().default(false),
 })
-  .refine(v => v.kind !== 'homeowner' || !v.paysUnderCis, { path: ['paysUnderCis'], error: 'A homeowner never pays under CIS.', when: () => true })
-  .refine(v => v.kind !== 'homeowner' || !v.vatRegistered, { path: ['vatRegistered'], error: 'Record a homeowner as not VAT-registered.', when: () => true })
-  .refine(v => v.kind !== 'homeowner' || !v.endUserNotified, { path: ['endUserNotified'], error: 'End-user notices come from businesses, not homeowners.', when: () => true })
-  .refine(v => !v.paysUnderCis || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'Choose the CIS rate they deduct: 0, 20 or 30%.', when: () => true })
-  .refine(v => v.paysUnderCis || v.cisRatePercent === null, { path: ['cisRatePercent'], error: 'Only a customer paying under CIS has a CIS rate.', when: () => true })
-  .refine(v => !v.vatRegistered || Boolean(v.vatNumber), { path: ['vatNumber'], error: 'A VAT-registered customer needs their VAT number.', when: () => true })
+  .refine(v => v.kind !== 'homeowner' || !v.paysUnderCis, { path: ['paysUnderCis'], error: 'A homeowner never pays under CIS.', when: whenObject })
+  .refine(v => v.kind !== 'homeowner' || !v.vatRegistered, { path: ['vatRegistered'], error: 'Record a homeowner as not VAT-registered.', when: whenObject })
+  .refine(v => v.kind !== 'homeowner' || !v.endUserNotified, { path: ['endUserNotified'], error: 'End-user notices come from businesses, not homeowners.', when: whenObject })
+  .refine(v => !v.paysUnderCis || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'Choose the CIS rate they deduct: 0, 20 or 30%.', when: whenObject })
+  .refine(v => v.paysUnderCis || v.cisRatePercent === null, { path: ['cisRatePercent'], error: 'Only a customer paying under CIS has a CIS rate.', when: whenObject })
+  .refine(v => !v.vatRegistered || Boolean(v.vatNumber), { path: ['vatNumber'], error: 'A VAT-registered customer needs their VAT number.', when: whenObject })
 export type CustomerInput = z.input<typeof customerSchema>
 export type Customer = z.output<typeof customerSchema>
 

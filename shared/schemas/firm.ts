@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { nameField } from './common'
+import { nameField, whenObject } from './common'
 
 const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
 
@@ -17,7 +17,7 @@ export const firmSettingsSchema = z.object({
   addressLine2: text(200),
   town: text(100),
   postcode: text(10),
-  email: z.union([z.literal(''), z.string().trim().toLowerCase().pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' }))]),
+  email: z.union([z.literal(''), z.string().trim().toLowerCase().max(254, { error: 'An e-mail address is at most 254 characters.' }).pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' }))]),
   phone: text(40),
   vatRegistered: z.boolean(),
   vatNumber: z.union([z.literal('').transform(() => null), vatNumber]).nullable(),
@@ -34,6 +34,6 @@ export const firmSettingsSchema = z.object({
   vatCashAccounting: z.boolean({ error: 'Say whether the firm uses cash accounting.' }).optional(),
 })
   // `when` runs these even while other fields have errors, so every problem shows at once
-  .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: () => true })
-  .refine(v => !(v.cisStatus !== 'not-registered' && !v.utr), { path: ['utr'], message: 'CIS registration needs the firm\'s UTR.', when: () => true })
+  .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: whenObject })
+  .refine(v => !(v.cisStatus !== 'not-registered' && !v.utr), { path: ['utr'], message: 'CIS registration needs the firm\'s UTR.', when: whenObject })
 export type FirmSettingsInput = z.infer<typeof firmSettingsSchema>

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { whenObject } from './common'
 import { PAYMENT_METHODS } from '../utils/invoices'
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(1_000_000_00, { error: `${what} looks too high.` })
@@ -12,8 +13,8 @@ export const newInvoiceSchema = z.object({
   /** ...or an amount (before VAT). */
   amountPence: pence('The amount').nullable().default(null),
 })
-  .refine(v => v.kind === 'blank' || v.jobId !== null, { path: ['jobId'], error: 'Choose the job to invoice.', when: () => true })
-  .refine(v => v.kind !== 'blank' || v.customerId !== null, { path: ['customerId'], error: 'Choose the customer.', when: () => true })
+  .refine(v => v.kind === 'blank' || v.jobId !== null, { path: ['jobId'], error: 'Choose the job to invoice.', when: whenObject })
+  .refine(v => v.kind !== 'blank' || v.customerId !== null, { path: ['customerId'], error: 'Choose the customer.', when: whenObject })
 
 export const invoiceLineSchema = z.object({
   kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
@@ -32,7 +33,7 @@ export const invoiceDraftSchema = z.object({
   notes: z.string().trim().max(4000).default(''),
   lines: z.array(invoiceLineSchema).max(200).default([]),
 })
-  .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: () => true })
+  .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: whenObject })
 
 export const paymentSchema = z.object({
   method: z.enum(['transfer', 'cash', 'cheque'], { error: 'Choose transfer, cash or cheque (card payments arrive by themselves).' }),
@@ -45,6 +46,6 @@ export const chaseNoteSchema = z.object({
   kind: z.enum(['call', 'message', 'promise'], { error: 'Call, message or promise to pay?' }),
   note: z.string().trim().max(2000).default(''),
   promisedOn: z.iso.date({ error: 'Pick the date they promised.' }).nullable().default(null),
-}).refine(v => v.kind !== 'promise' || v.promisedOn !== null, { path: ['promisedOn'], error: 'Pick the date they promised to pay by.', when: () => true })
+}).refine(v => v.kind !== 'promise' || v.promisedOn !== null, { path: ['promisedOn'], error: 'Pick the date they promised to pay by.', when: whenObject })
 
 export { PAYMENT_METHODS }

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { whenObject } from './common'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 
 const isoDate = z.iso.date({ error: 'Pick a date.' })
@@ -69,11 +70,11 @@ export const setLogSchema = z.object({
     packsX1000: z.int({ error: 'Enter the bags mixed.' }).min(1, { error: 'Enter the bags mixed, like 1.5.' }).max(1_000_000),
   })).max(20).default([]),
 })
-  .refine(v => v.kind !== 'set' || v.coat !== null, { path: ['coat'], error: 'Choose the coat: fill, tight coat, first or second.', when: () => true })
-  .refine(v => v.kind !== 'set' || v.surfaceIds.length > 0, { path: ['surfaceIds'], error: 'Tick the surfaces done in this set.', when: () => true })
-  .refine(v => v.kind !== 'problem' || v.notes.length > 0, { path: ['notes'], error: 'Say what the problem is.', when: () => true })
-  .refine(v => !(v.startedAt && v.endedAt) || Date.parse(v.endedAt) >= Date.parse(v.startedAt), { path: ['endedAt'], error: 'The end is before the start.', when: () => true })
-  .refine(v => new Set(v.materials.map(m => m.materialId)).size === v.materials.length, { path: ['materials'], error: 'Each material once: add the bags together.', when: () => true })
+  .refine(v => v.kind !== 'set' || v.coat !== null, { path: ['coat'], error: 'Choose the coat: fill, tight coat, first or second.', when: whenObject })
+  .refine(v => v.kind !== 'set' || !Array.isArray(v.surfaceIds) || v.surfaceIds.length > 0, { path: ['surfaceIds'], error: 'Tick the surfaces done in this set.', when: whenObject })
+  .refine(v => v.kind !== 'problem' || typeof v.notes !== 'string' || v.notes.length > 0, { path: ['notes'], error: 'Say what the problem is.', when: whenObject })
+  .refine(v => !(typeof v.startedAt === 'string' && typeof v.endedAt === 'string') || Date.parse(v.endedAt) >= Date.parse(v.startedAt), { path: ['endedAt'], error: 'The end is before the start.', when: whenObject })
+  .refine(v => !Array.isArray(v.materials) || new Set(v.materials.map(m => m?.materialId)).size === v.materials.length, { path: ['materials'], error: 'Each material once: add the bags together.', when: whenObject })
 
 export const diaryQuery = z.object({
   from: isoDate,

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { whenObject } from './common'
 
 export const MATERIAL_TYPES = ['finish', 'bonding-undercoat', 'browning', 'bead', 'scrim', 'bonding-agent', 'other'] as const
 export const MATERIAL_TYPE_LABELS: Record<(typeof MATERIAL_TYPES)[number], string> = {
@@ -29,8 +30,8 @@ export const materialSchema = z.object({
   supplier: z.string().trim().max(120, { error: 'Keep the supplier under 120 characters.' }).default(''),
   active: z.boolean().default(true),
 })
-  .refine(m => !AREA_TYPES.includes(m.type) || m.coverageCm2PerPack !== null, { path: ['coverageCm2PerPack'], error: 'Enter the square metres a pack covers.', when: () => true })
-  .refine(m => !AREA_TYPES.includes(m.type) || m.atThicknessMm !== null, { path: ['atThicknessMm'], error: 'Enter the thickness that coverage is for.', when: () => true })
-  .refine(m => !LENGTH_TYPES.includes(m.type) || m.coverageMmPerPack !== null, { path: ['coverageMmPerPack'], error: 'Enter the metres in a pack (a bead\'s length, a roll\'s length).', when: () => true })
-  .refine(m => !(m.coverageCm2PerPack !== null && m.coverageMmPerPack !== null), { path: ['coverageMmPerPack'], error: 'Give coverage by area or by length, not both.', when: () => true })
+  .refine(m => !AREA_TYPES.includes(m.type) || m.coverageCm2PerPack !== null, { path: ['coverageCm2PerPack'], error: 'Enter the square metres a pack covers.', when: whenObject })
+  .refine(m => !AREA_TYPES.includes(m.type) || m.atThicknessMm !== null, { path: ['atThicknessMm'], error: 'Enter the thickness that coverage is for.', when: whenObject })
+  .refine(m => !LENGTH_TYPES.includes(m.type) || m.coverageMmPerPack !== null, { path: ['coverageMmPerPack'], error: 'Enter the metres in a pack (a bead\'s length, a roll\'s length).', when: whenObject })
+  .refine(m => !(m.coverageCm2PerPack !== null && m.coverageMmPerPack !== null), { path: ['coverageMmPerPack'], error: 'Give coverage by area or by length, not both.', when: whenObject })
 export type MaterialInput = z.input<typeof materialSchema>

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { whenObject } from './common'
 
 export const PURCHASE_CATEGORIES = ['materials', 'tools', 'fuel', 'vehicle', 'labour', 'other'] as const
 export const PURCHASE_CATEGORY_LABELS: Record<(typeof PURCHASE_CATEGORIES)[number], string> = { materials: 'Materials', tools: 'Tools', fuel: 'Fuel', vehicle: 'Vehicle', labour: 'Labour paid to others', other: 'Other' }
@@ -16,8 +17,8 @@ export const purchaseSchema = z.object({
   notes: z.string().trim().max(2000).default(''),
   jobs: z.array(z.object({ jobId: z.uuid({ error: 'Choose the job.' }), netPence: pence('The amount for this job').refine(n => n > 0, { error: 'Enter the amount for this job.' }) })).max(20).default([]),
 })
-  .refine(p => !(typeof p.netPence === 'number' && p.netPence >= 0) || !Array.isArray(p.jobs) || p.jobs.reduce((s, j) => s + (j?.netPence ?? 0), 0) <= p.netPence, { path: ['jobs'], error: 'The jobs add up to more than the purchase.', when: () => true })
-  .refine(p => !Array.isArray(p.jobs) || new Set(p.jobs.map(j => j?.jobId)).size === p.jobs.length, { path: ['jobs'], error: 'Each job once: add its amounts together.', when: () => true })
+  .refine(p => !(typeof p.netPence === 'number' && p.netPence >= 0) || !Array.isArray(p.jobs) || p.jobs.reduce((s, j) => s + (j?.netPence ?? 0), 0) <= p.netPence, { path: ['jobs'], error: 'The jobs add up to more than the purchase.', when: whenObject })
+  .refine(p => !Array.isArray(p.jobs) || new Set(p.jobs.map(j => j?.jobId)).size === p.jobs.length, { path: ['jobs'], error: 'Each job once: add its amounts together.', when: whenObject })
 
 export const purchaseListQuery = z.object({
   from: z.iso.date().optional(),

@@ -1,6 +1,7 @@
 // Inputs of the quarter's summaries and exports: a period (a VAT quarter by any date in it, or
 // from and to), and a contractor's CIS statement.
 import { z } from 'zod'
+import { whenObject } from './common'
 
 const isoDate = z.iso.date({ error: 'Pick a date.' })
 const MAX_DAYS = 400
@@ -11,10 +12,10 @@ export const periodQuery = z.object({
   from: isoDate.optional(),
   to: isoDate.optional(),
 })
-  .refine(v => Boolean(v.quarterOf) !== Boolean(v.from || v.to), { path: ['quarterOf'], error: 'Pick a VAT quarter, or a from and to date.', when: () => true })
-  .refine(v => !(v.from || v.to) || Boolean(v.from && v.to), { path: ['to'], error: 'Pick both dates.', when: () => true })
-  .refine(v => !(v.from && v.to) || v.from <= v.to, { path: ['to'], error: 'The end is before the start.', when: () => true })
-  .refine(v => !(v.from && v.to) || (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 < MAX_DAYS, { path: ['to'], error: 'Pick at most a year at a time.', when: () => true })
+  .refine(v => Boolean(v.quarterOf) !== Boolean(v.from || v.to), { path: ['quarterOf'], error: 'Pick a VAT quarter, or a from and to date.', when: whenObject })
+  .refine(v => !(v.from || v.to) || Boolean(v.from && v.to), { path: ['to'], error: 'Pick both dates.', when: whenObject })
+  .refine(v => !(v.from && v.to) || v.from <= v.to, { path: ['to'], error: 'The end is before the start.', when: whenObject })
+  .refine(v => !(v.from && v.to) || (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 < MAX_DAYS, { path: ['to'], error: 'Pick at most a year at a time.', when: whenObject })
 export type PeriodQuery = z.infer<typeof periodQuery>
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(10_000_000_00, { error: `${what} looks too high.` })
@@ -29,8 +30,8 @@ export const cisStatementSchema = z.object({
   reference: z.string().trim().max(200, { error: 'Keep it under 200 characters.' }).default(''),
   notes: z.string().trim().max(2000, { error: 'Keep it under 2000 characters.' }).default(''),
 })
-  .refine(v => typeof v.grossPence !== 'number' || typeof v.materialsPence !== 'number' || v.materialsPence <= v.grossPence, { path: ['materialsPence'], error: 'The materials cannot be more than the gross amount.', when: () => true })
-  .refine(v => typeof v.grossPence !== 'number' || typeof v.deductionPence !== 'number' || v.deductionPence <= v.grossPence, { path: ['deductionPence'], error: 'The deduction cannot be more than the gross amount.', when: () => true })
+  .refine(v => typeof v.grossPence !== 'number' || typeof v.materialsPence !== 'number' || v.materialsPence <= v.grossPence, { path: ['materialsPence'], error: 'The materials cannot be more than the gross amount.', when: whenObject })
+  .refine(v => typeof v.grossPence !== 'number' || typeof v.deductionPence !== 'number' || v.deductionPence <= v.grossPence, { path: ['deductionPence'], error: 'The deduction cannot be more than the gross amount.', when: whenObject })
 
 export const cisStatementListQuery = z.object({
   from: isoDate.optional(),

@@ -1,26 +1,33 @@
-import { and, asc, desc, eq, min, sql } from 'drizzle-orm'
+import { and, desc, eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
-import { customers, jobDays, jobs, sites } from '../../db/schema'
+import { customers, jobs, sites } from '../../db/schema'
 import { JOB_STATUSES } from '#shared/utils/jobs'
 
-const query = z.object({ status: z.enum(JOB_STATUSES).optional() })
+const query = z.object({
+  status: z.enum(JOB_STATUSES, { error: 'Choose one of the job statuses.' }).optional(),
+  page: z.coerce.number({ error: 'A page is a number.' }).int().min(1).max(10_000).default(1),
+  pageSize: z.coerce.number({ error: 'A page size is a number.' }).int().min(1).max(200).default(50),
+})
 
-/** Jobs, soonest first by their first booked day; crew see only the jobs they are booked on, with no money. */
+/**
+ * Jobs, newest first, a page at a time (a busy firm has tens of thousands), each with its first
+ * booked day; crew see only the jobs they are booked on, with no money.
+ */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'jobs:read-assigned')
-  const { status } = await readQueryWith(event, query)
+  const { status, page, pageSize } = await readQueryWith(event, query)
   const money = can(auth.role, 'money:read')
   return withFirm(auth, async (f) => {
-    const firstDay = f.tx.select({ jobId: jobDays.jobId, first: min(jobDays.day).as('first') }).from(jobDays).where(f.where(jobDays)).groupBy(jobDays.jobId).as('first_day')
+    // the first booked day of each job on the page only (job_days_person_unique answers it)
+    const firstDay = sql<string | null>`(select min(d.day) from job_days d where d.firm_id = ${jobs.firmId} and d.job_id = ${jobs.id})`
     const rows = await f.tx.select({
       id: jobs.id, number: jobs.number, title: jobs.title, status: jobs.status, grossPence: jobs.grossPence,
-      customer: customers.name, town: sites.town, postcode: sites.postcode, firstDay: firstDay.first, createdAt: jobs.createdAt,
+      customer: customers.name, town: sites.town, postcode: sites.postcode, firstDay, createdAt: jobs.createdAt,
     }).from(jobs)
       .innerJoin(customers, f.where(customers, eq(customers.id, jobs.customerId)))
       .leftJoin(sites, and(eq(sites.firmId, jobs.firmId), eq(sites.id, jobs.siteId)))
-      .leftJoin(firstDay, eq(firstDay.jobId, jobs.id))
       .where(f.where(jobs, status ? eq(jobs.status, status) : undefined, visibleJobs(f, auth)))
-      .orderBy(sql`${firstDay.first} asc nulls last`, desc(jobs.number), asc(jobs.id)).limit(200)
+      .orderBy(desc(jobs.number)).limit(pageSize).offset((page - 1) * pageSize)
     return rows.map(({ grossPence, ...r }) => ({ ...r, reference: jobReference(r.number), ...(money ? { grossPence } : {}) }))
   })
 })
