@@ -1,6 +1,6 @@
 // Invoices on the server: finding, numbering under a lock, drafting from a job, issuing (frozen
 // after), credit notes, payments and the status that follows from them.
-import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
+import { aliasedTable, and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
 import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users } from '../db/schema'
 import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
 import { invoiceTotals } from '#shared/utils/tax'
@@ -215,11 +215,18 @@ export async function listInvoices(f: FirmScope, today = todayIso(), filter: { j
  * see them all), filtered in SQL by its payments and credit notes, with its status.
  */
 export async function listOwing(f: FirmScope, today = todayIso()) {
-  const paid = sql`coalesce((select sum(p.amount_pence) from payments p where p.firm_id = ${invoices.firmId} and p.invoice_id = ${invoices.id}), 0)`
-  const credited = sql`coalesce((select sum(c.amount_due_pence) from invoices c where c.firm_id = ${invoices.firmId} and c.credits_invoice_id = ${invoices.id} and c.issued_on is not null), 0)`
+  // the firm's money in and credit notes summed once each (hash aggregates), then joined: a
+  // subquery per invoice read the payments index a hundred thousand times at a busy firm
+  const paid = f.tx.select({ invoiceId: payments.invoiceId, total: sql<number>`sum(${payments.amountPence})`.as('paid_total') })
+    .from(payments).where(f.where(payments)).groupBy(payments.invoiceId).as('paid')
+  const notes = aliasedTable(invoices, 'notes')
+  const credited = f.tx.select({ invoiceId: notes.creditsInvoiceId, total: sql<number>`sum(${notes.amountDuePence})`.as('credited_total') })
+    .from(notes).where(and(eq(notes.firmId, f.firmId), isNotNull(notes.creditsInvoiceId), isNotNull(notes.issuedOn))).groupBy(notes.creditsInvoiceId).as('credited')
   const rows = await f.tx.select({ inv: invoices, customer: customers.name }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-    .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${paid} + ${credited}`))
+    .leftJoin(paid, eq(paid.invoiceId, invoices.id))
+    .leftJoin(credited, eq(credited.invoiceId, invoices.id))
+    .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > coalesce(${paid.total}, 0) + coalesce(${credited.total}, 0)`))
     .orderBy(asc(invoices.dueOn), asc(invoices.number))
   const money = await moneyAgainst(f, rows.map(r => r.inv.id))
   return rows.map(({ inv, customer }) => {
