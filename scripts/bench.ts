@@ -133,7 +133,11 @@ async function seed() {
   const t = performance.now()
   await seedFirm(demo.id, owner!.id, 1, 'BEN-')
   await seedFirm(second.id, owner!.id, 0.1, 'TWO-')
-  await ownerQuery('analyze')
+  // as autovacuum would soon after a load like this: statistics, and the visibility map index-only scans need
+  const vacuum = new pg.Client({ connectionString: env.urls(p).owner })
+  await vacuum.connect()
+  await vacuum.query('vacuum analyze') // not in a transaction: VACUUM cannot run in one
+  await vacuum.end()
   const seconds = (performance.now() - t) / 1000
   const counts = await ownerQuery<Record<string, number>>(`select (select count(*) from customers)::int as customers, (select count(*) from jobs)::int as jobs, (select count(*) from invoices)::int as invoices,
     (select count(*) from invoice_lines)::int as lines, (select count(*) from payments)::int as payments, (select count(*) from set_logs)::int as set_logs`, [], demo.id)
@@ -146,6 +150,7 @@ async function seed() {
 // The server
 
 let server: ChildProcess | null = null
+let keepCluster = false
 async function startServer() {
   const port = await runLib.freePort()
   const url = `http://127.0.0.1:${port}`
@@ -239,6 +244,12 @@ async function main() {
 
   if (!existsSync(join(env.root, outputDir, 'server/index.mjs'))) runLib.nuxtBuild()
   const { demoId } = await seed()
+  // `npm run bench -- --seed-only`: leave the seeded cluster running, to look at a query by hand
+  if (process.argv.includes('--seed-only')) {
+    keepCluster = true
+    console.log(`[bench] seeded; the cluster is left running on port ${p.pgPort} (npm run bench stops it next time)`)
+    return
+  }
   const url = await startServer()
   const cookie = await signIn(url)
   const [invoice] = await ownerQuery<{ id: string }>('select id from invoices where number = 1500 and series = \'invoice\'', [], demoId)
@@ -343,5 +354,5 @@ try {
 }
 finally {
   if (server && server.exitCode === null) server.kill('SIGTERM')
-  pgLib.stopCluster(p)
+  if (!keepCluster) pgLib.stopCluster(p)
 }
