@@ -16,7 +16,8 @@ export function useDb(): Db {
   if (!db) {
     const config = useRuntimeConfig()
     if (!config.databaseUrl) throw new Error('NUXT_DATABASE_URL is not set (npm start sets it; see .env.example)')
-    pool = new pg.Pool({ connectionString: config.databaseUrl, max: Number(config.databasePoolMax) || 10 })
+    // a request waits at most 5 s for a connection: with the database down it answers 503, never hangs
+    pool = new pg.Pool({ connectionString: config.databaseUrl, max: Number(config.databasePoolMax) || 10, connectionTimeoutMillis: 5000 })
     // An idle client that errors (server restart) must not crash the process.
     pool.on('error', err => console.error('[db] idle client error', err.message))
     db = drizzle({ client: pool, schema, casing: 'snake_case' })

@@ -1,0 +1,161 @@
+// A mixed load for 60 seconds on loopback (reads, customers, invoices drafted and issued, payments
+// recorded, exports), with the database stopped 20 seconds in and started again 10 seconds later.
+// Outside the outage: no 5xx. During it: 503 with a message, never another 5xx. Afterwards the
+// app answers again without a restart, every write it acknowledged is in the database, and no
+// invoice or payment is half-written. The database is a cluster of this file's own, so stopping
+// it disturbs no other test.
+import { rmSync } from 'node:fs'
+import { join } from 'node:path'
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { startApp, type TestApp } from '../support/app'
+import type { Client } from '../support/client'
+import { signUpFirm, uniqueEmail } from '../support/client'
+
+// plain ES modules of ours: the scripts that run PostgreSQL for npm start and npm test
+const env = await import('../../scripts/lib/env.mjs')
+const pgLib = await import('../../scripts/lib/pg.mjs')
+const runLib = await import('../../scripts/lib/run.mjs')
+
+const LOAD_SECONDS = 60
+const OUTAGE_FROM_S = 20
+const OUTAGE_SECONDS = 10
+const WORKERS = 8
+const profile = { name: `outage-${process.pid}`, dataDir: join(env.root, `.data/test-outage-${process.pid}`), pgPort: 0, fast: true }
+
+let app: TestApp
+let owner: Client
+let firmId: string
+const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
+
+async function sql<T = Record<string, unknown>>(text: string, values: unknown[] = []): Promise<T[]> {
+  const db = new pg.Client({ connectionString: env.urls(profile).owner })
+  await db.connect()
+  try {
+    await db.query('begin')
+    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+    const { rows } = await db.query(text, values)
+    await db.query('commit')
+    return rows as T[]
+  }
+  finally {
+    await db.end()
+  }
+}
+
+beforeAll(async () => {
+  profile.pgPort = await runLib.freePort()
+  await pgLib.startCluster(profile)
+  await pgLib.recreateDatabase(profile)
+  await pgLib.bootstrap(profile)
+  await pgLib.migrate(profile)
+  app = await startApp({ NUXT_DATABASE_URL: env.urls(profile).app, NUXT_JOBS_ENABLED: 'false' })
+  ;({ client: owner, firmId } = await signUpFirm(app.url, 'Outage Firm'))
+})
+afterAll(async () => {
+  await app?.stop()
+  pgLib.stopCluster(profile)
+  rmSync(profile.dataDir, { recursive: true, force: true })
+})
+
+interface Outcome { at: number, what: string, status: number, body: any }
+
+describe('the database stopped in the middle of a mixed load', () => {
+  it('answers 503 while it is down, recovers by itself, loses no acknowledged write and half-writes nothing', async () => {
+    const started = Date.now()
+    const elapsed = () => (Date.now() - started) / 1000
+    const outcomes: Outcome[] = []
+    const acknowledged = { customers: [] as string[], invoices: [] as string[], payments: [] as string[], issued: [] as string[] }
+    let outage: [number, number] = [Number.POSITIVE_INFINITY, Number.POSITIVE_INFINITY]
+    const day = new Date().toISOString().slice(0, 10)
+
+    const call = async (what: string, method: string, path: string, body?: unknown) => {
+      let res: { status: number, body: any }
+      try {
+        res = await owner.request(method, path, body)
+      }
+      catch (err) {
+        res = { status: 0, body: String(err) }
+      }
+      outcomes.push({ at: elapsed(), what, status: res.status, body: res.body })
+      return res
+    }
+
+    async function worker(n: number) {
+      let i = 0
+      while (elapsed() < LOAD_SECONDS) {
+        i++
+        const step = (n + i) % 6
+        if (step === 0) {
+          const r = await call('new customer', 'POST', '/api/customers', { customer: { kind: 'homeowner', name: `Load ${n}-${i}`, email: uniqueEmail('load') } })
+          if (r.status === 201) acknowledged.customers.push(r.body.id)
+        }
+        else if (step === 1 && acknowledged.customers.length) {
+          const customerId = acknowledged.customers[(n * 7 + i) % acknowledged.customers.length]
+          const draft = await call('draft invoice', 'POST', '/api/invoices', { kind: 'blank', customerId })
+          if (draft.status !== 201) continue
+          acknowledged.invoices.push(draft.body.id)
+          const saved = await call('save draft', 'PUT', `/api/invoices/${draft.body.id}/draft`, { vat: draft.body.vat, lines: [{ kind: 'labour', description: 'Skim the hall', quantityX1000: 1000, unit: 'item', unitPence: 150_00 + i }] })
+          if (saved.status !== 200) continue
+          const issued = await call('issue invoice', 'POST', `/api/invoices/${draft.body.id}/issue`)
+          if (issued.status !== 200) continue
+          acknowledged.issued.push(draft.body.id)
+          const paid = await call('record payment', 'POST', `/api/invoices/${draft.body.id}/payments`, { method: 'transfer', amountPence: 50_00, receivedOn: day, reference: `load ${n}-${i}` })
+          if (paid.status === 201) acknowledged.payments.push(`${draft.body.id}:load ${n}-${i}`)
+        }
+        else if (step === 2) await call('customers list', 'GET', '/api/customers?pageSize=25')
+        else if (step === 3) await call('invoices list', 'GET', '/api/invoices')
+        else if (step === 4) await call('what is owed', 'GET', '/api/owed')
+        else await call('export', 'GET', `/exports/payments.csv?quarterOf=${day}`)
+      }
+    }
+
+    const outageDone = (async () => {
+      await sleep(OUTAGE_FROM_S * 1000)
+      outage = [elapsed(), Number.POSITIVE_INFINITY]
+      pgLib.stopCluster(profile)
+      await sleep(OUTAGE_SECONDS * 1000)
+      await pgLib.startCluster(profile)
+      outage = [outage[0], elapsed()]
+    })()
+    await Promise.all([...Array.from({ length: WORKERS }, (_, n) => worker(n)), outageDone])
+
+    // the app came back by itself: the last seconds of the load were answered normally
+    const after = outcomes.filter(o => o.at > outage[1] + 5)
+    expect(after.length, 'requests after the database came back').toBeGreaterThan(20)
+    expect(after.filter(o => o.status >= 200 && o.status < 300).length / after.length).toBeGreaterThan(0.95)
+
+    // during the outage: 503 with a message, nothing else from the 5xx range; before and after it: no 5xx
+    const during = outcomes.filter(o => o.at >= outage[0] && o.at <= outage[1] + 3)
+    expect(during.filter(o => o.status === 503).length, 'some requests met the outage').toBeGreaterThan(0)
+    for (const o of during.filter(o => o.status >= 500)) {
+      expect(o.status, `${o.what} at ${o.at.toFixed(1)} s`).toBe(503)
+      expect(o.body?.data?.message ?? '', o.what).toMatch(/cannot reach its database/)
+    }
+    const outside = outcomes.filter(o => o.at < outage[0] || o.at > outage[1] + 3)
+    expect(outside.filter(o => o.status >= 500 || o.status === 0).map(o => `${o.what} ${o.status} at ${o.at.toFixed(1)} s`)).toEqual([])
+
+    // every acknowledged write is there
+    const customers = new Set((await sql<{ id: string }>('select id from customers')).map(r => r.id))
+    expect(acknowledged.customers.filter(id => !customers.has(id))).toEqual([])
+    const invoices = await sql<{ id: string, issued_on: string | null, number: number | null, reference: string | null, amount_due_pence: number, totals: Record<string, number>, lines: number }>(
+      'select i.id, i.issued_on, i.number, i.reference, i.amount_due_pence, i.totals, (select count(*)::int from invoice_lines l where l.firm_id = i.firm_id and l.invoice_id = i.id) as lines from invoices i')
+    const byId = new Map(invoices.map(i => [i.id, i]))
+    expect(acknowledged.invoices.filter(id => !byId.has(id))).toEqual([])
+    expect(acknowledged.issued.filter(id => !byId.get(id)?.issued_on)).toEqual([])
+    const payments = new Set((await sql<{ key: string }>('select invoice_id || \':\' || reference as key from payments')).map(r => r.key))
+    expect(acknowledged.payments.filter(k => !payments.has(k))).toEqual([])
+
+    // nothing half-written: an issued invoice has its number, reference, lines and totals together;
+    // numbers run without gaps or repeats
+    for (const i of invoices.filter(i => i.issued_on)) {
+      expect(i.number, i.id).not.toBeNull()
+      expect(i.reference, i.id).toBeTruthy()
+      expect(i.lines, i.id).toBeGreaterThan(0)
+      expect(i.totals.amountDuePence, i.id).toBe(i.amount_due_pence)
+    }
+    const numbers = invoices.filter(i => i.issued_on).map(i => i.number!).sort((a, b) => a - b)
+    expect(numbers).toEqual(numbers.map((_, k) => k + 1))
+    expect(acknowledged.issued.length, 'invoices issued under load').toBeGreaterThan(10)
+  })
+})
