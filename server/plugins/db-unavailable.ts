@@ -25,6 +25,6 @@ export default defineNitroPlugin((nitroApp) => {
     e.unhandled = false
     e.fatal = false
     const event = (context as { event?: Parameters<typeof setResponseHeader>[0] }).event
-    if (event && !event.node.res.headersSent) setResponseHeader(event, 'retry-after', '30')
+    if (event && !event.node.res.headersSent) setResponseHeader(event, 'retry-after', 30)
   })
 })
