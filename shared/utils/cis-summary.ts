@@ -35,6 +35,7 @@
 //   invoice id given twice, a payment for an unknown invoice or for an invoice with nothing due,
 //   two statements for one customer and month) is a RangeError naming the field.
 import { cisTaxMonth } from './periods'
+import { isoDate, pence, shareOf, text, toSafe } from './checks/exact'
 
 export interface CisInvoice {
   id: string
@@ -71,43 +72,6 @@ export interface CisMonthRow {
 export interface CisSummaryInput { invoices: CisInvoice[], payments: CisPayment[], statements: CisStatementIn[] }
 
 const CIS_RATES = [0, 20, 30]
-
-/** RangeError naming the field unless value is a real ISO date (YYYY-MM-DD). */
-function isoDate(value: unknown, field: string): string {
-  const m = typeof value === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(value) : null
-  if (!m) throw new RangeError(`${field} must be an ISO date (YYYY-MM-DD), got ${String(value)}`)
-  const date = new Date(0)
-  date.setUTCFullYear(Number(m[1]), Number(m[2]) - 1, Number(m[3])) // not Date.UTC, which reads 0 to 99 as 19xx
-  if (date.getUTCFullYear() !== Number(m[1]) || date.getUTCMonth() !== Number(m[2]) - 1 || date.getUTCDate() !== Number(m[3])) {
-    throw new RangeError(`${field} is not a real date: ${value as string}`)
-  }
-  return value as string
-}
-
-function pence(value: unknown, field: string, min: 0 | null = 0): bigint {
-  if (typeof value !== 'number' || !Number.isSafeInteger(value) || (min !== null && value < min)) {
-    throw new RangeError(`${field} must be a whole number of pence${min === null ? '' : ', 0 or more'}, got ${String(value)}`)
-  }
-  return BigInt(value)
-}
-
-function text(value: unknown, field: string): string {
-  if (typeof value !== 'string') throw new RangeError(`${field} must be text, got ${String(value)}`)
-  return value
-}
-
-/** n x num / den rounded to the nearest whole number, halves away from zero; den > 0. */
-function shareOf(n: bigint, num: bigint, den: bigint): bigint {
-  const p = n * num
-  const magnitude = ((p < 0n ? -p : p) * 2n + den) / (2n * den)
-  return p < 0n ? -magnitude : magnitude
-}
-
-function toSafe(n: bigint, field: string): number {
-  const x = Number(n)
-  if (!Number.isSafeInteger(x)) throw new RangeError(`${field} is too large`)
-  return x
-}
 
 /** The tax month of a date, worked out with `cisTaxMonth` after the field is checked. */
 function taxMonth(date: unknown, field: string) {

@@ -43,6 +43,7 @@
 //   for an unknown invoice, a credit note or an invoice with nothing due) is a RangeError naming
 //   the field.
 import { formatPence } from './money'
+import { isoDate, pence, shareOf, text, toSafe } from './checks/exact'
 
 export type VatTreatment = 'standard' | 'reverse-charge' | 'not-registered'
 export interface VatSale {
@@ -99,46 +100,9 @@ const REASON_NOT_REGISTERED = 'Issued when the firm was not VAT registered: no V
 const REASON_CASH_CREDIT = 'Credit notes do not count on the cash basis: any money paid back counts instead, as a refund against the invoice.'
 const REASON_CASH_REVERSE = 'Payment for a reverse-charge invoice: reverse-charge sales stay out of cash accounting and count when the invoice is issued (HMRC\'s reverse charge guidance).'
 
-/** RangeError naming the field unless value is a real ISO date (YYYY-MM-DD). */
-function isoDate(value: unknown, field: string): string {
-  const m = typeof value === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(value) : null
-  if (!m) throw new RangeError(`${field} must be an ISO date (YYYY-MM-DD), got ${String(value)}`)
-  const date = new Date(0)
-  date.setUTCFullYear(Number(m[1]), Number(m[2]) - 1, Number(m[3])) // not Date.UTC, which reads 0 to 99 as 19xx
-  if (date.getUTCFullYear() !== Number(m[1]) || date.getUTCMonth() !== Number(m[2]) - 1 || date.getUTCDate() !== Number(m[3])) {
-    throw new RangeError(`${field} is not a real date: ${value as string}`)
-  }
-  return value as string
-}
-
-function pence(value: unknown, field: string, min: 0 | null = 0): bigint {
-  if (typeof value !== 'number' || !Number.isSafeInteger(value) || (min !== null && value < min)) {
-    throw new RangeError(`${field} must be a whole number of pence${min === null ? '' : ', 0 or more'}, got ${String(value)}`)
-  }
-  return BigInt(value)
-}
-
-function text(value: unknown, field: string): string {
-  if (typeof value !== 'string') throw new RangeError(`${field} must be text, got ${String(value)}`)
-  return value
-}
-
 function oneOf<T extends string>(value: unknown, allowed: readonly T[], field: string): T {
   if (!allowed.includes(value as T)) throw new RangeError(`${field} must be one of ${allowed.join(', ')}, got ${String(value)}`)
   return value as T
-}
-
-/** n x num / den rounded to the nearest whole number, halves away from zero; den > 0. */
-function shareOf(n: bigint, num: bigint, den: bigint): bigint {
-  const p = n * num
-  const magnitude = ((p < 0n ? -p : p) * 2n + den) / (2n * den)
-  return p < 0n ? -magnitude : magnitude
-}
-
-function toSafe(n: bigint, field: string): number {
-  const x = Number(n)
-  if (!Number.isSafeInteger(x)) throw new RangeError(`${field} is too large`)
-  return x
 }
 
 const inRange = (date: string, start: string, end: string) => start <= date && date <= end
