@@ -50,7 +50,8 @@ export default defineNuxtConfig({
     viewer: false,
   },
   // SETWELL_OUTPUT_DIR lets two builds live side by side (a second checkout of the tests); normally .output
-  ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}-nuxt` } : {}),
+  // (its own build folder and its own Vite cache, so two builds at once do not share files)
+  ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}-nuxt`, vite: { cacheDir: `${process.env.SETWELL_OUTPUT_DIR}-vite` } } : {}),
   nitro: {
     // Node 20 runs ES2022; the default es2019 target warns on the BigInt literals in shared/utils
     esbuild: { options: { target: 'es2022' } },
