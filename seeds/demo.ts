@@ -63,4 +63,10 @@ export const DEMO_PRICE_BOOK = {
   materialsMarkupPercent: 15,
   minDeductCm2: 5000,
   m2PerDay: 30,
+  /** Generic making good priced by the item (invented demo prices). */
+  makingGoodItems: [
+    { name: 'Make good round a socket or switch', unit: 'item', pricePence: 12_00 },
+    { name: 'Make good round a new pipe or cable run', unit: 'metre', pricePence: 8_00 },
+    { name: 'Patch a hole up to a hand\'s width', unit: 'item', pricePence: 25_00 },
+  ],
 }

@@ -1,8 +1,8 @@
 // A quote's first draft from a measured visit: the take-off (shared/utils/takeoff.ts) priced from
 // the firm's price book, and the materials estimate (shared/utils/materials.ts) at cost plus the
 // firm's mark-up. Every line keeps its derivation, so the plasterer can check it by hand.
-import { estimateMaterials } from '#shared/utils/materials'
-import { takeoffRooms } from '#shared/utils/takeoff'
+import { estimateMaterials, estimateMaterialsByRoom } from '#shared/utils/materials'
+import { takeoffRoom, takeoffRooms } from '#shared/utils/takeoff'
 import { draftLines } from '#shared/utils/quote-draft'
 import { ASBESTOS_CAUTION } from '#shared/utils/ledger'
 import { formatSquareMetres } from '#shared/utils/measure'
@@ -26,12 +26,18 @@ export async function materialsEstimateForVisit(f: FirmScope, visitId: string) {
 export async function draftFromVisit(f: FirmScope, visitId: string) {
   const book = await usePriceBook(f)
   const rooms = await loadRooms(f, visitId)
-  const lines = takeoffRooms(rooms, takeoffOptions(book))
-  const { lines: drafted, estimatedDaysX100 } = draftLines(lines, book, await catalogue(f))
+  const options = takeoffOptions(book)
+  const lines = takeoffRooms(rooms, options)
+  const materials = await catalogue(f)
+  const { lines: drafted, estimatedDaysX100 } = draftLines(lines, book, materials)
+  // the same estimate room by room, at cost (each room rounded up on its own), for the quote page's breakdown
+  const roomEstimates = estimateMaterialsByRoom(rooms.map(r => ({ roomName: r.name, lines: takeoffRoom(r, options) })), materials, { wastePercent: book.materialsWastePercent })
+    .map(r => ({ roomName: r.roomName, materials: r.materials.map(({ name, packs, packLabel, costPence, derivation }) => ({ name, packs, packLabel, costPence, derivation })) }))
   const textured = rooms.some(r => r.surfaces.some(s => s.conditions.some(c => c.kind === 'textured-coating')))
   return {
     lines: drafted as NewLine[],
     estimatedDaysX100,
+    roomEstimates,
     cautions: textured ? [ASBESTOS_CAUTION] : [],
     rules: {
       voids: book.minDeductCm2 > 0

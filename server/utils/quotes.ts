@@ -13,12 +13,7 @@ export function taxLines(lines: Pick<QuoteLineRow, 'kind' | 'quantityX1000' | 'u
   return lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent as 0 | 5 | 20 }))
 }
 
-/** The VAT treatment a quote starts with, from the firm's registration and the customer's flags (DOMAIN.md). */
-export function suggestedVat(firm: { vatRegistered: boolean }, customer: { kind: string, vatRegistered: boolean, paysUnderCis: boolean, endUserNotified: boolean }) {
-  if (!firm.vatRegistered) return 'not-registered' as const
-  if (customer.kind !== 'homeowner' && customer.vatRegistered && customer.paysUnderCis && !customer.endUserNotified) return 'reverse-charge' as const
-  return 'standard' as const
-}
+// suggestedVat (the VAT treatment a quote or invoice starts with) is in shared/utils/vat-treatment.ts.
 
 export async function findQuote(f: FirmScope, id: string, lock = false) {
   const q = f.tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, id)))

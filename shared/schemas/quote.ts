@@ -4,6 +4,18 @@ import { whenObject } from './common'
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(100_000_00, { error: `${what} looks too high.` })
 const percent = (max = 100) => z.int({ error: 'Enter a whole percentage.' }).min(0).max(max)
 
+/** A making-good item of the price book: what it is, what it is priced by, and its price. */
+export const makingGoodItemSchema = z.object({
+  name: z.string({ error: 'Name the item.' }).trim().min(2, { error: 'Name the item, like "Make good round a socket".' }).max(120, { error: 'Keep the name under 120 characters.' }),
+  unit: z.string({ error: 'Enter the unit, like item.' }).trim().min(1, { error: 'Enter the unit, like item.' }).max(20, { error: 'Keep the unit short, like item or metre.' }),
+  pricePence: pence('The price'),
+})
+export type MakingGoodItemInput = z.infer<typeof makingGoodItemSchema>
+
+const stockLength = z.int({ error: 'A bead length is a whole number of millimetres.' })
+  .min(500, { error: 'A bead length is at least 0.5 m.' })
+  .max(6000, { error: 'A bead length is at most 6 m.' })
+
 export const priceBookSchema = z.object({
   skimWallsPerM2Pence: pence('The wall skim rate'),
   skimCeilingsPerM2Pence: pence('The ceiling skim rate'),
@@ -14,7 +26,10 @@ export const priceBookSchema = z.object({
   materialsMarkupPercent: percent(200),
   minDeductCm2: z.union([z.literal(0), z.literal(5000)], { error: 'Deduct every opening (0) or leave voids up to 0.5 m² in (5000 cm²).' }),
   narrowMaxMm: z.int().min(50).max(1000),
-  beadStockLengthsMm: z.array(z.int().min(500).max(6000)).min(1).max(4),
+  beadStockLengthsMm: z.array(stockLength, { error: 'Enter the bead lengths you buy.' })
+    .min(1, { error: 'Enter at least one bead length, like 2.5, 3.0.' })
+    .max(4, { error: 'Four bead lengths at most.' })
+    .refine(a => new Set(a).size === a.length, { error: 'Each bead length once only.' }),
   beadWastePercent: percent(50),
   materialsWastePercent: percent(50),
   m2PerDay: z.int({ error: 'Enter the square metres finished in a day.' }).min(1).max(500),
@@ -25,6 +40,10 @@ export const priceBookSchema = z.object({
   cornerTrowelMm: z.int({ error: 'Enter the width in whole mm.' }).min(20, { error: 'At least 20 mm.' }).max(400, { error: 'Over 400 mm? Check the figure.' }).optional(),
   outOfTrueToleranceMm: z.int({ error: 'Enter whole mm.' }).min(0).max(100, { error: 'Over 100 mm? Check the figure.' }).optional(),
   bagsPerPersonPerSet: z.int({ error: 'Enter whole bags.' }).min(1, { error: 'At least one bag.' }).max(20, { error: 'Over 20 bags? Check the figure.' }).optional(),
+  // optional, like the site rules: a client that does not know them leaves the list as it is
+  makingGoodItems: z.array(makingGoodItemSchema).max(40, { error: 'Forty making-good items at most.' })
+    .refine(a => new Set(a.map(i => i.name.trim().toLowerCase())).size === a.length, { error: 'Each making-good item needs its own name.' })
+    .optional(),
 })
 export type PriceBookInput = z.infer<typeof priceBookSchema>
 

@@ -150,8 +150,24 @@ function pluralPacks(n: number, label: string): string {
   return `${n} x ${label}`
 }
 
-function areaLine(what: string, type: MaterialType, areaCm2: number, thicknessMm: number, catalogue: readonly Material[], wastePercent: number): MaterialLine {
-  const m = catalogue.find(x => x.type === type && x.coverage.kind === 'area')
+/**
+ * Undercoats the estimate takes for an undercoat area, in order of preference: a bonding undercoat,
+ * else a browning (or another undercoat the catalogue lists under those types). The plasterer picks
+ * the one that suits the background (bonding for low suction, browning for masonry: common practice).
+ */
+export const UNDERCOAT_TYPES: readonly MaterialType[] = ['bonding-undercoat', 'browning']
+
+/** The catalogue's first area material of the first of `types` it has. */
+function firstAreaMaterial(catalogue: readonly Material[], types: readonly MaterialType[]): Material | undefined {
+  for (const type of types) {
+    const m = catalogue.find(x => x.type === type && x.coverage.kind === 'area')
+    if (m) return m
+  }
+  return undefined
+}
+
+function areaLine(what: string, types: readonly MaterialType[], areaCm2: number, thicknessMm: number, catalogue: readonly Material[], wastePercent: number): MaterialLine {
+  const m = firstAreaMaterial(catalogue, types)
   if (!m || m.coverage.kind !== 'area') {
     return { materialKey: null, name: what, packs: 0, packLabel: '', costPence: 0, derivation: `${formatSquareMetres(areaCm2)} m² needs ${what.toLowerCase()}, but the catalogue has none: add one to estimate it.` }
   }
@@ -175,10 +191,11 @@ function areaLine(what: string, type: MaterialType, areaCm2: number, thicknessMm
  * Materials for a take-off, each rounded up to whole packs, cost = packs x the catalogue price:
  * - skim areas ('skim-walls', 'skim-ceilings', 'reveals-area', and the face area of 'reveals-lm')
  *   -> the first 'finish' material, at `finishThicknessMm`, plus waste;
- * - undercoat areas ('undercoat', 'fill-patches') -> the first 'bonding-undercoat', at
- *   `undercoatThicknessMm`, plus waste (the skim on top is already in the skim area);
+ * - undercoat areas ('undercoat', 'fill-patches') -> the first 'bonding-undercoat', or failing
+ *   that the first 'browning' (UNDERCOAT_TYPES), at `undercoatThicknessMm`, plus waste (the skim
+ *   on top is already in the skim area);
  * - 'bead-lengths' -> the 'bead' material of that stock length, as many as the take-off says
- *   (it has added the waste already);
+ *   (it has added the waste already; its working is carried into the line's derivation);
  * - 'scrim' -> rolls of the first 'scrim' material, plus waste.
  * A kind of material the catalogue lacks gives a line with materialKey null that says so.
  * Rules of thumb for ordering, not a guarantee of what the job will use.
@@ -189,23 +206,32 @@ export function estimateMaterials(lines: readonly TakeoffLine[], catalogue: read
   let undercoatCm2 = 0
   let scrimMm = 0
   const beads = new Map<number, number>()
+  const beadWorking = new Map<number, string[]>()
   for (const l of lines) {
     if (l.key === 'skim-walls' || l.key === 'skim-ceilings' || l.key === 'reveals-area') skimCm2 += l.quantity
     else if (l.key === 'reveals-lm') skimCm2 += l.areaCm2 ?? 0
     else if (l.key === 'undercoat' || l.key === 'fill-patches') undercoatCm2 += l.quantity
     else if (l.key === 'scrim') scrimMm += l.quantity
-    else if (l.key === 'bead-lengths' && l.stockLengthMm) beads.set(l.stockLengthMm, (beads.get(l.stockLengthMm) ?? 0) + l.quantity)
+    else if (l.key === 'bead-lengths' && l.stockLengthMm) {
+      beads.set(l.stockLengthMm, (beads.get(l.stockLengthMm) ?? 0) + l.quantity)
+      if (l.derivation) beadWorking.set(l.stockLengthMm, [...(beadWorking.get(l.stockLengthMm) ?? []), l.derivation])
+    }
   }
   const out: MaterialLine[] = []
-  if (skimCm2 > 0) out.push(areaLine('Finish plaster', 'finish', skimCm2, o.finishThicknessMm, catalogue, o.wastePercent))
-  if (undercoatCm2 > 0) out.push(areaLine('Bonding undercoat', 'bonding-undercoat', undercoatCm2, o.undercoatThicknessMm, catalogue, o.wastePercent))
+  if (skimCm2 > 0) out.push(areaLine('Finish plaster', ['finish'], skimCm2, o.finishThicknessMm, catalogue, o.wastePercent))
+  if (undercoatCm2 > 0) out.push(areaLine('Undercoat', UNDERCOAT_TYPES, undercoatCm2, o.undercoatThicknessMm, catalogue, o.wastePercent))
   for (const [stockMm, count] of [...beads.entries()].sort((a, b) => a[0] - b[0])) {
     const m = catalogue.find(x => x.type === 'bead' && x.coverage.kind === 'length' && scaled(x.coverage.metresPerPack, 3, 'metresPerPack') === BigInt(stockMm))
     if (!m) {
       out.push({ materialKey: null, name: `Bead, ${formatStockLength(stockMm)} m`, packs: 0, packLabel: '', costPence: 0, derivation: `${count} bead lengths of ${formatStockLength(stockMm)} m needed, but the catalogue has no bead of that length: add one to estimate it.` })
       continue
     }
-    out.push({ materialKey: m.key, name: m.name, packs: count, packLabel: m.packLabel, costPence: count * m.costPence, derivation: `${pluralPacks(count, m.packLabel)} from the take-off (waste included there)` })
+    // the take-off's working ("2.5 m bead: 2 lengths + 10% waste = 2.2, rounded up to 3 lengths"), so it can be checked by hand
+    const working = beadWorking.get(stockMm)?.join('; ')
+    out.push({
+      materialKey: m.key, name: m.name, packs: count, packLabel: m.packLabel, costPence: count * m.costPence,
+      derivation: working ? `${working}: order ${pluralPacks(count, m.packLabel)}` : `${pluralPacks(count, m.packLabel)} from the take-off (waste included there)`,
+    })
   }
   if (scrimMm > 0) {
     const m = catalogue.find(x => x.type === 'scrim' && x.coverage.kind === 'length')
@@ -226,4 +252,20 @@ export function estimateMaterials(lines: readonly TakeoffLine[], catalogue: read
     }
   }
   return out
+}
+
+/** One room's materials estimate. */
+export interface RoomMaterials { roomName: string, materials: MaterialLine[] }
+
+/**
+ * The materials estimate room by room: `estimateMaterials` of each room's own take-off (from
+ * `takeoffRoom`, so each room has its own bead order with its own waste). Each room is rounded up
+ * to whole packs on its own, so the rooms add up to at least the whole-quote estimate, usually a
+ * little more: order by the whole quote, use the rooms to see where the materials go.
+ * Rooms with nothing to estimate are left out.
+ */
+export function estimateMaterialsByRoom(roomTakeoffs: readonly { roomName: string, lines: readonly TakeoffLine[] }[], catalogue: readonly Material[], options: Partial<EstimateOptions> = {}): RoomMaterials[] {
+  return roomTakeoffs
+    .map(r => ({ roomName: r.roomName, materials: estimateMaterials(r.lines, catalogue, options) }))
+    .filter(r => r.materials.length > 0)
 }

@@ -4,6 +4,7 @@
 // (server/utils/quote-draft.ts) and the demo seed both use it.
 import { estimateMaterials, type Material } from './materials'
 import type { TakeoffKey, TakeoffLine } from './takeoff'
+import { formatPence } from './money'
 
 export interface DraftPriceBook {
   skimWallsPerM2Pence: number
@@ -78,4 +79,20 @@ export function draftLines(takeoff: readonly TakeoffLine[], book: DraftPriceBook
   const skimCm2 = takeoff.filter(l => l.unit === 'm2').reduce((s, l) => s + l.quantity, 0)
   const estimatedDaysX100 = book.m2PerDay > 0 ? Math.ceil((skimCm2 / 10_000 / book.m2PerDay) * 4) * 25 : 0
   return { lines: [...labour, ...materialLines], estimatedDaysX100 }
+}
+
+/** A making-good item of the price book (a switch box, a patch round a new pipe): priced by its own unit. */
+export interface MakingGoodItem { name: string, unit: string, pricePence: number }
+
+/** A making-good item as a labour line of one unit, its price from the price book (the plasterer changes the quantity). */
+export function makingGoodLine(item: MakingGoodItem): DraftLine {
+  return {
+    kind: 'labour',
+    description: item.name,
+    quantityX1000: 1000,
+    unit: item.unit,
+    unitPence: item.pricePence,
+    vatRatePercent: 20,
+    derivation: `Making good from the price book: ${formatPence(item.pricePence)} per ${item.unit}`,
+  }
 }

@@ -9,7 +9,7 @@
 // a quote, not a survey: the plasterer checks the figures against the job.
 import type { Background, ConditionKind, CornerKind, OpeningKind, SurfaceKind } from './ledger'
 import { OPENING_KIND_LABELS, SURFACE_KIND_LABELS } from './ledger'
-import { formatMetres, formatSquareMetres } from './measure'
+import { formatMetres, formatSquareMetres, parseMetres } from './measure'
 
 /** Older UK measurement rules (SMM7) left voids of 0.5 m² or less in: 5000 cm² (DOMAIN.md, "Areas"). */
 export const SMM7_MIN_DEDUCT_CM2 = 5000
@@ -130,6 +130,27 @@ function checkOptions(o: TakeoffOptions): void {
 export function formatStockLength(mm: number): string {
   const s = (mm / 1000).toFixed(3).replace(/0+$/, '')
   return s.endsWith('.') ? `${s}0` : s
+}
+
+/**
+ * The bead stock lengths as a person types them, in metres separated by commas or spaces
+ * ('2.5, 3.0', '2.5 3'), to whole mm sorted shortest first; or what is wrong, in words for the
+ * field. One to four lengths, each from 0.5 m to 6 m, each once. A decimal comma is not read here
+ * (the comma separates the lengths).
+ */
+export function parseStockLengths(input: string): { ok: true, mm: number[] } | { ok: false, message: string } {
+  const parts = input.split(/[\s,;]+/).filter(Boolean)
+  if (!parts.length) return { ok: false, message: 'Enter the bead lengths you buy, in metres, like 2.5, 3.0.' }
+  const mm: number[] = []
+  for (const p of parts) {
+    const n = /^\d*\.?\d+$|^\d+\.$/.test(p) ? parseMetres(p) : null
+    if (n === null) return { ok: false, message: `"${p}" is not a length in metres: write them like 2.5, 3.0.` }
+    if (n < 500 || n > 6000) return { ok: false, message: `${formatStockLength(n)} m? A bead length is from 0.5 m to 6 m.` }
+    if (mm.includes(n)) return { ok: false, message: `${formatStockLength(n)} m is there twice: list each length once.` }
+    mm.push(n)
+  }
+  if (mm.length > 4) return { ok: false, message: 'Four bead lengths at most.' }
+  return { ok: true, mm: mm.sort((a, b) => a - b) }
 }
 
 function surfaceName(s: TakeoffSurface): string {

@@ -33,6 +33,39 @@ describe('the price book', () => {
     expectCleanRun(person)
   })
 
+  it('sets the bead lengths and a making-good item, with a clear message for a bad length', async () => {
+    const person = await e2e.open()
+    const { page } = person
+    await signInToDashboard(page, e2e.url, OWNER.email, OWNER.password)
+    await visit(page, `${e2e.url}/price-book`)
+    await expectVisible(page.getByRole('heading', { name: 'Price book' }))
+    // the seeded lengths read back in metres
+    expect(await page.getByLabel('Bead lengths you buy (m)').inputValue()).toBe('2.5, 3.0')
+    await page.getByLabel('Bead lengths you buy (m)').fill('2.5, 30')
+    await page.getByRole('button', { name: '+ Making-good item' }).click()
+    const item = page.getByTestId('making-good-item').last()
+    await item.getByLabel(/^Item \d+$/).fill('Make good round a new boiler flue')
+    await item.getByLabel('Price (£)').fill('45')
+    await page.getByRole('button', { name: 'Save price book' }).click()
+    await expectText(page.getByRole('alert').filter({ hasText: 'bead length' }), '30.0 m? A bead length is from 0.5 m to 6 m.')
+    expect(await item.getByLabel(/^Item \d+$/).inputValue()).toBe('Make good round a new boiler flue')
+    await page.getByLabel('Bead lengths you buy (m)').fill('3, 2.4')
+    await page.getByRole('button', { name: 'Save price book' }).click()
+    await expectVisible(page.getByText('Saved. New quotes use these rates.'))
+    expect(await page.getByLabel('Bead lengths you buy (m)').inputValue()).toBe('2.4, 3.0')
+    await screenshot(page, 'price-book-making-good')
+
+    const api = new Client(e2e.url)
+    await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
+    const book = (await api.get('/api/price-book')).body
+    expect(book.beadStockLengthsMm).toEqual([2400, 3000])
+    expect(book.makingGoodItems).toContainEqual({ name: 'Make good round a new boiler flue', unit: 'item', pricePence: 4500 })
+    // put the seeded lengths back for the other journeys
+    const { firmId: _f, createdAt: _c, updatedAt: _u, ...rest } = book
+    expect((await api.put('/api/price-book', { ...rest, beadStockLengthsMm: [2500, 3000] })).status).toBe(200)
+    expectCleanRun(person)
+  })
+
   it('changes what a pack of finish plaster costs, keeping what was typed when a figure is wrong', async () => {
     const person = await e2e.open()
     const { page } = person

@@ -32,6 +32,13 @@ describe('quoting from a measured visit', () => {
     const draft = (await api.get(`/api/quotes/${quoteId}`)).body
     expect(draft.current.pricing).toBe('measure')
     expect(draft.current.lines.length).toBeGreaterThan(3)
+    // making good from the price book (seeded: "Make good round a socket or switch", £12.00), as a labour line
+    await owner.getByLabel('Making good from the price book').selectOption({ label: 'Make good round a socket or switch (£12.00 per item)' })
+    await owner.getByRole('button', { name: '+ Add from the price book' }).click()
+    await expectVisible(owner.getByTestId('quote-line').last().getByText('How: Making good from the price book: £12.00 per item'))
+    // the materials room by room
+    await owner.getByTestId('room-estimates').getByText(/Materials room by room/).click()
+    await expectVisible(owner.getByTestId('room-estimates').getByText(/How: .* rounded up to/).first())
     await screenshot(owner, 'quote-draft')
 
     await owner.getByRole('button', { name: 'Send quote' }).click()
@@ -54,6 +61,7 @@ describe('quoting from a measured visit', () => {
     await reload(owner)
     await expectText(owner.getByTestId('quote-status'), 'Accepted')
     expect((await api.get(`/api/quotes/${quoteId}`)).body.current).toMatchObject({ status: 'accepted', acceptedName: 'Harriet Colley' })
+    expect(sent.current.lines.at(-1)).toMatchObject({ kind: 'labour', description: 'Make good round a socket or switch', quantityX1000: 1000, unitPence: 12_00 })
     await e2e.app.waitForMail('@', /accepted by Harriet Colley/)
     expectCleanRun(jess)
     expectCleanRun(harriet)

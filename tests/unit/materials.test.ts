@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { Material, MaterialLine } from '../../shared/utils/materials'
-import { DEFAULT_ESTIMATE_OPTIONS, DEFAULT_MATERIALS, estimateMaterials, packsNeeded } from '../../shared/utils/materials'
+import { DEFAULT_ESTIMATE_OPTIONS, DEFAULT_MATERIALS, estimateMaterials, estimateMaterialsByRoom, packsNeeded, UNDERCOAT_TYPES } from '../../shared/utils/materials'
 import type { TakeoffLine } from '../../shared/utils/takeoff'
 import { takeoffRoom } from '../../shared/utils/takeoff'
 
@@ -71,13 +71,22 @@ describe('DEFAULT_MATERIALS', () => {
     expect(m?.source.startsWith(source)).toBe(true)
   })
 
-  it('every price is an invented demo price in whole pence, and no entry names a brand', () => {
+  it('every price is an invented demo price in whole pence', () => {
     expect(DEFAULT_MATERIALS).toHaveLength(5)
     for (const m of DEFAULT_MATERIALS) {
       expect(Number.isSafeInteger(m.costPence) && m.costPence > 0).toBe(true)
       expect(m.source).toContain('Demo price (invented)')
     }
     expect(new Set(DEFAULT_MATERIALS.map(m => m.key)).size).toBe(DEFAULT_MATERIALS.length)
+  })
+
+  // A brand cannot be recognised without looking products up, so the check is the other way round:
+  // every word of a name and a pack label is a generic word of the trade or a measure. A trade name
+  // added to the defaults is not on this list and fails here.
+  const GENERIC_WORDS = new Set(['gypsum', 'finish', 'plaster', 'bonding', 'undercoat', 'browning', 'angle', 'bead', 'scrim', 'tape', 'bag', 'length', 'roll', 'kg', 'm'])
+  it.each(DEFAULT_MATERIALS.map(m => [m.key, m] as const))('%s is named in generic words only (no trade names)', (_key, m) => {
+    const words = `${m.name} ${m.packLabel}`.toLowerCase().split(/[^a-z]+/).filter(Boolean)
+    expect(words.filter(w => !GENERIC_WORDS.has(w))).toEqual([])
   })
 
   it('defaults: finish 2 mm, undercoat 11 mm, waste 10% (DOMAIN.md: common practice)', () => {
@@ -142,10 +151,70 @@ describe('estimateMaterials (default catalogue: common practice coverage, demo p
 
   it('an empty take-off needs nothing', () => expect(estimateMaterials([], DEFAULT_MATERIALS)).toEqual([]))
 
+  it('carries the bead order\'s working into the bead line, so it can be checked by hand (10% waste, common practice)', () => {
+    // two 2.40 m corners, 1 x 2.5 m each: 2 lengths x 1.10 = 2.2 -> 3 lengths (tests/unit/takeoff.test.ts)
+    const corners = [1, 2].map(n => ({ id: `c${n}`, kind: 'external' as const, lengthMm: 2400, needsBead: true }))
+    const lines = takeoffRoom({ name: 'Hall', surfaces: [], corners })
+    const [bead] = estimateMaterials(lines, DEFAULT_MATERIALS)
+    expect(bead).toEqual({
+      materialKey: 'angle-bead-2500', name: 'Angle bead, 2.5 m', packs: 3, packLabel: '2.5 m length', costPence: 750,
+      derivation: '2.5 m bead: 2 lengths + 10% waste = 2.2, rounded up to 3 lengths: order 3 x 2.5 m length',
+    })
+  })
+
+  describe('undercoat from the catalogue (common practice: bonding for low suction, browning for masonry)', () => {
+    // invented catalogue rows; coverage as DOMAIN.md gives for an undercoat (2.5 to 3.5 m² at 8 to 11 mm)
+    const browning: Material = { key: 'browning', type: 'browning', name: 'Browning undercoat', packLabel: '25 kg bag', coverage: { kind: 'area', m2PerPack: 3.5, atThicknessMm: 11 }, costPence: 1300, source: 'Common practice (test figure)' }
+    const noBonding = DEFAULT_MATERIALS.filter(m => m.type !== 'bonding-undercoat')
+
+    it('takes a browning when the catalogue has no bonding undercoat', () => {
+      // 7.80 m² at 11 mm, 3.5 m² a bag at 11 mm, + 10% = 7.80 x 1.1 / 3.5 = 2.4514 -> 3 bags x £13.00
+      const out = estimateMaterials([line('undercoat', 'm2', 72_000), line('fill-patches', 'm2', 6000)], [...noBonding, browning])
+      expect(out).toEqual([{ materialKey: 'browning', name: 'Browning undercoat', packs: 3, packLabel: '25 kg bag', costPence: 3900, derivation: '7.80 m² at 11 mm, 3.5 m² a pack at 11 mm, + 10% waste = 2.45, rounded up to 3 x 25 kg bag' }])
+    })
+
+    it('prefers a bonding undercoat when there are both', () => {
+      const out = estimateMaterials([line('undercoat', 'm2', 72_000)], [browning, ...DEFAULT_MATERIALS])
+      expect(out.map(m => m.materialKey)).toEqual(['bonding-undercoat'])
+      expect(UNDERCOAT_TYPES).toEqual(['bonding-undercoat', 'browning'])
+    })
+
+    it('says so when the catalogue has no undercoat at all', () => {
+      const out = estimateMaterials([line('undercoat', 'm2', 72_000)], noBonding)
+      expect(out).toEqual([{ materialKey: null, name: 'Undercoat', packs: 0, packLabel: '', costPence: 0, derivation: '7.20 m² needs undercoat, but the catalogue has none: add one to estimate it.' }])
+    })
+  })
+
   it('works from a real take-off: a wall back to masonry is undercoated and skimmed (common practice)', () => {
     const lines = takeoffRoom({ name: 'Kitchen', surfaces: [{ id: 's1', kind: 'wall', lengthMm: 3000, secondMm: 2400, background: 'masonry' }] })
     const out = estimateMaterials(lines, DEFAULT_MATERIALS)
     // skim 7.20 x 1.1 / 10 = 0.792 -> 1 bag; undercoat 7.20 x 11 / 10 / 3 x 1.1 = 2.904 -> 3 bags
     expect(out.map(m => [m.materialKey, m.packs, m.costPence])).toEqual([['finish-plaster', 1, 1200], ['bonding-undercoat', 3, 4500]])
+  })
+})
+
+describe('estimateMaterialsByRoom (default catalogue: common practice coverage, demo prices)', () => {
+  const rooms = [
+    // 4.00 x 2.40 = 9.60 m² of skim: 9.60 x 1.1 / 10 = 1.056 -> 2 bags
+    { name: 'Front bedroom', surfaces: [{ id: 'a', kind: 'wall' as const, lengthMm: 4000, secondMm: 2400 }] },
+    // 3.00 x 2.40 = 7.20 m² back to masonry: skim 0.792 -> 1 bag; undercoat 7.20 x 11 / 10 / 3 x 1.1 = 2.904 -> 3 bags
+    { name: 'Kitchen', surfaces: [{ id: 'b', kind: 'wall' as const, lengthMm: 3000, secondMm: 2400, background: 'masonry' as const }] },
+    { name: 'Landing', surfaces: [] },
+  ]
+  const byRoom = estimateMaterialsByRoom(rooms.map(r => ({ roomName: r.name, lines: takeoffRoom(r) })), DEFAULT_MATERIALS)
+
+  it('gives each room its own packs and cost, and leaves out rooms with nothing to estimate', () => {
+    expect(byRoom.map(r => [r.roomName, r.materials.map(m => [m.materialKey, m.packs, m.costPence])])).toEqual([
+      ['Front bedroom', [['finish-plaster', 2, 2400]]],
+      ['Kitchen', [['finish-plaster', 1, 1200], ['bonding-undercoat', 3, 4500]]],
+    ])
+  })
+
+  it('rounds each room up on its own, so the rooms add up to at least the whole estimate', () => {
+    // whole: 9.60 + 7.20 = 16.80 m² x 1.1 / 10 = 1.848 -> 2 bags, where the rooms take 2 + 1 = 3
+    const whole = estimateMaterials(rooms.flatMap(r => takeoffRoom(r)), DEFAULT_MATERIALS)
+    expect(whole.find(m => m.materialKey === 'finish-plaster')?.packs).toBe(2)
+    const roomFinish = byRoom.flatMap(r => r.materials).filter(m => m.materialKey === 'finish-plaster').reduce((n, m) => n + m.packs, 0)
+    expect(roomFinish).toBe(3)
   })
 })

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { TakeoffLine, TakeoffOptions, TakeoffRoom, TakeoffSurface } from '../../shared/utils/takeoff'
-import { beadLengthsFor, DEFAULT_TAKEOFF_OPTIONS, formatStockLength, netWallAreaM2, SMM7_MIN_DEDUCT_CM2, takeoffRoom, takeoffRooms, withWasteRoundedUp } from '../../shared/utils/takeoff'
+import { beadLengthsFor, DEFAULT_TAKEOFF_OPTIONS, formatStockLength, netWallAreaM2, parseStockLengths, SMM7_MIN_DEDUCT_CM2, takeoffRoom, takeoffRooms, withWasteRoundedUp } from '../../shared/utils/takeoff'
 
 // Sources (../shared/DOMAIN.md, "Quantities and materials"): wall = length x height less openings,
 // ceiling = length x width (common practice); SMM7 left voids of 0.5 m² or less in (SMM7, as
@@ -18,7 +18,7 @@ describe('netWallAreaM2', () => {
     ['half up at the third decimal', { lengthM: 1.005, heightM: 1 }, undefined, 1.01],
     // arithmetic: 1.004 m² -> 1.00
     ['below half stays down', { lengthM: 1.004, heightM: 1 }, undefined, 1],
-    // default rule deducts every opening: 9.60 - 1.00 x 0.50 = 9.10
+    // our rule (the firm's default, DOMAIN.md "Areas": deduct every opening unless the firm chooses SMM7): 9.60 - 1.00 x 0.50 = 9.10
     ['default: a 0.5 m² void is deducted', { lengthM: 4, heightM: 2.4, openings: [{ widthM: 1, heightM: 0.5 }] }, undefined, 9.1],
     // SMM7 (DOMAIN.md): a void of exactly 0.5 m² is not over 0.5, so it stays in: 9.60
     ['SMM7: exactly 0.5 m² stays in', { lengthM: 4, heightM: 2.4, openings: [{ widthM: 1, heightM: 0.5 }] }, { minDeductM2: 0.5 }, 9.6],
@@ -63,6 +63,30 @@ describe('bead lengths', () => {
   ])('%i lengths + %i%% waste -> %i', (count, waste, total) => expect(withWasteRoundedUp(count, waste)).toBe(total))
 
   it.each([[2500, '2.5'], [3000, '3.0'], [2440, '2.44'], [600, '0.6']])('%i mm reads %s m', (mm, text) => expect(formatStockLength(mm)).toBe(text))
+
+  // the price book's field: stock lengths as typed (supplier listings: 2.5 m and 3.0 m)
+  it.each<[string, number[]]>([
+    ['2.5, 3.0', [2500, 3000]],
+    ['3 2.5', [2500, 3000]], // sorted shortest first
+    [' 2.44 ;3.6 ', [2440, 3600]],
+    ['0.5', [500]], // the shortest accepted
+    ['6', [6000]], // the longest accepted
+  ])('"%s" reads as %o mm', (typed, mm) => expect(parseStockLengths(typed)).toEqual({ ok: true, mm }))
+
+  it.each<[string, RegExp]>([
+    ['', /Enter the bead lengths/],
+    ['2.5, three', /"three" is not a length/],
+    ['2500', /not a length in metres/], // millimetres typed by mistake (four whole digits)
+    ['0.4', /from 0.5 m to 6 m/],
+    ['6.001', /from 0.5 m to 6 m/],
+    ['2.5, 2.50', /2.5 m is there twice/],
+    ['1, 2, 3, 4, 5', /Four bead lengths at most/],
+    ['2.5.1', /not a length/],
+  ])('"%s" is refused with a message', (typed, message) => {
+    const r = parseStockLengths(typed)
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.message).toMatch(message)
+  })
 })
 
 const wall = (over: Partial<TakeoffSurface> = {}): TakeoffSurface => ({ id: 's1', kind: 'wall', lengthMm: 4000, secondMm: 2400, ...over })
@@ -78,7 +102,7 @@ describe('takeoffRoom: one surface at a time', () => {
     // SMM7 (DOMAIN.md): door 0.40 x 0.50 = 0.20 m², not over 0.50, left in: 9.60 m²
     ['SMM7: a small void left in, and said so', wall({ openings: [{ kind: 'door', widthMm: 400, heightMm: 500 }] }), smm7,
       [{ ...at, key: 'skim-walls', unit: 'm2', quantity: 96_000, derivation: 'Wall 4.00 x 2.40 - door 0.40 x 0.50 left in (0.20 m², not over 0.50 m²) = 9.60 m²' }]],
-    // deduct-all rule: 9.60 - 0.20 = 9.40
+    // our rule (deduct all, the default): 9.60 - 0.20 = 9.40
     ['deduct all: the same void comes off', wall({ openings: [{ kind: 'door', widthMm: 400, heightMm: 500 }] }), {},
       [{ ...at, key: 'skim-walls', unit: 'm2', quantity: 94_000, derivation: 'Wall 4.00 x 2.40 - door 0.40 x 0.50 = 9.40 m²' }]],
     // SMM7: a void of exactly 0.50 m² (1.00 x 0.50) stays in
@@ -90,7 +114,7 @@ describe('takeoffRoom: one surface at a time', () => {
     // common practice: ceiling = length x width, 4.00 x 3.00 = 12.00 m²
     ['a ceiling', { id: 's1', kind: 'ceiling', lengthMm: 4000, secondMm: 3000 }, {},
       [{ ...at, key: 'skim-ceilings', unit: 'm2', quantity: 120_000, derivation: 'Ceiling 4.00 x 3.00 = 12.00 m²' }]],
-    // a chimney breast is skimmed like a wall: 1.20 x 2.40 = 2.88 m²
+    // common practice: a chimney breast is skimmed like a wall, priced with the walls: 1.20 x 2.40 = 2.88 m²
     ['a chimney breast counts as wall', { id: 's1', kind: 'chimney-breast', lengthMm: 1200, secondMm: 2400 }, {},
       [{ ...at, key: 'skim-walls', unit: 'm2', quantity: 28_800, derivation: 'Chimney breast 1.20 x 2.40 = 2.88 m²' }]],
     // from memory (DOMAIN.md): up to 300 mm wide by the linear metre; face area 1.20 x 0.25 = 0.30 m² kept for materials
@@ -102,7 +126,7 @@ describe('takeoffRoom: one surface at a time', () => {
     // from memory: 301 mm is over, so by area: 1.20 x 0.301 = 0.3612 m² = 3612 cm²
     ['a 301 mm reveal goes by area', { id: 's1', kind: 'reveal', lengthMm: 1200, secondMm: 301 }, {},
       [{ ...at, key: 'reveals-area', unit: 'm2', quantity: 3612, derivation: 'Reveal 1.20 x 0.30 = 0.36 m² (over 0.30 m deep, so by area)' }]],
-    // a wide strip by area: 2.00 x 0.45 = 0.90 m²
+    // from memory (DOMAIN.md "Areas": up to 300 mm by the metre, so wider by area): 2.00 x 0.45 = 0.90 m²
     ['a wide strip by area', { id: 's1', kind: 'strip', label: 'Bulkhead', lengthMm: 2000, secondMm: 450 }, {},
       [{ ...at, key: 'reveals-area', unit: 'm2', quantity: 9000, derivation: 'Bulkhead 2.00 x 0.45 = 0.90 m² (over 0.30 m wide, so by area)' }]],
     // common practice (DOMAIN.md "The work"): back to masonry -> undercoat over the whole surface, then skim; its patches are inside that

@@ -25,7 +25,7 @@ export default defineEventHandler(async (event) => {
     const number = await nextQuoteNumber(f)
     const [quote] = await f.tx.insert(quotes).values(f.values({ number, customerId: customer.id, siteId: input.siteId, enquiryId: input.enquiryId, visitId: input.visitId })).returning()
     const validUntil = new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10)
-    const draft = input.visitId ? await draftFromVisit(f, input.visitId) : { lines: [], rules: {}, estimatedDaysX100: 0, cautions: [] as string[] }
+    const draft = input.visitId ? await draftFromVisit(f, input.visitId) : { lines: [], rules: {}, estimatedDaysX100: 0, cautions: [] as string[], roomEstimates: [] }
     const [version] = await f.tx.insert(quoteVersions).values(f.values({
       quoteId: quote!.id,
       version: 1,
@@ -34,6 +34,7 @@ export default defineEventHandler(async (event) => {
       validUntil,
       estimatedDaysX100: draft.estimatedDaysX100,
       rules: draft.rules,
+      roomEstimates: draft.roomEstimates,
       cautions: [...draft.cautions, DRYING_CAUTION, RULE_OF_THUMB],
       terms: `Payment within ${firm!.paymentTermsDays} days of the invoice. Prices hold until the date above.`,
       createdBy: auth.userId,

@@ -17,6 +17,12 @@ export const quoteStatus = pgEnum('quote_status', ['draft', 'sent', 'accepted', 
 export const lineKind = pgEnum('line_kind', ['labour', 'materials'])
 export const vatTreatment = pgEnum('vat_treatment', ['standard', 'reverse-charge', 'not-registered'])
 
+/** A making-good item the firm prices by the item (or by its own unit), not by measure. */
+export interface MakingGoodItem { name: string, unit: string, pricePence: number }
+
+/** One room's share of the materials estimate, at cost, as worked out when the draft was made from the visit. */
+export interface RoomEstimate { roomName: string, materials: { name: string, packs: number, packLabel: string, costPence: number, derivation: string }[] }
+
 /** The firm's rates and rules for pricing by measure (one row per firm). */
 export const priceBooks = pgTable('price_books', {
   firmId: firmColumn().primaryKey().references(() => firms.id, { onDelete: 'cascade' }),
@@ -27,6 +33,8 @@ export const priceBooks = pgTable('price_books', {
   beadsPerLmPence: integer().notNull().default(0),
   scrimPerLmPence: integer().notNull().default(0),
   materialsMarkupPercent: integer().notNull().default(0),
+  /** Making good priced as items (a switch box, a patch round a new pipe), added to a quote as labour lines. */
+  makingGoodItems: jsonb().$type<MakingGoodItem[]>().notNull().default([]),
   /** Voids up to this area are left in (0: deduct every opening; 5000 cm² = 0.5 m², the older rule). */
   minDeductCm2: integer().notNull().default(0),
   /** Reveals and strips up to this width are priced by the linear metre. */
@@ -115,6 +123,8 @@ export const quoteVersions = pgTable('quote_versions', {
   cautions: jsonb().$type<string[]>().notNull().default([]),
   /** The void rule and options the take-off used, shown on the quote. */
   rules: jsonb().$type<Record<string, unknown>>().notNull().default({}),
+  /** The materials estimate room by room (at cost), from the visit the draft was made from; the lines hold the whole-quote estimate. */
+  roomEstimates: jsonb().$type<RoomEstimate[]>().notNull().default([]),
   /** The totals as computed when the version was last saved (shared/utils/tax.ts invoiceTotals). */
   totals: jsonb().$type<Record<string, number>>().notNull().default({}),
   sentAt: timestamp({ withTimezone: true }),

@@ -6,6 +6,12 @@ import { idParam } from '#shared/schemas/common'
  * Send the draft: it becomes the version the customer sees, can no longer change, and gets a
  * link (an unguessable token, only its hash kept, expiring with the quote). Earlier sent
  * versions are superseded; the enquiry moves to "quoted".
+ *
+ * The e-mail goes before the transaction commits: if the mail server refuses it or cannot be
+ * reached, nothing is written (the quote stays a draft, so it can be sent again) and the answer is
+ * a 502 that says so. Should the commit itself fail after the e-mail went, the customer holds a link
+ * that shows "this link does not work" until the quote is sent again: never a quote marked sent
+ * that nobody received.
  */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
@@ -32,22 +38,28 @@ export default defineEventHandler(async (event) => {
     }
     await f.audit('quote.sent', 'quote', id, { version: version.version, totalPence: totals.grossPence })
     const detail = await quoteDetail(f, id)
-    return { detail, customer: customer!, totals, validUntil: version.validUntil }
-  })
-
-  const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/q/${token}`
-  await sendMail({
-    to: sent.customer.email,
-    subject: `Your quote ${sent.detail.reference} from ${sent.detail.firmName}`,
-    text: [
-      `Hello ${sent.customer.contactName || sent.customer.name},`,
-      '',
-      `${sent.detail.firmName} has sent you quote ${sent.detail.reference} for ${formatPence(sent.totals.grossPence)}${sent.totals.reverseChargeVatPence ? ' (reverse charge: you account for the VAT)' : ''}.`,
-      `It is good until ${sent.validUntil}. Open it, download it, and accept or decline it here:`,
-      link,
-      '',
-      'The link is for you only; please do not forward it.',
-    ].join('\n'),
+    const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/q/${token}`
+    try {
+      await sendMail({
+        to: customer!.email,
+        subject: `Your quote ${detail.reference} from ${detail.firmName}`,
+        text: [
+          `Hello ${customer!.contactName || customer!.name},`,
+          '',
+          `${detail.firmName} has sent you quote ${detail.reference} for ${formatPence(totals.grossPence)}${totals.reverseChargeVatPence ? ' (reverse charge: you account for the VAT)' : ''}.`,
+          `It is good until ${version.validUntil}. Open it, download it, and accept or decline it here:`,
+          link,
+          '',
+          'The link is for you only; please do not forward it.',
+        ].join('\n'),
+      })
+    }
+    catch (err) {
+      console.error('[mail] quote not sent:', (err as Error).message)
+      // thrown inside the transaction, so the quote stays a draft
+      throw createError({ statusCode: 502, statusMessage: 'E-mail not sent', data: { message: `The e-mail to ${customer!.email} could not be sent, so the quote is still a draft. Check the address and try again in a few minutes.` } })
+    }
+    return { detail }
   })
   return sent.detail
 })

@@ -1,0 +1,2 @@
+ALTER TABLE "price_books" ADD COLUMN "making_good_items" jsonb DEFAULT '[]'::jsonb NOT NULL;--> statement-breakpoint
+ALTER TABLE "quote_versions" ADD COLUMN "room_estimates" jsonb DEFAULT '[]'::jsonb NOT NULL;
