@@ -96,21 +96,31 @@ export async function seedJob(tx: Tx, o: { firmId: string, customerId: string, s
     { firmId, jobId: job!.id, day: day(1), userId: o.crewId, portion: 'half-day' },
   ])
 
-  // set 1, as the planner has it, logged yesterday
+  // set 1, as the planner has it, logged yesterday: its surfaces, its coat (a set with a skim is
+  // logged as its second, final coat), a note that says what the set did, and the bags the plan
+  // put in it, rounded up to the half bag mixed (fills in bonding, skims and tight coats in finish)
   const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: 100, outOfTrueToleranceMm: 10, minDeductCm2: book.minDeductCm2 })
   const plan = planSets(inputs.surfaces, inputs.corners, planOptions, inputs.labels)
   const set1 = plan.sets[0]!
-  const coat = set1.tasks.some(t => t.action === 'skim') ? 'first' as const : set1.tasks.some(t => t.action === 'fill') ? 'fill' as const : 'tight-coat' as const
+  const coat = set1.tasks.some(t => t.action === 'skim') ? 'second' as const : set1.tasks.some(t => t.action === 'fill') ? 'fill' as const : 'tight-coat' as const
+  const label = (id: string) => surfaces.find(x => x.id === id)!.label.toLowerCase()
+  const done = set1.tasks.map(t => t.action === 'skim'
+    ? `${label(t.surfaceId)} skimmed, two coats`
+    : t.action === 'fill' ? `patch on the ${label(t.surfaceId)} dubbed out` : `first tight coat over the scrim on the ${label(t.surfaceId)}`)
+  const notes = `${done.join('; ').replace(/^./, c => c.toUpperCase())}. Good suction, no problems.`
   const [log] = await tx.insert(schema.setLogs).values({
     firmId, jobId: job!.id, kind: 'set', setNumber: 1, startedAt: at(-1, 8, 30), endedAt: at(-1, 10, 10), coat,
-    surfaceIds: [...new Set(set1.tasks.map(t => t.surfaceId))], userIds: [o.ownerId, o.crewId], notes: 'Patch under the sill dubbed out; scrim on round the window.', loggedBy: o.crewId,
+    surfaceIds: [...new Set(set1.tasks.map(t => t.surfaceId))], userIds: [o.ownerId, o.crewId], notes, loggedBy: o.crewId,
   }).returning()
   const finish = materialRows.find(r => r.key === 'finish-plaster')
   const bonding = materialRows.find(r => r.key === 'bonding-undercoat')
   const costs = Object.fromEntries(DEFAULT_MATERIALS.map(m => [m.key, m.costPence]))
+  const halfBagsUp = (tasks: typeof set1.tasks) => Math.ceil(tasks.reduce((n, t) => n + Math.round(t.bags * 10), 0) / 5) * 500
+  const bondingPacks = halfBagsUp(set1.tasks.filter(t => t.action === 'fill'))
+  const finishPacks = halfBagsUp(set1.tasks.filter(t => t.action !== 'fill'))
   const uses = [
-    ...(bonding ? [{ materialId: bonding.id, packsX1000: 1000, costPencePerPack: costs['bonding-undercoat']! }] : []),
-    ...(finish ? [{ materialId: finish.id, packsX1000: 500, costPencePerPack: costs['finish-plaster']! }] : []),
+    ...(bonding && bondingPacks ? [{ materialId: bonding.id, packsX1000: bondingPacks, costPencePerPack: costs['bonding-undercoat']! }] : []),
+    ...(finish && finishPacks ? [{ materialId: finish.id, packsX1000: finishPacks, costPencePerPack: costs['finish-plaster']! }] : []),
   ]
   if (uses.length) await tx.insert(schema.materialUses).values(uses.map(u => ({ firmId, jobId: job!.id, logId: log!.id, ...u })))
   return { jobId: job!.id, labourNetPence: totals.labourNetPence, materialsNetPence: totals.materialsNetPence }

@@ -4,6 +4,7 @@
 import { createEvents, type EventAttributes } from 'ics'
 import { and, asc, eq, sql } from 'drizzle-orm'
 import { calendarFeeds, customers, firms, jobDays, jobs, sites } from '../db/schema'
+import { refoldIcs } from '#shared/utils/ics'
 
 export function calendarUrl(token: string) {
   return `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/calendar/${token}.ics`
@@ -58,7 +59,8 @@ export async function calendarFor(token: string): Promise<string | null> {
       } satisfies EventAttributes
     })
     const { error, value } = createEvents(events, { productId: 'setwell/diary', calName: `${firm?.tradingName ?? 'Setwell'} jobs` })
-    if (error || value === undefined) throw error ?? new Error('calendar not made')
-    return value
+    if (error || value === undefined || value === null) throw error ?? new Error('calendar not made')
+    // folded by octets, not characters (RFC 5545, 3.1): see shared/utils/ics.ts
+    return refoldIcs(value)
   })
 }

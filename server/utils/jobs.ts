@@ -2,11 +2,13 @@
 // booked on), numbering, making one from an accepted quote, moving its status, and its set plan
 // worked out from the visit's rooms (shared/utils/set-plan.ts).
 import { and, asc, eq, exists, inArray, max, sql } from 'drizzle-orm'
-import { customers, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, setLogs, sites, users } from '../db/schema'
-import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, READY_CAUTION, readyToDecorateFrom, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
+import { customers, firms, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, setLogs, sites, users } from '../db/schema'
+import { canMoveJob, daysWorked, JOB_STATUS_LABELS, londonDay, materialsAgainstEstimate, READY_CAUTION, roomReadyToDecorate, safePlanOptions, skimCoverageM2, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
 import { checkPlan, planSets } from '#shared/utils/set-plan'
 import { applyMoves } from '#shared/utils/plan-moves'
+import { invoiceTotals } from '#shared/utils/tax'
+import { JOB_PRICE_FIELDS } from '#shared/schemas/job'
 
 export type JobRow = typeof jobs.$inferSelect
 
@@ -88,8 +90,9 @@ export const quoteReference = (n: number) => `Q-${String(n).padStart(4, '0')}`
 export async function defaultPlanOptions(f: FirmScope) {
   const book = await usePriceBook(f)
   const finish = (await catalogue(f)).find(m => m.type === 'finish' && m.coverage.kind === 'area')
-  // a bag's coverage at the skim thickness the estimates use (2 mm)
-  const coverage = finish && finish.coverage.kind === 'area' ? Math.round(finish.coverage.m2PerPack * finish.coverage.atThicknessMm / 2 * 10) / 10 : 10
+  // a bag's coverage at the skim thickness the estimates use (2 mm), never under the plan's floor
+  // (0.1 m²): a tiny figure in the catalogue must not stop the job's plan (the plan warns instead)
+  const coverage = (finish && finish.coverage.kind === 'area' ? skimCoverageM2(finish.coverage.m2PerPack, finish.coverage.atThicknessMm) : null) ?? 10
   return { people: 1, bagsPerPersonPerSet: book.bagsPerPersonPerSet, coverageM2PerBag: coverage }
 }
 
@@ -99,8 +102,10 @@ export async function jobPlan(f: FirmScope, job: JobRow) {
   const book = await usePriceBook(f)
   const rooms = await loadRooms(f, job.visitId)
   const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
-  const options = job.planOptions
-  const planner = planSets(inputs.surfaces, inputs.corners, options, inputs.labels)
+  // options stored before the floor (or written by hand) are raised to it, with a warning, never a 500
+  const { options, warnings: optionWarnings } = safePlanOptions(job.planOptions)
+  const planned = planSets(inputs.surfaces, inputs.corners, options, inputs.labels)
+  const planner = optionWarnings.length ? { ...planned, warnings: [...optionWarnings, ...planned.warnings] } : planned
   let plan = planner
   if (Object.keys(job.planMoves).length) {
     plan = applyMoves(planner, job.planMoves, inputs.labels)
@@ -138,13 +143,14 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   const comparison = materialsAgainstEstimate(job.materialsEstimate, uses)
   const names = new Map(days.map(d => [d.userId, d.name]))
   const worked = [...daysWorked(days)].map(([userId, halves]) => ({ userId, name: names.get(userId) ?? '', halfDays: halves }))
-  // ready to decorate, per room, from the coats logged on its surfaces
+  // ready to decorate, per room: not until every surface has its final skim coat logged; each
+  // coat on the day it was done in Britain (a set finished at 00:30 BST is that day, not the one before)
   const roomNames = [...new Set(planned.surfaces.map(s => s.roomName))]
+  const coatLogs = logs.filter(l => l.kind === 'set' && l.coat)
+    .map(l => ({ day: londonDay(l.endedAt ?? l.startedAt ?? l.createdAt), coat: l.coat!, coldOrDamp: l.coldOrDamp, surfaceIds: l.surfaceIds, setNumber: l.setNumber }))
   const ready = roomNames.map((room) => {
-    const ids = new Set(planned.surfaces.filter(s => s.roomName === room).map(s => s.id))
-    const coats = logs.filter(l => l.kind === 'set' && l.coat && l.surfaceIds.some(s => ids.has(s)))
-      .map(l => ({ day: (l.endedAt ?? l.startedAt ?? l.createdAt).toISOString().slice(0, 10), coat: l.coat!, coldOrDamp: l.coldOrDamp }))
-    return { room, from: readyToDecorateFrom(coats, drying) }
+    const ids = planned.surfaces.filter(s => s.roomName === room).map(s => s.id)
+    return { room, ...roomReadyToDecorate(ids, coatLogs, planned.plan, drying) }
   })
   const jobInvoices = money
     ? (await listInvoices(f, undefined, { jobId: job.id })).map(i => ({ id: i.id, kind: i.kind, reference: i.reference, status: i.status, amountDuePence: i.amountDuePence, outstandingPence: i.outstandingPence }))
@@ -174,4 +180,29 @@ export async function checkMembers(f: FirmScope, userIds: string[], field: strin
   const known = new Set(rows.map(r => r.userId))
   const missing = userIds.findIndex(u => !known.has(u))
   if (missing >= 0) throw fieldError({ [field.replace('#', String(missing))]: 'That person is not in the firm.' })
+}
+
+/** 403 naming the field when a price field is sent by someone without money:write (crew never set prices). */
+export function checkPriceAllowed(auth: FirmContext, input: Partial<Record<(typeof JOB_PRICE_FIELDS)[number], number>>) {
+  const sent = JOB_PRICE_FIELDS.filter(k => input[k] !== undefined)
+  if (sent.length && !can(auth.role, 'money:write')) {
+    throw fieldError(Object.fromEntries(sent.map(k => [k, 'Only someone who may change money can set the price of a job.'])), 403, 'Your role does not allow this')
+  }
+}
+
+/**
+ * A job's price from its labour and materials net of VAT: the net, and the gross with VAT as the
+ * firm and customer call for (suggestedVat: 20% when the firm is registered; none when it is not,
+ * or under the reverse charge, where the customer accounts for it).
+ */
+export async function jobPriceTotals(f: FirmScope, customerId: string, labourNetPence: number, materialsNetPence: number) {
+  const [firm] = await f.tx.select({ vatRegistered: firms.vatRegistered }).from(firms).where(eq(firms.id, f.firmId))
+  const [customer] = await f.tx.select({ kind: customers.kind, vatRegistered: customers.vatRegistered, paysUnderCis: customers.paysUnderCis, endUserNotified: customers.endUserNotified })
+    .from(customers).where(f.where(customers, eq(customers.id, customerId)))
+  const vat = firm && customer ? suggestedVat(firm, customer) : 'not-registered'
+  const t = invoiceTotals([
+    { kind: 'labour', quantity: 1, unitPence: labourNetPence, vatRatePercent: 20 },
+    { kind: 'materials', quantity: 1, unitPence: materialsNetPence, vatRatePercent: 20 },
+  ], { vat: vat === 'standard' ? 'standard' : 'not-registered', cisRatePercent: null })
+  return { labourNetPence: t.labourNetPence, materialsNetPence: t.materialsNetPence, netPence: t.netPence, grossPence: t.grossPence }
 }

@@ -5,6 +5,22 @@ import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 const isoDate = z.iso.date({ error: 'Pick a date.' })
 const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
 
+/** A price in whole pence, 0 or more (£1,000,000 at most). */
+const pence = (what: string) => z.int({ error: `Enter the ${what} in pounds and pence.` })
+  .min(0, { error: `The ${what} cannot be negative.` })
+  .max(100_000_000, { error: `That ${what} looks too high: check the figure.` })
+
+/**
+ * The price of a job agreed without a quote, net of VAT: labour and materials. The server works
+ * out the net and the gross (VAT as the firm and customer call for). Only someone with
+ * money:write may send them.
+ */
+export const JOB_PRICE_FIELDS = ['labourNetPence', 'materialsNetPence'] as const
+const jobPrice = {
+  labourNetPence: pence('labour price').optional(),
+  materialsNetPence: pence('materials price').optional(),
+}
+
 /** A job made directly (not from a quote). */
 export const newJobSchema = z.object({
   customerId: z.uuid({ error: 'Choose the customer.' }),
@@ -13,11 +29,14 @@ export const newJobSchema = z.object({
   title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is, like Skim the front bedroom.' }).max(200),
   estimatedDaysX100: z.int().min(0).max(100_000).default(0),
   notes: text(4000).default(''),
+  ...jobPrice,
 })
 
+/** A change to a job: its title, and its notes and price when given (left as they are when not). */
 export const jobUpdateSchema = z.object({
-  title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is.' }).max(200),
-  notes: text(4000).default(''),
+  title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is.' }).max(200, { error: 'Keep it under 200 characters.' }),
+  notes: text(4000).optional(),
+  ...jobPrice,
 })
 
 export const jobMoveSchema = z.object({

@@ -1,5 +1,6 @@
 // The words and the arithmetic of a job: its statuses and moves, the days booked and worked,
 // materials used against the estimate, and the "ready to decorate from" date. Pure.
+import { JOB_CAUTIONS } from './cautions'
 
 export const JOB_STATUSES = ['booked', 'in-progress', 'finished', 'invoiced', 'paid', 'cancelled'] as const
 export type JobStatus = (typeof JOB_STATUSES)[number]
@@ -128,16 +129,26 @@ export function materialsAgainstEstimate(estimate: readonly EstimatedMaterial[],
 // Ready to decorate
 
 export interface DryingRules {
-  /** Days after the last skim coat (common practice, DOMAIN.md: about a week). */
+  /** Days after the last skim coat. Default 7: common practice (DOMAIN.md, 5 "The job": about a week). */
   skimDays: number
-  /** Days after undercoat when it is the last coat on a surface (from memory: longer than a skim). */
+  /** Days after a fill or undercoat when it is the last coat on a surface. Default 14: from memory (DOMAIN.md says only "more for undercoats"). */
   undercoatDays: number
-  /** Extra days when the room was cold or damp. */
+  /** Extra days when the room was cold or damp. Default 7: from memory (DOMAIN.md says only "more for cold or damp rooms"). */
   coldOrDampExtraDays: number
 }
+/** The firm's figures until it changes them in the price book: skim common practice; undercoat and cold or damp from memory (see DryingRules). */
 export const DEFAULT_DRYING: DryingRules = { skimDays: 7, undercoatDays: 14, coldOrDampExtraDays: 7 }
 
-export const READY_CAUTION = 'Drying varies with the weather, heating and ventilation: this date is a rule of thumb, not a promise. Check the plaster has dried to an even pale colour before decorating, and follow the paint maker\'s advice.'
+export const READY_CAUTION: string = JOB_CAUTIONS.drying
+
+const LONDON_DAY = new Intl.DateTimeFormat('en-GB', { timeZone: 'Europe/London', year: 'numeric', month: '2-digit', day: '2-digit' })
+
+/** The calendar day of an instant in Britain (Europe/London, so BST in summer), as YYYY-MM-DD. Throws for an invalid date. */
+export function londonDay(at: Date): string {
+  if (!(at instanceof Date) || Number.isNaN(at.getTime())) throw new RangeError(`not a date: ${String(at)}`)
+  const parts = Object.fromEntries(LONDON_DAY.formatToParts(at).map(p => [p.type, p.value]))
+  return `${parts.year}-${parts.month}-${parts.day}`
+}
 
 /** An ISO date plus whole days (calendar days, no time zone shifts). Throws for a date that is not a real one or days that are not whole. */
 export function addDays(isoDate: string, days: number): string {
@@ -174,4 +185,79 @@ export function readyToDecorateFrom(coats: readonly { day: string, coat: LogCoat
     if (latest === null || ready > latest) latest = ready
   }
   return latest
+}
+
+/** A set log as the drying date reads it: the day it was done (londonDay), its coat, the surfaces, the set. */
+export interface RoomLog { day: string, coat: LogCoat, coldOrDamp: boolean, surfaceIds: readonly string[], setNumber: number | null }
+/** The parts of a set plan the drying date needs: what each set does to each surface. */
+export interface PlanTasks { sets: readonly { number: number, tasks: readonly { surfaceId: string, action: 'fill' | 'tight-coat' | 'skim' }[] }[] }
+export interface RoomReady {
+  /** The day the room can be decorated from; null until every surface in it has its final skim coat logged. */
+  from: string | null
+  /** Surfaces with their final (second) skim coat logged. */
+  skimmed: number
+  surfaces: number
+}
+
+/**
+ * When a room can be decorated: null ("not finished") until every one of its surfaces has a
+ * logged second coat of skim, its final coat; then readyToDecorateFrom over every coat logged
+ * on its surfaces. A set log carries one coat for all its surfaces, so where the plan has only a
+ * fill or a tight coat for a surface in the logged set, that surface's coat is read as the fill
+ * or the tight coat (a "second coat" log of set 1 does not finish a wall that set 1 only
+ * tight-coats). A rule of thumb: always shown with READY_CAUTION.
+ */
+export function roomReadyToDecorate(surfaceIds: readonly string[], logs: readonly RoomLog[], plan: PlanTasks, rules: DryingRules = DEFAULT_DRYING): RoomReady {
+  const ids = new Set(surfaceIds)
+  const skimmed = new Set<string>()
+  const coats: { day: string, coat: LogCoat, coldOrDamp: boolean }[] = []
+  for (const log of logs) {
+    const set = log.setNumber === null ? undefined : plan.sets.find(s => s.number === log.setNumber)
+    for (const id of new Set(log.surfaceIds)) {
+      if (!ids.has(id)) continue
+      const planned = set?.tasks.filter(t => t.surfaceId === id) ?? []
+      let coat = log.coat
+      if ((coat === 'first' || coat === 'second') && planned.length && !planned.some(t => t.action === 'skim')) {
+        coat = planned.some(t => t.action === 'fill') ? 'fill' : 'tight-coat'
+      }
+      if (coat === 'second') skimmed.add(id)
+      coats.push({ day: log.day, coat, coldOrDamp: log.coldOrDamp })
+    }
+  }
+  // the rules and the days are checked even when the room is not finished
+  const latest = readyToDecorateFrom(coats, rules)
+  const done = ids.size > 0 && skimmed.size === ids.size
+  return { from: done ? latest : null, skimmed: skimmed.size, surfaces: ids.size }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Plan options
+
+/** The least a bag may cover in the plan: 0.1 m² (the plan's own unit, a tenth of a square metre). */
+export const MIN_PLAN_COVERAGE_M2 = 0.1
+/** Below this many m² a bag, the plan warns: a 25 kg bag of finish covers about 10 to 12 m² at 2 mm (common practice, DOMAIN.md). */
+export const LOW_PLAN_COVERAGE_M2 = 2
+
+/**
+ * A bag of finish plaster's coverage at the skim thickness the plan uses (2 mm), to a tenth of a
+ * square metre, never below MIN_PLAN_COVERAGE_M2: coverage scales inversely with thickness, so
+ * 10 m² at 3 mm is 15 m² at 2 mm. Null for a figure that is not a number over 0.
+ */
+export function skimCoverageM2(m2PerPack: number, atThicknessMm: number): number | null {
+  if (!Number.isFinite(m2PerPack) || !Number.isFinite(atThicknessMm) || m2PerPack <= 0 || atThicknessMm <= 0) return null
+  return Math.max(MIN_PLAN_COVERAGE_M2, Math.round(m2PerPack * atThicknessMm / 2 * 10) / 10)
+}
+
+/** The options a plan may use, and what was wrong with the ones given: coverage below the floor is raised to it; a low one is warned about. */
+export function safePlanOptions<T extends { coverageM2PerBag: number }>(options: T): { options: T, warnings: string[] } {
+  const warnings: string[] = []
+  let coverage = options.coverageM2PerBag
+  if (typeof coverage !== 'number' || !Number.isFinite(coverage) || coverage < MIN_PLAN_COVERAGE_M2) {
+    warnings.push(`The plan had ${Number.isFinite(coverage) ? `${coverage} m²` : 'no figure'} for what a bag covers, under the least it can plan with, so it is planned at ${MIN_PLAN_COVERAGE_M2} m² a bag. Set the figure under the plan, and check the finish plaster's coverage in Materials.`)
+    coverage = MIN_PLAN_COVERAGE_M2
+  }
+  else if (coverage < LOW_PLAN_COVERAGE_M2) {
+    warnings.push(`The plan counts ${coverage} m² a bag, far under the 10 to 12 m² a 25 kg bag of finish plaster usually covers at 2 mm (common practice), so the bags look high. Check the figure under the plan and the finish plaster's coverage in Materials.`)
+  }
+  return { options: { ...options, coverageM2PerBag: coverage }, warnings }
 }

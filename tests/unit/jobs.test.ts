@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import type { DayPortion, DryingRules, EstimatedMaterial, JobStatus, LogCoat, MaterialComparison, MaterialUse } from '../../shared/utils/jobs'
-import { addDays, canMoveJob, DEFAULT_DRYING, daysWorked, halfDaysWords, JOB_STATUSES, materialsAgainstEstimate, packCostPence, readyToDecorateFrom } from '../../shared/utils/jobs'
+import type { DayPortion, DryingRules, EstimatedMaterial, JobStatus, LogCoat, MaterialComparison, MaterialUse, PlanTasks, RoomLog } from '../../shared/utils/jobs'
+import { addDays, canMoveJob, DEFAULT_DRYING, daysWorked, halfDaysWords, JOB_STATUSES, londonDay, materialsAgainstEstimate, packCostPence, READY_CAUTION, readyToDecorateFrom, roomReadyToDecorate, safePlanOptions, skimCoverageM2 } from '../../shared/utils/jobs'
 
 // Sources. The statuses, their moves, half days, pack costs and the materials comparison are our
 // product's own rules (shared/utils/jobs.ts), not trade figures. Drying before decorating
@@ -280,5 +280,123 @@ describe('readyToDecorateFrom', () => {
 
   it('a coat logged on a day that is not a date throws', () => {
     expect(() => readyToDecorateFrom([coat('2028-02-30', 'second')], R)).toThrow(RangeError)
+  })
+})
+
+// ---------------------------------------------------------------------------------------------
+// The day of a coat, in Britain
+
+describe('londonDay', () => {
+  it.each<[string, string, string]>([
+    // Europe/London is UTC in winter (GMT) and UTC+1 in summer (BST), from 01:00 UTC on the last
+    // Sunday of March to 01:00 UTC on the last Sunday of October (the Summer Time Act 1972 and
+    // its orders; the tz database)
+    ['winter: the UTC day', '2026-12-07T23:30:00Z', '2026-12-07'],
+    ['summer: half past midnight BST is the next day', '2027-06-10T23:30:00Z', '2027-06-11'],
+    ['summer: 22:59 UTC is still the same day', '2027-06-10T22:59:00Z', '2027-06-10'],
+    ['the last minute of GMT before the clocks go forward (28 March 2027)', '2027-03-28T00:59:00Z', '2027-03-28'],
+    ['the evening the clocks went forward', '2027-03-28T23:10:00Z', '2027-03-29'],
+    ['after the clocks go back (31 October 2027): GMT again', '2027-10-31T23:10:00Z', '2027-10-31'],
+    ['new year in summer time? no: GMT', '2027-12-31T23:59:59Z', '2027-12-31'],
+  ])('%s', (_what, at, day) => expect(londonDay(new Date(at))).toBe(day))
+
+  it('an invalid date throws', () => {
+    expect(() => londonDay(new Date('not a date'))).toThrow(RangeError)
+  })
+})
+
+// ---------------------------------------------------------------------------------------------
+// Ready to decorate, per room
+
+const log = (dayOn: string, c: LogCoat, surfaceIds: string[], setNumber: number | null = null, coldOrDamp = false): RoomLog => ({ day: dayOn, coat: c, coldOrDamp, surfaceIds, setNumber })
+/** A room of three surfaces planned in two sets: set 1 fills A and skims B; set 2 skims A and C. (Our own inputs.) */
+const PLAN: PlanTasks = {
+  sets: [
+    { number: 1, tasks: [{ surfaceId: 'A', action: 'fill' }, { surfaceId: 'B', action: 'skim' }] },
+    { number: 2, tasks: [{ surfaceId: 'A', action: 'skim' }, { surfaceId: 'C', action: 'skim' }] },
+  ],
+}
+const ROOM = ['A', 'B', 'C']
+
+describe('roomReadyToDecorate', () => {
+  // drying days R (invented, see above): skim 5, undercoat 12, cold or damp +3
+  it.each<[string, RoomLog[], { from: string | null, skimmed: number }]>([
+    ['nothing logged: not finished', [], { from: null, skimmed: 0 }],
+    // our product's rule: not finished until every surface has its second (final) skim coat
+    ['set 1 logged: B skimmed, A only filled, C untouched', [log('2028-01-10', 'second', ['A', 'B'], 1)], { from: null, skimmed: 1 }],
+    ['a first coat is not the final coat', [log('2028-01-10', 'second', ['A', 'B'], 1), log('2028-01-11', 'first', ['A', 'C'], 2)], { from: null, skimmed: 1 }],
+    // all three skimmed: the latest of fill 10 Jan + 12 = 22 Jan and second coats 11 Jan + 5 = 16 Jan
+    ['every surface skimmed: the latest coat decides', [log('2028-01-10', 'second', ['A', 'B'], 1), log('2028-01-11', 'second', ['A', 'C'], 2)], { from: '2028-01-22', skimmed: 3 }],
+    // a fill logged on its own, then every skim: fill 2 Jan + 12 = 14 Jan; skims 12 Jan + 5 = 17 Jan
+    ['fill long before: the skims decide', [log('2028-01-02', 'fill', ['A'], 1), log('2028-01-12', 'second', ['B'], 1), log('2028-01-12', 'second', ['A', 'C'], 2)], { from: '2028-01-17', skimmed: 3 }],
+    // a log with no set number counts its coat for every surface it names: 12 Jan + 5 = 17 Jan
+    ['no set number: the coat as logged', [log('2028-01-12', 'second', ['A', 'B', 'C'])], { from: '2028-01-17', skimmed: 3 }],
+    // cold or damp on the last set: 12 Jan + 5 + 3 = 20 Jan
+    ['a cold or damp last set', [log('2028-01-12', 'second', ['B'], 1), log('2028-01-12', 'second', ['A', 'C'], 2, true)], { from: '2028-01-20', skimmed: 3 }],
+    ['surfaces of other rooms are left out', [log('2028-01-12', 'second', ['A', 'B', 'C', 'Z'], null), log('2028-03-01', 'fill', ['Z'])], { from: '2028-01-17', skimmed: 3 }],
+  ])('%s', (_what, logs, want) => {
+    expect(roomReadyToDecorate(ROOM, logs, PLAN, R)).toEqual({ ...want, surfaces: 3 })
+  })
+
+  it('a room with no surfaces is never ready', () => {
+    expect(roomReadyToDecorate([], [log('2028-01-12', 'second', ['A'])], PLAN, R)).toEqual({ from: null, skimmed: 0, surfaces: 0 })
+  })
+
+  it('still checks the drying rules while the room is not finished', () => {
+    expect(() => roomReadyToDecorate(ROOM, [], PLAN, { ...R, skimDays: -1 })).toThrow(/skimDays/)
+  })
+
+  it('the default days: skim 7 (common practice), undercoat 14 and cold or damp +7 (from memory)', () => {
+    // common practice (DOMAIN.md, 5 "The job"): about a week for a skim
+    expect(DEFAULT_DRYING.skimDays).toBe(7)
+    // from memory: DOMAIN.md only says longer for undercoats and for cold or damp rooms
+    expect(DEFAULT_DRYING.undercoatDays).toBe(14)
+    expect(DEFAULT_DRYING.coldOrDampExtraDays).toBe(7)
+    expect(roomReadyToDecorate(['B'], [log('2028-01-10', 'second', ['B'], 1)], PLAN).from).toBe('2028-01-17')
+  })
+
+  it('the caution defers to building regulations and licensed practice, and is no promise', () => {
+    expect(READY_CAUTION).toMatch(/not a promise/)
+    expect(READY_CAUTION).toMatch(/building regulations/)
+    expect(READY_CAUTION).toMatch(/licensed practice/)
+  })
+})
+
+// ---------------------------------------------------------------------------------------------
+// The plan's coverage figure
+
+describe('skimCoverageM2', () => {
+  it.each<[string, number, number, number | null]>([
+    // common practice (DOMAIN.md, "Coverage"): a 25 kg bag of finish covers about 10 to 12 m² at 2 mm
+    ['10 m² at 2 mm', 10, 2, 10],
+    // coverage scales inversely with thickness (about 1.0 kg per m² per mm, common practice): 10 m² at 3 mm is 15 at 2 mm
+    ['10 m² at 3 mm is 15 at 2 mm', 10, 3, 15],
+    ['11.5 m² at 1 mm is 5.8 at 2 mm (5.75, half up)', 11.5, 1, 5.8],
+    // our product's rule: never under 0.1 m² a bag, or the planner would divide by 0 (this used to be a 500)
+    ['a tiny figure is raised to 0.1', 0.01, 1, 0.1],
+    ['a tiny figure is raised to 0.1 (0.04 at 2 mm)', 0.04, 2, 0.1],
+    ['0 is not a figure', 0, 2, null],
+    ['no thickness is not a figure', 10, 0, null],
+    ['NaN is not a figure', Number.NaN, 2, null],
+  ])('%s', (_what, m2, mm, want) => expect(skimCoverageM2(m2, mm)).toBe(want))
+})
+
+describe('safePlanOptions', () => {
+  const base = { people: 2, bagsPerPersonPerSet: 3 }
+  it.each<[string, number, number, RegExp | null]>([
+    // common practice: 10 m² a bag at 2 mm; no warning
+    ['a usual figure', 10, 10, null],
+    ['2 m² a bag: low but no warning', 2, 2, null],
+    // our product's rule: under 2 m² a bag is warned about, under 0.1 is raised to 0.1
+    ['1.5 m² a bag: warned', 1.5, 1.5, /far under the 10 to 12 m²/],
+    ['0.1 m² a bag: warned, kept', 0.1, 0.1, /far under/],
+    ['0 (stored before the floor): raised to 0.1', 0, 0.1, /planned at 0\.1 m² a bag/],
+    ['negative: raised to 0.1', -3, 0.1, /planned at 0\.1 m² a bag/],
+    ['NaN: raised to 0.1', Number.NaN, 0.1, /no figure/],
+  ])('%s', (_what, coverage, used, warning) => {
+    const got = safePlanOptions({ ...base, coverageM2PerBag: coverage })
+    expect(got.options).toEqual({ ...base, coverageM2PerBag: used })
+    if (warning) expect(got.warnings).toEqual([expect.stringMatching(warning)])
+    else expect(got.warnings).toEqual([])
   })
 })

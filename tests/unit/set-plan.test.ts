@@ -336,6 +336,9 @@ function broken({ surfaces, corners, options: o }: Room, plan: SetPlan): string[
       if (!first.has(t.surfaceId)) bad.push(`task for unknown ${t.surfaceId}`)
       if (!oneDecimal(t.bags)) bad.push(`task bags ${t.bags} not one decimal`)
       if (!new RegExp(`\\bset ${set.number}\\b`).test(t.reason)) bad.push(`reason "${t.reason}" does not name set ${set.number}`)
+      // and says why (common practice, DOMAIN.md): a fill evens the suction of a patch; a tight coat is over scrim
+      if (t.action === 'fill' && !(/patch/i.test(t.reason) && /suction/i.test(t.reason))) bad.push(`fill reason "${t.reason}" does not say patch and suction`)
+      if (t.action === 'tight-coat' && !/scrim/i.test(t.reason)) bad.push(`tight-coat reason "${t.reason}" does not say scrim`)
       if (t.action === 'skim') push(skims, t.surfaceId, { set: set.number, bags: t.bags, reason: t.reason })
       else if (t.action === 'fill') push(fills, t.surfaceId, { set: set.number, bags: t.bags })
       else if (t.action === 'tight-coat') push(coats, t.surfaceId, set.number)
@@ -354,6 +357,9 @@ function broken({ surfaces, corners, options: o }: Room, plan: SetPlan): string[
     skimSet.set(id, skim.set)
     const cm2 = Math.round(s.areaM2 * 10_000)
     if (tenthsOf(skim.bags) !== tenthsFor(cm2, coverageTenths)) bad.push(`${id} skim ${skim.bags} bags, expected ${tenthsFor(cm2, coverageTenths) / 10}`)
+    // a skim after a fill says so; after tight coats, says so (common practice, DOMAIN.md: why it waits)
+    if (s.patches?.length && !/patch fill/i.test(skim.reason)) bad.push(`${id} skim reason "${skim.reason}" does not mention its fill`)
+    if (s.scrimmedGap && !/tight coats? over the scrimmed gap/i.test(skim.reason)) bad.push(`${id} skim reason "${skim.reason}" does not mention its tight coats`)
     if (s.patches?.length) {
       const f = fills.get(id) ?? []
       if (!f.length) bad.push(`${id} has patches but no fill`)
@@ -396,6 +402,8 @@ function broken({ surfaces, corners, options: o }: Room, plan: SetPlan): string[
       const ra = skims.get(c.a)![0]!.reason
       const rb = skims.get(c.b)![0]!.reason
       if (!mentions(ra, c.b) || !mentions(rb, c.a)) bad.push(`reasons for ${c.a}/${c.b} do not name each other`)
+      // why: a difficult corner is worked against a set face (or, where the pair is also a packed bead, the bead says it)
+      if (!/corner|packed-out bead/.test(ra) || !/corner|packed-out bead/.test(rb)) bad.push(`reasons for ${c.a}/${c.b} do not say corner`)
     }
     if (c.packedBead) {
       if (c.packedBead.face !== c.a && c.packedBead.face !== c.b) {
@@ -421,6 +429,15 @@ function broken({ surfaces, corners, options: o }: Room, plan: SetPlan): string[
   const hasCircle = [...after.keys()].some(x => !state.has(x) && cyclic(x))
   const circleWarnings = plan.warnings.filter(w => w.includes('round in a circle'))
   if (hasCircle !== (circleWarnings.length > 0)) bad.push(`circle ${hasCircle} but ${circleWarnings.length} circle warnings`)
+  // the face and the return of a bead that is planned (not one dropped from a circle, which names
+  // both in its warning) say why: the face before the return so the set plaster holds the bead
+  for (const [f, r] of edges) {
+    if (circleWarnings.some(w => mentions(w, f) && mentions(w, r))) continue
+    const rf = skims.get(f)?.[0]?.reason ?? ''
+    const rr = skims.get(r)?.[0]?.reason ?? ''
+    if (!/Face of the packed-out bead/.test(rf) || !mentions(rf, r)) bad.push(`face ${f} reason "${rf}" does not give the bead and its return ${r}`)
+    if (!/Return of the packed-out bead/.test(rr) || !mentions(rr, f)) bad.push(`return ${r} reason "${rr}" does not give the bead and its face ${f}`)
+  }
   for (const [f, r] of edges) {
     if (skimSet.get(f)! < skimSet.get(r)!) continue
     if (!hasCircle || !circleWarnings.some(w => mentions(w, f) && mentions(w, r))) bad.push(`face ${f} not before return ${r}`)
