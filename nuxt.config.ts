@@ -42,6 +42,11 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax' },
     },
   },
+  experimental: {
+    // links fetch their page's code when touched or hovered, not whenever they scroll into view: on
+    // a phone the menu alone would otherwise pull in every linked page's script (npm run bench)
+    defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+  },
   compatibilityDate: '2026-07-01',
   telemetry: false,
   tailwindcss: {

@@ -2,6 +2,7 @@ import { parse } from 'csv-parse/sync'
 import { describe, expect, it } from 'vitest'
 import type { CsvCell } from '../../shared/utils/csv'
 import { FORMULA_START, UTF8_BOM, poundsCell, toCsv } from '../../shared/utils/csv'
+import { penceToDecimal } from '../../shared/utils/money'
 
 // Sources: formula escaping of cells that start with =, +, -, @, a tab or a carriage return by a
 // leading apostrophe (OWASP "CSV Injection"); quoting of cells holding a comma, a double quote or a
@@ -101,6 +102,11 @@ describe('poundsCell: pence as pounds with two decimals (our rule: the accountan
   })
 
   it.each([12.5, Number.NaN, Number.POSITIVE_INFINITY])('%s pence is a RangeError', pence => expect(() => poundsCell(pence)).toThrow(RangeError))
+
+  // poundsCell does its own whole-number formatting for speed; it must agree with dinero's
+  it.each([9, 10, 99, 101, 109, 110, 1_000_000, -0, -1, -9, -10, -99, -100, -101, 2_147_483_647, -2_147_483_648, Number.MAX_SAFE_INTEGER, -Number.MAX_SAFE_INTEGER])(
+    '%s pence is written as dinero writes it', pence => expect(poundsCell(pence)).toBe(penceToDecimal(pence)),
+  )
 })
 
 describe('round trip through csv-parse (RFC 4180): a reader gets the cells back, escaped ones with their apostrophe', () => {
