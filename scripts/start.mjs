@@ -18,7 +18,7 @@ if (!(await isPortFree(PORT))) {
   console.error(`[start] port ${PORT} is in use. Stop what is using it, or run PORT=3001 npm start.`)
   process.exit(1)
 }
-const p = await prepareDevServices()
+const p = await prepareDevServices({ appPort: PORT })
 
 nuxtBuild()
 

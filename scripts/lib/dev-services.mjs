@@ -8,7 +8,8 @@ export const SMTP_PORT = Number(process.env.SETWELL_MAIL_SMTP_PORT ?? 1025)
 export const MAIL_WEB_PORT = Number(process.env.SETWELL_MAIL_WEB_PORT ?? 1080)
 export const STRIPE_FAKE_PORT = Number(process.env.SETWELL_STRIPE_FAKE_PORT ?? 12111)
 
-export async function prepareDevServices() {
+/** `appPort`: where the app will listen (npm start's PORT), so the fake's webhooks reach it. */
+export async function prepareDevServices({ appPort = Number(process.env.PORT ?? 3000) } = {}) {
   const p = profile('dev')
   await startCluster(p)
   await bootstrap(p)
@@ -20,9 +21,9 @@ export async function prepareDevServices() {
   else {
     console.log(`[setup] ports ${SMTP_PORT}/${MAIL_WEB_PORT} are in use: assuming a mail catcher is already running there`)
   }
-  // card payments go to our own Stripe fake; its webhooks come back to the app (secret as in nuxt.config.ts)
+  // card payments go to our own Stripe fake; its webhooks come back to the app on its port, on loopback (secret as in nuxt.config.ts)
   if (await isPortFree(STRIPE_FAKE_PORT)) {
-    background('node', ['scripts/lib/stripe-fake.mjs', '--port', String(STRIPE_FAKE_PORT), '--webhook-url', `${process.env.NUXT_APP_URL ?? 'http://127.0.0.1:3000'}/api/webhooks/stripe`, '--webhook-secret', 'whsec_setwell_local'], { stdio: 'ignore' })
+    background('node', ['scripts/lib/stripe-fake.mjs', '--port', String(STRIPE_FAKE_PORT), '--webhook-url', `http://127.0.0.1:${appPort}/api/webhooks/stripe`, '--webhook-secret', 'whsec_setwell_local'], { stdio: 'ignore' })
   }
   else {
     console.log(`[setup] port ${STRIPE_FAKE_PORT} is in use: assuming the Stripe fake is already running there`)

@@ -27,7 +27,7 @@
 //
 // Use: `startStripeFake({ port, webhookUrl, webhookSecret })` from a test, or
 // `node scripts/lib/stripe-fake.mjs --port 12111 --webhook-url http://127.0.0.1:3000/api/webhooks/stripe
-// --webhook-secret whsec_...` (see docs/stripe-fake.md).
+// --webhook-secret whsec_...` (see "The Stripe fake" in DEVELOPERS.md).
 import { createHmac, randomBytes } from 'node:crypto'
 import { realpathSync } from 'node:fs'
 import { createServer, request as httpRequest } from 'node:http'

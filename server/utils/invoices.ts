@@ -1,7 +1,7 @@
 // Invoices on the server: finding, numbering under a lock, drafting from a job, issuing (frozen
 // after), credit notes, payments and the status that follows from them.
-import { aliasedTable, and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
-import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users } from '../db/schema'
+import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
+import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users, type InvoiceParties } from '../db/schema'
 import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
 import { invoiceTotals } from '#shared/utils/tax'
 
@@ -60,6 +60,7 @@ export async function invoiceDetail(f: FirmScope, id: string) {
   const lines = await linesOf(f, id)
   const [customer] = await f.tx.select({ id: customers.id, name: customers.name, email: customers.email, kind: customers.kind, billingLine1: customers.billingLine1, billingTown: customers.billingTown, billingPostcode: customers.billingPostcode })
     .from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
+  const vatSuggested = await suggestedVatFor(f, inv.customerId)
   const [site] = inv.siteId ? await f.tx.select({ line1: sites.line1, town: sites.town, postcode: sites.postcode }).from(sites).where(f.where(sites, eq(sites.id, inv.siteId))) : []
   const [job] = inv.jobId ? await f.tx.select({ id: jobs.id, number: jobs.number, status: jobs.status }).from(jobs).where(f.where(jobs, eq(jobs.id, inv.jobId))) : []
   const paymentRows = await f.tx.select().from(payments).where(f.where(payments, eq(payments.invoiceId, id))).orderBy(asc(payments.receivedOn), asc(payments.createdAt))
@@ -81,8 +82,18 @@ export async function invoiceDetail(f: FirmScope, id: string) {
     credits: credits ?? null,
     chase,
     businessCustomer: customer ? customer.kind !== 'homeowner' : false,
+    /** The VAT treatment suggested from the firm's and the customer's flags now; another needs a reason. */
+    suggestedVat: vatSuggested,
     ...statusOf(inv, money),
   }
+}
+
+/** The VAT treatment suggested for an invoice to this customer, from the firm's and the customer's flags. */
+export async function suggestedVatFor(f: FirmScope, customerId: string) {
+  const [row] = await f.tx.select({ firmVat: firms.vatRegistered, kind: customers.kind, vatRegistered: customers.vatRegistered, paysUnderCis: customers.paysUnderCis, endUserNotified: customers.endUserNotified })
+    .from(customers).innerJoin(firms, eq(firms.id, customers.firmId)).where(f.where(customers, eq(customers.id, customerId)))
+  if (!row) notFound()
+  return suggestedVat({ vatRegistered: row.firmVat }, row)
 }
 
 /** The next number of a series, under a lock on the firm's row: no gaps, no duplicates, whatever runs at once. */
@@ -150,6 +161,20 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
   return row!
 }
 
+/**
+ * The firm's, the customer's and the site's names and addresses as they are now: what an invoice
+ * keeps when it is issued (`invoices.parties`), and what a draft (or an invoice issued before
+ * they were kept) shows.
+ */
+export async function partiesNow(f: FirmScope, inv: Pick<InvoiceRow, 'customerId' | 'siteId'>): Promise<InvoiceParties> {
+  const [firm] = await f.tx.select({ tradingName: firms.tradingName, addressLine1: firms.addressLine1, addressLine2: firms.addressLine2, town: firms.town, postcode: firms.postcode, vatRegistered: firms.vatRegistered, vatNumber: firms.vatNumber })
+    .from(firms).where(eq(firms.id, f.firmId))
+  const [customer] = await f.tx.select({ name: customers.name, billingLine1: customers.billingLine1, billingLine2: customers.billingLine2, billingTown: customers.billingTown, billingPostcode: customers.billingPostcode, vatNumber: customers.vatNumber })
+    .from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
+  const [site] = inv.siteId ? await f.tx.select({ line1: sites.line1, town: sites.town, postcode: sites.postcode }).from(sites).where(f.where(sites, eq(sites.id, inv.siteId))) : []
+  return { firm: firm!, customer: customer!, site: site ?? null }
+}
+
 /** Issue a draft: its number, dates and the customer's link; frozen from now on. Returns the link's token. */
 export async function issueInvoice(f: FirmScope, id: string) {
   const inv = await findInvoice(f, id, true)
@@ -163,8 +188,9 @@ export async function issueInvoice(f: FirmScope, id: string) {
   const issuedOn = todayIso()
   const token = newToken()
   await refreshInvoiceTotals(f, id)
+  const parties = await partiesNow(f, inv)
   await f.tx.update(invoices).set({
-    series, number, reference: `${prefix}${String(number).padStart(4, '0')}`, issuedOn,
+    series, number, reference: `${prefix}${String(number).padStart(4, '0')}`, issuedOn, parties,
     dueOn: inv.kind === 'credit-note' ? null : dueDateFor(issuedOn, firm!.paymentTermsDays),
     tokenHash: inv.kind === 'credit-note' ? null : hashToken(token), updatedAt: sql`now()`,
   }).where(f.where(invoices, eq(invoices.id, id)))
@@ -205,7 +231,8 @@ export async function listInvoices(f: FirmScope, today = todayIso(), filter: { j
     .limit(filter.limit ?? 500)
   const money = await moneyAgainst(f, rows.map(r => r.inv.id))
   return rows.map(({ inv, customer }) => {
-    const { tokenHash: _t, ...rest } = inv
+    // the names and addresses kept on each issued invoice are for its own page and PDF, not the list
+    const { tokenHash: _t, parties: _p, ...rest } = inv
     return { ...rest, customer, ...statusOf(inv, money, today) }
   })
 }
@@ -215,18 +242,12 @@ export async function listInvoices(f: FirmScope, today = todayIso(), filter: { j
  * see them all), filtered in SQL by its payments and credit notes, with its status.
  */
 export async function listOwing(f: FirmScope, today = todayIso()) {
-  // the firm's money in and credit notes summed once each (hash aggregates), then joined: a
-  // subquery per invoice read the payments index a hundred thousand times at a busy firm
-  const paid = f.tx.select({ invoiceId: payments.invoiceId, total: sql<number>`sum(${payments.amountPence})`.as('paid_total') })
-    .from(payments).where(f.where(payments)).groupBy(payments.invoiceId).as('paid')
-  const notes = aliasedTable(invoices, 'notes')
-  const credited = f.tx.select({ invoiceId: notes.creditsInvoiceId, total: sql<number>`sum(${notes.amountDuePence})`.as('credited_total') })
-    .from(notes).where(and(eq(notes.firmId, f.firmId), isNotNull(notes.creditsInvoiceId), isNotNull(notes.issuedOn))).groupBy(notes.creditsInvoiceId).as('credited')
+  // settled_pence (payments less refunds, and issued credit notes) is kept by triggers as they are
+  // written; the partial index invoices_owing_idx holds only the invoices still owing, so this
+  // reads a few rows at a busy firm rather than summing a hundred thousand invoices' payments
   const rows = await f.tx.select({ inv: invoices, customer: customers.name }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-    .leftJoin(paid, eq(paid.invoiceId, invoices.id))
-    .leftJoin(credited, eq(credited.invoiceId, invoices.id))
-    .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > coalesce(${paid.total}, 0) + coalesce(${credited.total}, 0)`))
+    .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`))
     .orderBy(asc(invoices.dueOn), asc(invoices.number))
   const money = await moneyAgainst(f, rows.map(r => r.inv.id))
   return rows.map(({ inv, customer }) => {

@@ -6,7 +6,7 @@ import { asc } from 'drizzle-orm'
 import { bankRates } from '../db/schema'
 import { DEFAULT_BANK_RATES, latePaymentClaim } from '#shared/utils/late-payment'
 
-export const CLAIM_CAUTION = 'This is worked out from the Late Payment of Commercial Debts (Interest) Act 1998 as a rule of thumb, not legal advice. It applies to business customers only; check the figures and your contract, and take advice before going to court.'
+export const CLAIM_CAUTION = 'This is worked out from the Late Payment of Commercial Debts (Interest) Act 1998 as a rule of thumb: it is not legal advice. It applies to business customers only. Check the figures and your contract with an accountant or solicitor before you claim, and take advice before going to court.'
 
 /** The firm's Bank Rate table, seeded from DOMAIN.md's figures the first time. */
 export async function bankRateTable(f: FirmScope) {

@@ -2,7 +2,7 @@
 // one invoice visible under RLS (app.invoice_token_hash), then the transaction is scoped to its firm.
 import { eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
-import { customers, firms, invoices } from '../db/schema'
+import { firms, invoices } from '../db/schema'
 
 export const invoiceTokenParam = z.object({ token: z.string().regex(/^[\w-]{40,60}$/, { error: 'Not found.' }) })
 
@@ -18,13 +18,17 @@ export async function openInvoiceByToken(tx: Tx, token: string) {
 /** What the customer sees: their invoice, what is still owed, and how to pay. */
 export async function publicInvoiceView(f: FirmScope, invoiceId: string) {
   const d = await invoiceDetail(f, invoiceId)
-  const [firm] = await f.tx.select({ tradingName: firms.tradingName, addressLine1: firms.addressLine1, town: firms.town, postcode: firms.postcode, email: firms.email, phone: firms.phone, vatNumber: firms.vatNumber, vatRegistered: firms.vatRegistered, bankDetails: firms.bankDetails })
-    .from(firms).where(eq(firms.id, f.firmId))
-  const [customer] = await f.tx.select({ name: customers.name, billingLine1: customers.billingLine1, billingTown: customers.billingTown, billingPostcode: customers.billingPostcode }).from(customers).where(f.where(customers, eq(customers.id, d.customerId)))
+  // who it is from and to as issued (frozen); a draft, or one issued before they were kept: as now
+  const parties = d.parties ?? await partiesNow(f, d)
+  // how to reach and pay the firm stays current: these are not part of the VAT invoice
+  const [contact] = await f.tx.select({ email: firms.email, phone: firms.phone, bankDetails: firms.bankDetails }).from(firms).where(eq(firms.id, f.firmId))
+  const { firm, customer, site } = parties
   return {
     reference: d.reference, kind: d.kind, issuedOn: d.issuedOn, dueOn: d.dueOn, vat: d.vat, cisRatePercent: d.cisRatePercent, notes: d.notes,
     totals: d.totals, amountDuePence: d.amountDuePence, status: d.status, paidPence: d.paidPence, outstandingPence: d.outstandingPence,
-    firm: firm!, customer: customer!, site: d.site, credits: d.credits?.reference ?? null,
+    firm: { tradingName: firm.tradingName, addressLine1: firm.addressLine1, town: firm.town, postcode: firm.postcode, vatNumber: firm.vatNumber, vatRegistered: firm.vatRegistered, ...contact! },
+    customer: { name: customer.name, billingLine1: customer.billingLine1, billingTown: customer.billingTown, billingPostcode: customer.billingPostcode },
+    site, credits: d.credits?.reference ?? null,
     lines: d.lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent })),
   }
 }

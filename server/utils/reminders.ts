@@ -1,16 +1,25 @@
-// Sending payment reminders: the firm's schedule (made from the defaults the first time), which
+// Sending payment reminders: the firm's schedule (made from the defaults once, the first time), which
 // invoices are due one today, and sending one at most once per invoice and step (the chase log's
 // reminder key is unique, written before the e-mail goes). The background job (server/plugins/
 // jobs.ts) and "send a reminder now" both come here.
-import { asc, eq, isNull } from 'drizzle-orm'
-import { chaseNotes, customers, firms, reminderRules } from '../db/schema'
+import { asc, eq, inArray, isNull } from 'drizzle-orm'
+import { auditLog, chaseNotes, customers, firms, reminderRules } from '../db/schema'
 import { DEFAULT_REMINDERS, fillTemplate, reminderDue, reminderKey } from '#shared/utils/reminders'
 
+/**
+ * The firm's schedule. The defaults are put in once, the first time it is read; that is recorded in
+ * the audit log ('reminders.defaulted'), like every change the firm makes ('reminders.changed'), so
+ * an empty schedule the firm saved stays empty (no reminders) instead of coming back as the defaults.
+ */
 export async function reminderRulesFor(f: FirmScope) {
   const list = () => f.tx.select().from(reminderRules).where(f.where(reminderRules)).orderBy(asc(reminderRules.offsetDays))
   const rows = await list()
   if (rows.length) return rows
+  const [chosen] = await f.tx.select({ id: auditLog.id }).from(auditLog)
+    .where(f.where(auditLog, inArray(auditLog.action, ['reminders.changed', 'reminders.defaulted']))).limit(1)
+  if (chosen) return rows
   await f.tx.insert(reminderRules).values(DEFAULT_REMINDERS.map(r => f.values(r))).onConflictDoNothing()
+  await f.audit('reminders.defaulted', 'firm', f.firmId, { count: DEFAULT_REMINDERS.length })
   return list()
 }
 
@@ -42,7 +51,8 @@ export async function sendReminder(scope: { firmId: string, userId: string | nul
     const { outstandingPence: owed } = statusOf(inv, money)
     if (!inv.issuedOn || inv.kind === 'credit-note' || owed <= 0) return null
     const rules = await reminderRulesFor(f)
-    const rule = rules.find(r => r.offsetDays === offsetDays) ?? rules.find(r => r.offsetDays >= 0) ?? rules[0]
+    // by hand with no schedule at all (the firm stopped reminders): the default words for the due date
+    const rule = rules.find(r => r.offsetDays === offsetDays) ?? rules.find(r => r.offsetDays >= 0) ?? rules[0] ?? (offsetDays === null ? DEFAULT_REMINDERS.find(r => r.offsetDays === 0) : undefined)
     const [customer] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
     const [firm] = await f.tx.select().from(firms).where(eq(firms.id, f.firmId))
     if (!customer?.email || !rule) return null

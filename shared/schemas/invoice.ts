@@ -1,6 +1,14 @@
 import { z } from 'zod'
 import { whenObject } from './common'
 import { PAYMENT_METHODS } from '../utils/invoices'
+import { formatPence } from '../utils/money'
+import { invoiceTotals } from '../utils/tax'
+
+/**
+ * The most one invoice (and so one line) may come to: £20,000,000.00. Amounts are kept as 32-bit
+ * whole pence (at most £21,474,836.47), and no plasterer's invoice comes near this.
+ */
+export const MAX_INVOICE_PENCE = 20_000_000_00
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(1_000_000_00, { error: `${what} looks too high.` })
 
@@ -34,6 +42,31 @@ export const invoiceDraftSchema = z.object({
   lines: z.array(invoiceLineSchema).max(200).default([]),
 })
   .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: whenObject })
+  .superRefine((v, ctx) => {
+    // each line, then the whole invoice with its VAT, within what an invoice can come to; zod runs
+    // this even when a line has its own errors, so lines that are not whole numbers are left to them
+    const whole = (n: unknown) => Number.isSafeInteger(n) && (n as number) >= 0
+    if (!Array.isArray(v.lines) || !v.lines.every(l => whole(l?.quantityX1000) && whole(l?.unitPence))) return
+    let tooBig = false
+    v.lines.forEach((l, i) => {
+      const net = (BigInt(l.quantityX1000) * BigInt(l.unitPence) + 500n) / 1000n
+      if (net > BigInt(MAX_INVOICE_PENCE)) {
+        tooBig = true
+        ctx.addIssue({ code: 'custom', path: ['lines', i, 'unitPence'], message: `This line comes to more than ${formatPence(MAX_INVOICE_PENCE)}, the most an invoice can be: check the quantity and the price.` })
+      }
+    })
+    if (tooBig) return
+    let totals: ReturnType<typeof invoiceTotals>
+    try {
+      totals = invoiceTotals(v.lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent })), { vat: v.vat, cisRatePercent: v.cisRatePercent })
+    }
+    catch {
+      return // a treatment or rate that is wrong has its own message
+    }
+    if (totals.grossPence > MAX_INVOICE_PENCE) {
+      ctx.addIssue({ code: 'custom', path: ['lines'], message: `The invoice comes to ${formatPence(totals.grossPence)}; one invoice can be at most ${formatPence(MAX_INVOICE_PENCE)}. Split the work across invoices.` })
+    }
+  })
 
 export const paymentSchema = z.object({
   method: z.enum(['transfer', 'cash', 'cheque'], { error: 'Choose transfer, cash or cheque (card payments arrive by themselves).' }),

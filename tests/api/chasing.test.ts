@@ -23,12 +23,12 @@ afterAll(async () => {
 })
 
 /** Move an invoice's due date into the past, as time would (straight in the database, as the firm). */
-async function dueOn(invoiceId: string, date: string) {
+async function dueOn(invoiceId: string, date: string, firm = firmId) {
   const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
   await db.connect()
   try {
     await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+    await db.query(`select set_config('app.firm_id', $1, true)`, [firm])
     await db.query('update invoices set due_on = $1 where id = $2', [date, invoiceId])
     await db.query('commit')
   }
@@ -101,6 +101,78 @@ describe('reminders', () => {
   })
 })
 
+describe('an empty schedule', () => {
+  it('stops reminders: saved empty, it stays empty and nothing is sent', async () => {
+    const rules = (await owner.get('/api/reminders')).body
+    expect(rules.length).toBeGreaterThan(0)
+    const emptied = await owner.put('/api/reminders', { rules: [] })
+    expect(emptied.status).toBe(200)
+    try {
+      expect((await owner.get('/api/reminders')).body).toEqual([])
+      const { invoice, email } = await issuedTo('homeowner')
+      await dueOn(invoice.id, new Date(Date.now() - 8 * 86_400_000).toISOString().slice(0, 10))
+      const run = await owner.post('/api/reminders/run')
+      expect(run.status).toBe(200)
+      expect(run.body.results.filter((r: any) => r.invoiceId === invoice.id)).toEqual([])
+      await new Promise(r => setTimeout(r, 500))
+      expect(remindersTo(email)).toEqual([])
+      expect((await owner.get('/api/reminders')).body).toEqual([])
+      // one by hand still goes, in the default words
+      expect((await owner.post(`/api/invoices/${invoice.id}/reminders`)).status).toBe(200)
+      await app.waitForMail(email, new RegExp(`${invoice.reference} is due today`))
+    }
+    finally {
+      await owner.put('/api/reminders', { rules: rules.map(({ offsetDays, subject, body }: any) => ({ offsetDays, subject, body })) })
+    }
+  })
+})
+
+describe('what is owed', () => {
+  it('ages each customer\'s debts and the firm\'s total', async () => {
+    const { client: partner, firmId: ownFirm } = await signUpFirm(app.url, 'Owed Ledger Plastering')
+    const isoDaysAgo = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString().slice(0, 10)
+    const customer = async (name: string) => (await partner.post('/api/customers', { customer: { kind: 'homeowner', name, email: uniqueEmail('owed') } })).body
+    const a = await customer('Bryony Hale')
+    const b = await customer('Osric Vane')
+    // [customer, amount, days late (negative: not yet due), paid by transfer so far]
+    const plan: [typeof a, number, number, number][] = [
+      [a, 100_00, -5, 0], [a, 200_00, 0, 50_00], [a, 300_00, 1, 0], [a, 400_00, 30, 0], [a, 500_00, 31, 0],
+      [b, 600_00, 60, 0], [b, 700_00, 61, 100_00], [b, 800_00, 90, 0], [b, 900_00, 91, 0], [b, 1_000_00, 400, 0],
+      [b, 55_00, 10, 55_00], // paid in full: not owed
+    ]
+    const made: { customerId: string, outstanding: number, late: number }[] = []
+    for (const [c, amount, late, paid] of plan) {
+      const d = (await partner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+      await partner.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: 'Skim', quantityX1000: 1000, unitPence: amount }] })
+      const inv = (await partner.post(`/api/invoices/${d.id}/issue`)).body
+      if (paid) await partner.post(`/api/invoices/${d.id}/payments`, { method: 'transfer', amountPence: paid, receivedOn: isoDaysAgo(0) })
+      await dueOn(d.id, isoDaysAgo(late), ownFirm)
+      made.push({ customerId: c.id, outstanding: inv.amountDuePence - paid, late })
+    }
+    // the buckets by days past the due date (our own bands: not yet due, 1-30, 31-60, 61-90, over 90)
+    const band = (late: number) => late <= 0 ? 'not-due' : late <= 30 ? '1-30' : late <= 60 ? '31-60' : late <= 90 ? '61-90' : 'over-90'
+    const expected = (rows: typeof made) => {
+      const out: Record<string, number> = { 'not-due': 0, '1-30': 0, '31-60': 0, '61-90': 0, 'over-90': 0 }
+      for (const r of rows) if (r.outstanding > 0) out[band(r.late)]! += r.outstanding
+      return out
+    }
+    const owed = await partner.get('/api/owed')
+    expect(owed.status).toBe(200)
+    expect(owed.body.totals).toEqual(expected(made))
+    expect(owed.body.totalPence).toBe(made.reduce((s, r) => s + Math.max(0, r.outstanding), 0))
+    expect(owed.body.customers.map((c: any) => c.customerId).sort()).toEqual([a.id, b.id].sort())
+    for (const c of [a, b]) {
+      const mine = made.filter(r => r.customerId === c.id)
+      const row = owed.body.customers.find((x: any) => x.customerId === c.id)
+      expect(row.buckets, c.name).toEqual(expected(mine))
+      expect(row.totalPence).toBe(mine.reduce((s, r) => s + Math.max(0, r.outstanding), 0))
+      expect(row.invoices).toHaveLength(mine.filter(r => r.outstanding > 0).length)
+    }
+    // another firm sees none of it
+    expect((await owner.get('/api/owed')).body.customers.map((c: any) => c.customerId)).not.toContain(a.id)
+  })
+})
+
 describe('the background jobs', () => {
   it('the server\'s pg-boss worker sends a reminder job once, even when the job is sent again (a retry)', async () => {
     const { invoice, email } = await issuedTo('homeowner')
@@ -144,11 +216,11 @@ describe('the statutory claim', () => {
     expect(res.body).toMatchObject(latePaymentClaim({ debtPence: 2_400_00, dueDate: '2026-10-01', asOf: today, bankRates: rates }))
     // £2,400 is under £10,000: a fixed sum of £70 (Act s.5A); interest starts the day after the due date
     expect(res.body).toMatchObject({ interestStart: '2026-10-02', fixedSumPence: 70_00 })
-    expect(res.body.caution).toMatch(/not legal advice/)
+    expect(res.body.caution).toMatch(/not legal advice.*accountant or solicitor/)
     const pdf = await fetch(`${app.url}/invoices/${invoice.id}/claim/pdf`, { headers: { cookie: owner.cookieHeader() } })
     expect(pdf.status).toBe(200)
     const text = (await extractText(await getDocumentProxy(new Uint8Array(await pdf.arrayBuffer())), { mergePages: true })).text.replace(/\s+/g, ' ')
-    for (const s of ['Late Payment of Commercial Debts (Interest) Act 1998', 'Greywether Lettings Ltd', invoice.reference, '£70.00', 'not legal advice']) expect(text).toContain(s)
+    for (const s of ['Late Payment of Commercial Debts (Interest) Act 1998', 'Greywether Lettings Ltd', invoice.reference, '£70.00', 'not legal advice', 'accountant or solicitor']) expect(text).toContain(s)
 
     // the owner keeps the Bank Rate table; bad tables are refused by field
     const bad = await owner.put('/api/bank-rates', { rates: [{ fromDate: '2026-01-01', rateBp: -1 }, { fromDate: '2026-01-01', rateBp: 400 }] })

@@ -1,7 +1,9 @@
+import { spawn } from 'node:child_process'
+import pg from 'pg'
 import Stripe from 'stripe'
 import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { startApp, type TestApp } from '../support/app'
+import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
 import { inviteAndJoin } from './support'
 
@@ -54,6 +56,22 @@ async function payByCard(token: string) {
   return sessionId
 }
 
+/** The firm's highest issued invoice number (0 when none), read as the firm straight from the database. */
+async function highestInvoiceNumber() {
+  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
+  await db.connect()
+  try {
+    await db.query('begin')
+    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+    const { rows } = await db.query<{ n: number }>(`select coalesce(max(number), 0)::int as n from invoices where firm_id = $1 and series = 'invoice'`, [firmId])
+    await db.query('commit')
+    return rows[0]!.n
+  }
+  finally {
+    await db.end()
+  }
+}
+
 function signed(payload: object, timestamp?: number) {
   const body = JSON.stringify(payload)
   const header = stripe.webhooks.generateTestHeaderString({ payload: body, secret: app.stripe.webhookSecret, ...(timestamp ? { timestamp } : {}) })
@@ -72,8 +90,24 @@ describe('drafting and issuing', () => {
     const badLines = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: '', quantityX1000: 0, unitPence: -1 }] })
     expect(badLines.status).toBe(400)
     expect(Object.keys(badLines.body.data.fields).sort()).toEqual(['lines.0.description', 'lines.0.quantityX1000', 'lines.0.unitPence'])
+    // 22 x £1,000,000 would not fit the amount column: a 400 on the line, not a 500 (our own limit, £20,000,000)
+    const huge = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: 'A very large skim', quantityX1000: 22_000, unitPence: 1_000_000_00 }] })
+    expect(huge.status, JSON.stringify(huge.body)).toBe(400)
+    expect(huge.body.data.fields['lines.0.unitPence']).toMatch(/£20,000,000\.00/)
+    const hugeTotal = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: Array.from({ length: 3 }, () => ({ kind: 'labour', description: 'A large skim', quantityX1000: 7_000, unitPence: 1_000_000_00, vatRatePercent: 0 })) })
+    expect(hugeTotal.status, JSON.stringify(hugeTotal.body)).toBe(400)
+    expect(hugeTotal.body.data.fields.lines).toMatch(/£21,000,000\.00/)
     // changing the VAT treatment needs a reason, kept with the invoice
     expect((await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'standard', lines: [] })).body.data?.fields?.vatReason).toBeTruthy()
+    // the reason is needed whenever the treatment is not the suggested one, not only when it changes
+    expect(draft.suggestedVat).toBe('not-registered')
+    const withReason = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'standard', vatReason: 'Registered from 1 December', lines: [] })
+    expect(withReason.status, JSON.stringify(withReason.body)).toBe(200)
+    expect(withReason.body.vat).toBe('standard')
+    const again = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'standard', vatReason: '  ', lines: [] })
+    expect(again.status).toBe(400)
+    expect(Object.keys(again.body.data.fields)).toEqual(['vatReason'])
+    expect((await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'not-registered', lines: [] })).status).toBe(200)
     expect((await owner.post(`/api/invoices/${draft.id}/issue`)).status).toBe(400)
     expect((await owner.delete(`/api/invoices/${draft.id}`)).status).toBe(200)
     expect((await owner.get(`/api/invoices/${draft.id}`)).status).toBe(404)
@@ -87,7 +121,8 @@ describe('drafting and issuing', () => {
       await owner.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: `Job ${i}`, quantityX1000: 1000, unitPence: 1000 + i }] })
       drafts.push(d.id)
     }
-    const before = (await owner.get('/api/invoices')).body.filter((i: any) => i.number !== null && i.series === 'invoice').length
+    // the firm's highest invoice number so far, read straight from the database
+    const before = await highestInvoiceNumber()
     const results = await Promise.all(drafts.map(id => owner.post(`/api/invoices/${id}/issue`)))
     expect(results.map(r => r.status)).toEqual(drafts.map(() => 200))
     const numbers = results.map(r => r.body.number).sort((a, b) => a - b)
@@ -111,6 +146,84 @@ describe('drafting and issuing', () => {
     expect(issuedNote.body.reference).toMatch(/^CN-\d{4}$/)
     expect((await owner.get(`/api/invoices/${invoice.id}`)).body.status).toBe('credited')
     expect((await owner.post(`/api/invoices/${note.body.id}/credit-note`)).status).toBe(409)
+  })
+})
+
+describe('sending an invoice again', () => {
+  const mailsTo = (email: string) => app.mails.filter(m => JSON.stringify(m.to).includes(email) && /^Invoice /.test(m.subject ?? ''))
+
+  it('sends an issued invoice again with a new link, and the old link stops working', async () => {
+    const { invoice, token, customer: c } = await issued(70_00)
+    const again = await owner.post(`/api/invoices/${invoice.id}/resend`)
+    expect(again.status, JSON.stringify(again.body)).toBe(200)
+    await expect.poll(() => mailsTo(c.email).length).toBe(2)
+    const text = mailsTo(c.email)[1]!.text!
+    expect(text).toContain('sent you again')
+    const fresh = /\/i\/([\w-]+)/.exec(text)![1]!
+    expect(fresh).not.toBe(token)
+    expect((await new Client(app.url).get(`/api/public/invoices/${fresh}`)).status).toBe(200)
+    expect((await new Client(app.url).get(`/api/public/invoices/${token}`)).status).toBe(404)
+    expect(JSON.stringify(again.body)).not.toMatch(/tokenHash/)
+
+    // a draft and a credit note have no link to send; another firm's invoice is not there
+    const draft = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+    expect((await owner.post(`/api/invoices/${draft.id}/resend`)).status).toBe(409)
+    const note = (await owner.post(`/api/invoices/${invoice.id}/credit-note`)).body
+    expect((await owner.post(`/api/invoices/${note.id}/issue`)).status).toBe(200)
+    expect((await owner.post(`/api/invoices/${note.id}/resend`)).status).toBe(409)
+    expect((await other.post(`/api/invoices/${invoice.id}/resend`)).status).toBe(404)
+    expect((await new Client(app.url).post(`/api/invoices/${invoice.id}/resend`)).status).toBe(401)
+  })
+
+  it('issues even when the mail server is down, says the e-mail did not go, and sending again changes nothing until it goes', async () => {
+    // a server of its own whose mail server is not there (nothing listens on port 1)
+    const down = await startApp({ NUXT_SMTP_PORT: '1' })
+    try {
+      const { client } = await signUpFirm(down.url, 'No Post Plastering')
+      const c = (await client.post('/api/customers', { customer: { kind: 'homeowner', name: 'Ivo Marsh', email: uniqueEmail('ivo') } })).body
+      const d = (await client.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
+      await client.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: 'Skim the box room', quantityX1000: 1000, unitPence: 150_00 }] })
+      const res = await client.post(`/api/invoices/${d.id}/issue`)
+      expect(res.status, JSON.stringify(res.body)).toBe(200)
+      expect(res.body).toMatchObject({ status: 'issued', reference: expect.stringMatching(/^INV-\d{4}$/) })
+      expect(res.body.warning).toMatch(/issued, but the e-mail did not go/i)
+      expect((await client.get(`/api/invoices/${d.id}`)).body.issuedOn).toBeTruthy()
+      const again = await client.post(`/api/invoices/${d.id}/resend`)
+      expect(again.status).toBe(502)
+      expect(again.body.data.message).toMatch(/did not go/)
+    }
+    finally {
+      await down.stop()
+    }
+  })
+})
+
+describe('a live key with the local webhook secret', () => {
+  it('stops the server at startup with a clear error', async () => {
+    const child = spawn('node', [`${process.env.SETWELL_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
+      env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: '0', NITRO_PORT: '0', NUXT_DATABASE_URL: requiredEnv('SETWELL_TEST_DATABASE_URL'), NUXT_SESSION_PASSWORD: requiredEnv('SETWELL_TEST_SESSION_PASSWORD'), NUXT_JOBS_ENABLED: 'false', NUXT_STRIPE_SECRET_KEY: 'sk_live_not_a_real_key', NUXT_STRIPE_WEBHOOK_SECRET: 'whsec_setwell_local' },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    })
+    let out = ''
+    child.stdout!.on('data', (b) => {
+      out += b
+    })
+    child.stderr!.on('data', (b) => {
+      out += b
+    })
+    const code = await new Promise<number | null>((resolve) => {
+      const timer = setTimeout(() => {
+        child.kill('SIGTERM')
+        resolve(null)
+      }, 20_000)
+      child.once('exit', (c) => {
+        clearTimeout(timer)
+        resolve(c)
+      })
+    })
+    expect(code, out).not.toBe(0)
+    expect(code, out).not.toBeNull()
+    expect(out).toMatch(/live key but NUXT_STRIPE_WEBHOOK_SECRET is the local default/)
   })
 })
 
@@ -214,6 +327,67 @@ describe('card payments through the Stripe fake', () => {
     expect((await owner.post(`/api/invoices/${other2.id}/refunds`, { paymentId: cash.id, amountPence: other2.amountDuePence })).status).toBe(400)
   })
 
+  it('keeps a refund that arrives before its payment: refused until the payment is in, then recorded by the retry', async () => {
+    const { invoice, token } = await issued(75_00)
+    const fakeEvents = () => app.stripe.state.events as { id: string, type: string, data: { object: { id: string } } }[]
+    // the payment's events are kept by the fake but not sent (as if they were late)
+    app.stripe.setSwitches({ webhookUrl: null })
+    const from = fakeEvents().length
+    const checkout = await new Client(app.url).post(`/api/public/invoices/${token}/checkout`)
+    const sessionId = new URL(checkout.body.url).pathname.split('/').pop()!
+    expect((await fetch(`${app.stripe.url}/pay/${sessionId}/pay`, { method: 'POST', redirect: 'manual' })).status).toBe(303)
+    const succeeded = fakeEvents().slice(from).find(e => e.type === 'payment_intent.succeeded')!
+    try {
+      // a refund made straight at the (fake) Stripe, delivered at once: it gets there first
+      app.stripe.setSwitches({ webhookUrl: `${app.url}/api/webhooks/stripe`, retryDelayMs: 400, retries: 4 })
+      const fake = new URL(app.stripe.url)
+      const direct = new Stripe('sk_test_setwell_tests', { host: fake.hostname, port: Number(fake.port), protocol: 'http' })
+      const deliveredFrom = app.stripe.state.deliveries.length
+      await direct.refunds.create({ payment_intent: succeeded.data.object.id, amount: 25_00 })
+      const refundTries = () => app.stripe.state.deliveries.slice(deliveredFrom).filter(d => d.type === 'charge.refunded')
+      await app.stripe.waitForDeliveries(() => refundTries().length >= 1)
+      expect(refundTries()[0]).toMatchObject({ statusCode: 409, ok: false })
+      expect((await owner.get(`/api/invoices/${invoice.id}`)).body.payments).toEqual([])
+      // then the payment arrives; the refund's next try finds it
+      const late = await signed(succeeded)
+      expect((await late.json()).outcome).toBe('payment recorded')
+      await app.stripe.waitForDeliveries(() => refundTries().some(d => d.ok))
+      await app.stripe.idle()
+    }
+    finally {
+      app.stripe.setSwitches({ webhookUrl: `${app.url}/api/webhooks/stripe`, retryDelayMs: 50, retries: 3 })
+    }
+    const after = (await owner.get(`/api/invoices/${invoice.id}`)).body
+    expect(after.payments.map((p: any) => [p.method, p.amountPence])).toEqual([['card', invoice.amountDuePence], ['card', -25_00]])
+    expect(after).toMatchObject({ paidPence: invoice.amountDuePence - 25_00, outstandingPence: 25_00 })
+  })
+
+  it('answers 400 with Stripe\'s reason when Stripe refuses a refund, and 409 for a card payment under 30p', async () => {
+    const { invoice, token } = await issued(60_00)
+    await payByCard(token)
+    const card = (await owner.get(`/api/invoices/${invoice.id}`)).body.payments[0]
+    // refunded in full straight at the (fake) Stripe, its event not sent: our refund is then refused by Stripe
+    app.stripe.setSwitches({ webhookUrl: null })
+    try {
+      const fake = new URL(app.stripe.url)
+      await new Stripe('sk_test_setwell_tests', { host: fake.hostname, port: Number(fake.port), protocol: 'http' }).refunds.create({ payment_intent: card.stripePaymentIntentId })
+      const refused = await owner.post(`/api/invoices/${invoice.id}/refunds`, { paymentId: card.id, amountPence: 10_00 })
+      expect(refused.status, JSON.stringify(refused.body)).toBe(400)
+      expect(refused.body.data.message).toMatch(/refused the refund: .*already been refunded/)
+    }
+    finally {
+      app.stripe.setSwitches({ webhookUrl: `${app.url}/api/webhooks/stripe` })
+    }
+    expect((await owner.get(`/api/invoices/${invoice.id}`)).body.payments).toHaveLength(1)
+
+    // 10p left after a transfer: too little for a card (Stripe's minimum is 30p, from memory)
+    const { invoice: small, token: smallToken } = await issued(50_00)
+    await owner.post(`/api/invoices/${small.id}/payments`, { method: 'transfer', amountPence: small.amountDuePence - 10, receivedOn: '2026-12-01' })
+    const tiny = await new Client(app.url).post(`/api/public/invoices/${smallToken}/checkout`)
+    expect(tiny.status, JSON.stringify(tiny.body)).toBe(409)
+    expect(tiny.body.data.message).toMatch(/£0\.10 is left to pay, less than the £0\.30/)
+  })
+
   it('ends paid when the events arrive last first', async () => {
     const { invoice, token } = await issued(64_00)
     app.stripe.setSwitches({ reorder: true })
@@ -263,7 +437,7 @@ describe('money routes, roles and firms', () => {
     const { client: crew } = await inviteAndJoin(app, owner, uniqueEmail('crew'), 'crew')
     const body = { method: 'cash', amountPence: 100, receivedOn: '2026-12-01' }
     for (const [method, path] of [['GET', '/api/invoices'], ['POST', '/api/invoices'], ['GET', `/api/invoices/${invoice.id}`], ['PUT', `/api/invoices/${invoice.id}/draft`], ['POST', `/api/invoices/${invoice.id}/issue`], ['POST', `/api/invoices/${invoice.id}/payments`], ['POST', `/api/invoices/${invoice.id}/credit-note`], ['DELETE', `/api/invoices/${invoice.id}`],
-      ['POST', `/api/invoices/${invoice.id}/refunds`], ['POST', `/api/invoices/${invoice.id}/reminders`], ['POST', `/api/invoices/${invoice.id}/chase-notes`], ['GET', `/api/invoices/${invoice.id}/claim`],
+      ['POST', `/api/invoices/${invoice.id}/refunds`], ['POST', `/api/invoices/${invoice.id}/resend`], ['POST', `/api/invoices/${invoice.id}/reminders`], ['POST', `/api/invoices/${invoice.id}/chase-notes`], ['GET', `/api/invoices/${invoice.id}/claim`],
       ['GET', '/api/owed'], ['GET', '/api/reminders'], ['PUT', '/api/reminders'], ['POST', '/api/reminders/run'], ['GET', '/api/bank-rates'], ['PUT', '/api/bank-rates']] as const) {
       expect((await crew.request(method, path, method === 'GET' || method === 'DELETE' ? undefined : body)).status, `${method} ${path}`).toBe(403)
     }
@@ -307,7 +481,43 @@ describe('the PDF of an invoice', () => {
       'Skim the first-floor flats', 'Finish plaster', '20%', '£1,000.00', '£124.00', '£1,124.00',
       'Reverse charge: customer to pay the VAT to HMRC', '£224.80', 'deducts 20% from the labour', '£200.00', '£924.00', 'sort code 00-00-00',
     ]) expect(text, expected).toContain(expected)
-    // crew and another firm get nothing
+
+    // issued means frozen: renaming the firm and moving the customer change neither the PDF nor the customer's view
+    const custFields = { kind: 'builder', name: 'Łukasz Quarry Builds Ltd', email: c.email, billingLine1: '9 Kiln Lane', billingTown: 'Kettlebury', billingPostcode: 'KB3 4CD', vatRegistered: true, vatNumber: 'GB999999973', paysUnderCis: true, cisRatePercent: 20 }
+    expect((await owner.patch(`/api/customers/${c.id}`, { ...custFields, billingLine1: '77 New Road', billingPostcode: 'KB7 7ZZ' })).status).toBe(200)
+    const renamed = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankDetails: 'Sort code 00-00-00, account 00000000', tradingName: 'Renamed Plastering Co' })
+    expect(renamed.status, JSON.stringify(renamed.body)).toBe(200)
+    const pdfText = async () => {
+      const r = await fetch(`${app.url}/invoices/${draft.id}/pdf`, { headers: { cookie: owner.cookieHeader() } })
+      return (await extractText(await getDocumentProxy(new Uint8Array(await r.arrayBuffer())), { mergePages: true })).text.replace(/\s+/g, ' ')
+    }
+    const later = await pdfText()
+    for (const kept of ['Invoice Firm', '9 Kiln Lane', 'KB3 4CD']) expect(later, kept).toContain(kept)
+    for (const changed of ['Renamed Plastering Co', '77 New Road', 'KB7 7ZZ']) expect(later, changed).not.toContain(changed)
+    const token = /\/i\/([\w-]+)/.exec((await app.waitForMail(c.email, /Invoice /)).text!)![1]!
+    const view = (await new Client(app.url).get(`/api/public/invoices/${token}`)).body
+    expect(view.firm).toMatchObject({ tradingName: 'Invoice Firm', addressLine1: '2 Lime Walk', vatNumber: 'GB999999973' })
+    expect(view.customer).toMatchObject({ name: 'Łukasz Quarry Builds Ltd', billingLine1: '9 Kiln Lane', billingPostcode: 'KB3 4CD' })
+    // an invoice issued before the details were kept shows them as they are now
+    const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
+    await db.connect()
+    try {
+      await db.query('begin')
+      await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+      await db.query('update invoices set parties = null where id = $1', [draft.id])
+      await db.query('commit')
+    }
+    finally {
+      await db.end()
+    }
+    const live = (await new Client(app.url).get(`/api/public/invoices/${token}`)).body
+    expect(live.firm.tradingName).toBe('Renamed Plastering Co')
+    expect(live.customer.billingLine1).toBe('77 New Road')
+    expect(await pdfText()).toContain('Renamed Plastering Co')
+
+    // crew, another firm and the signed-out get nothing
+    const { client: crew } = await inviteAndJoin(app, owner, uniqueEmail('crew-pdf'), 'crew')
+    expect((await fetch(`${app.url}/invoices/${draft.id}/pdf`, { headers: { cookie: crew.cookieHeader() } })).status).toBe(403)
     expect((await fetch(`${app.url}/invoices/${draft.id}/pdf`, { headers: { cookie: other.cookieHeader() } })).status).toBe(404)
     expect((await fetch(`${app.url}/invoices/${draft.id}/pdf`)).status).toBe(401)
   })

@@ -49,6 +49,15 @@ describe('invoicing and being paid', () => {
     expect(issued.reference).toMatch(/^[A-Z]+-\d{4}$/)
     await screenshot(owner, 'invoice-issued')
 
+    // before it is paid, the office partner sees it on the list of what is owed, with its customer's ages
+    const sam = await e2e.open()
+    await signInToDashboard(sam.page, e2e.url, OFFICE.email, OFFICE.password)
+    await visit(sam.page, `${e2e.url}/owed`)
+    await expectVisible(sam.page.getByRole('link', { name: 'Mirren Okafor' }))
+    await expectVisible(sam.page.getByRole('link', { name: new RegExp(issued.reference) }))
+    await expectVisible(sam.page.getByLabel('Mirren Okafor: owed by age'))
+    await screenshot(sam.page, 'owed-office-before')
+
     // the customer, on their own phone, from the e-mail
     const mail = await e2e.app.waitForMail(email, new RegExp(`Invoice ${issued.reference}`))
     const link = /(http:\/\/\S+\/i\/[\w-]+)/.exec(mail.text ?? '')![1]!
@@ -69,9 +78,7 @@ describe('invoicing and being paid', () => {
     await expectText(owner.getByTestId('invoice-status'), 'Paid')
     expect((await api.get(`/api/invoices/${invoiceId}`)).body).toMatchObject({ status: 'paid', outstandingPence: 0, payments: [expect.objectContaining({ method: 'card', amountPence: issued.amountDuePence })] })
     expect((await api.get(`/api/jobs/${jobId}`)).body.status).toBe('paid')
-    const sam = await e2e.open()
-    await signInToDashboard(sam.page, e2e.url, OFFICE.email, OFFICE.password)
-    await visit(sam.page, `${e2e.url}/owed`)
+    await reload(sam.page)
     await expectVisible(sam.page.getByRole('heading', { name: 'What is owed' }))
     await expectAbsent(sam.page.getByText(issued.reference))
     await expectAbsent(sam.page.getByText('Mirren Okafor'))

@@ -73,6 +73,7 @@ const TABLE: Record<string, [Need, string]> = {
   'POST /api/invoices/:id/payments': ['money:write', '401 ok ok 403 403 404'],
   'POST /api/invoices/:id/refunds': ['money:write', '401 ok ok 403 403 404'],
   'POST /api/invoices/:id/reminders': ['money:write', '401 ok ok 403 403 404'],
+  'POST /api/invoices/:id/resend': ['money:write', '401 ok ok 403 403 404'],
   'GET /api/invoices': ['money:read', '401 ok ok 403 ok ok'],
   'POST /api/invoices': ['money:write', '401 ok ok 403 403 400'],
   'PATCH /api/job-days/:id': ['work:log', '401 ok ok ok 403 404'],

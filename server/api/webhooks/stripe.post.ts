@@ -9,7 +9,8 @@ const metadataSchema = z.object({ firmId: z.uuid(), invoiceId: z.uuid() })
  * Stripe's webhook. The raw body is checked against the Stripe-Signature header (400 otherwise,
  * nothing changed). The event id is recorded in the same transaction as its effect, so a
  * duplicate does nothing; the amount and currency are checked against the invoice; a payment is
- * recorded once per PaymentIntent whichever event brings it first; a refund lowers what was paid.
+ * recorded once per PaymentIntent whichever event brings it first; a refund lowers what was paid
+ * (a refund that arrives before its payment is answered 409, so Stripe sends it again).
  * Status follows from payments, so a late or repeated event never moves an invoice backwards.
  */
 export default defineEventHandler(async (event) => {
@@ -59,7 +60,9 @@ export default defineEventHandler(async (event) => {
       const pi = typeof ch.payment_intent === 'string' ? ch.payment_intent : ch.payment_intent?.id
       if (!pi) return done('no payment intent')
       const [paid] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.stripePaymentIntentId, pi)))
-      if (!paid) return done('refund of an unknown payment')
+      // the refund came before its payment (Stripe does not keep events in order): refuse it, so
+      // the event row rolls back with this transaction and Stripe delivers it again later
+      if (!paid) throw createError({ statusCode: 409, statusMessage: 'Payment not recorded yet', data: { message: 'The payment this refund belongs to has not arrived yet; send the event again later.' } })
       const [already] = await f.tx.select({ total: sql<number>`coalesce(-sum(${payments.amountPence}), 0)::int` }).from(payments)
         .where(f.where(payments, eq(payments.invoiceId, invoiceId), eq(payments.method, 'card'), lt(payments.amountPence, 0), sql`${payments.reference} = ${pi}`))
       const more = ch.amount_refunded - Number(already?.total ?? 0)

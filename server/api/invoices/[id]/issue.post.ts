@@ -5,6 +5,8 @@ import { idParam } from '#shared/schemas/common'
 /**
  * Issue a draft: it takes the firm's next number (no gaps, no duplicates), its date and due date,
  * and is frozen; the customer is e-mailed a link to view it, download the PDF and pay by card.
+ * The e-mail goes after the commit: when it fails the invoice stays issued, and the answer says
+ * so in `warning` (the page offers "Send again", POST /api/invoices/:id/resend).
  */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
@@ -19,22 +21,15 @@ export default defineEventHandler(async (event) => {
     return { detail, customer: customer!, token, firmName: firm!.tradingName }
   })
   const d = issued.detail
+  let warning: string | null = null
   if (d.kind !== 'credit-note') {
-    const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/i/${issued.token}`
-    const t = d.totals as Record<string, number>
-    await sendMail({
-      to: issued.customer.email,
-      subject: `Invoice ${d.reference} from ${issued.firmName}`,
-      text: [
-        `Hello ${issued.customer.contactName || issued.customer.name},`,
-        '',
-        `${issued.firmName} has sent you invoice ${d.reference} for ${formatPence(d.amountDuePence)}${t.cisDeductionPence ? ` (after the CIS deduction of ${formatPence(t.cisDeductionPence)})` : ''}${t.reverseChargeVatPence ? ' (reverse charge: you account for the VAT)' : ''}, due by ${d.dueOn}.`,
-        'View it, download the PDF and pay by card here:',
-        link,
-        '',
-        'The link is for you only; please do not forward it.',
-      ].join('\n'),
-    })
+    try {
+      await sendMail(invoiceMail({ customer: issued.customer, firmName: issued.firmName, token: issued.token, invoice: { ...d, totals: d.totals as Record<string, number> } }))
+    }
+    catch (err) {
+      console.error('[mail] invoice not sent:', (err as Error).message)
+      warning = INVOICE_MAIL_FAILED
+    }
   }
-  return d
+  return { ...d, warning }
 })

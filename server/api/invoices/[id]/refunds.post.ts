@@ -36,7 +36,13 @@ export default defineEventHandler(async (event) => {
       await useStripe().refunds.create({ payment_intent: card.intent, amount: input.amountPence }, { idempotencyKey: input.requestId ? `refund-${input.requestId}` : `refund-${input.paymentId}-${input.amountPence}-${card.refunded}-${input.reference}` })
     }
     catch (err) {
-      throw createError({ statusCode: 502, statusMessage: 'Refund not made', data: { message: `The card company refused the refund: ${(err as Error).message}` } })
+      // Stripe said no (already refunded, too much, ...): a 400 with its reason; unreachable: a 502
+      const e = err as { type?: string, statusCode?: number, message?: string }
+      if (e.type === 'StripeInvalidRequestError' || (typeof e.statusCode === 'number' && e.statusCode >= 400 && e.statusCode < 500)) {
+        throw createError({ statusCode: 400, statusMessage: 'Refund refused', data: { message: `The card company refused the refund: ${e.message}`, fields: { amountPence: `The card company refused the refund: ${e.message}` } } })
+      }
+      console.error('[stripe] refund not made:', e.message)
+      throw createError({ statusCode: 502, statusMessage: 'Refund not made', data: { message: 'The card company could not be reached, so nothing was refunded. Try again in a few minutes.' } })
     }
   }
   setResponseStatus(event, card ? 202 : 201)

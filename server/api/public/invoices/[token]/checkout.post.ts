@@ -1,5 +1,9 @@
 import { count, eq } from 'drizzle-orm'
 import { payments } from '../../../../db/schema'
+
+/** Stripe's smallest card charge in pounds sterling (Stripe's "minimum and maximum charge amounts", from memory). */
+const MIN_CARD_PENCE = 30
+
 /**
  * Public: pay what is owed by card. Makes a Stripe Checkout Session for the outstanding amount
  * (its metadata names the firm and the invoice, so the webhook can find them) and answers its URL.
@@ -14,6 +18,8 @@ export default defineEventHandler(async (event) => {
     return { firmId: f.firmId, invoiceId, moves: moves?.n ?? 0, ...(await publicInvoiceView(f, invoiceId)) }
   })
   if (view.outstandingPence <= 0) throw createError({ statusCode: 409, statusMessage: 'Nothing owed', data: { message: 'This invoice is paid: there is nothing to pay.' } })
+  // Stripe takes no card payment under 30p (its minimum charge for GBP)
+  if (view.outstandingPence < MIN_CARD_PENCE) throw createError({ statusCode: 409, statusMessage: 'Too little for a card', data: { message: `Only ${formatPence(view.outstandingPence)} is left to pay, less than the ${formatPence(MIN_CARD_PENCE)} a card payment can be: please pay it by bank transfer or ask the firm.` } })
   const appUrl = useRuntimeConfig().appUrl.replace(/\/$/, '')
   const metadata = { firmId: view.firmId, invoiceId: view.invoiceId }
   try {
