@@ -257,9 +257,9 @@ async function main() {
   // 2 and 3: latency as a ratio to the trivial route at the same concurrency
   const targets: [string, string, string][] = [
     ['lists', 'customers, page 50', '/api/customers?page=50&pageSize=25'],
-    ['lists', 'jobs', '/api/jobs'],
-    ['lists', 'invoices', '/api/invoices'],
-    ['lists', 'what is owed', '/api/owed'],
+    ['lists', 'jobs (newest 50)', '/api/jobs'],
+    ['lists', 'invoices (newest 50)', '/api/invoices'],
+    ['lists', 'what is owed (50 customers a page)', '/api/owed'],
     ['record', 'one invoice', `/api/invoices/${invoice!.id}`],
     ['render', 'dashboard (server-rendered)', '/'],
     ['render', 'invoice list (server-rendered)', '/invoices'],

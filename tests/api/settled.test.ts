@@ -120,4 +120,39 @@ describe('what is settled against each invoice', () => {
     expect(owed).toContain(a.reference)
     expect(owed).toContain(b.reference)
   })
+
+  it('pages the customers most owed, with whole totals and counts, and the longest overdue first', async () => {
+    const late = await issued(55_00)
+    const later = await issued(65_00)
+    await asFirm('update invoices set due_on = $2 where id = $1', [late.id, '2026-09-01'])
+    await asFirm('update invoices set due_on = $2 where id = $1', [later.id, '2026-06-01'])
+    const whole = (await owner.get('/api/owed?pageSize=200')).body
+    expect(whole.counts.customers).toBeGreaterThan(3)
+    expect(whole.customers).toHaveLength(whole.counts.customers)
+    // most owed first
+    const totals = whole.customers.map((c: { totalPence: number }) => c.totalPence)
+    expect(totals).toEqual([...totals].sort((a: number, b: number) => b - a))
+    const first = await owner.get('/api/owed?pageSize=1')
+    expect(first.status).toBe(200)
+    const second = (await owner.get('/api/owed?pageSize=1&page=2')).body
+    for (const page of [first.body, second]) {
+      expect(page.totals).toEqual(whole.totals)
+      expect(page.totalPence).toBe(whole.totalPence)
+      expect(page.counts).toEqual(whole.counts)
+    }
+    expect(first.body.customers).toEqual(whole.customers.slice(0, 1))
+    expect(second.customers).toEqual(whole.customers.slice(1, 2))
+    // the longest overdue first, as many as the page size
+    expect(whole.counts.overdue).toBe(2)
+    expect(whole.overdue.map((i: { reference: string }) => i.reference)).toEqual([later.reference, late.reference])
+    expect(first.body.overdue.map((i: { reference: string }) => i.reference)).toEqual([later.reference])
+    // each customer's total is the sum of its invoices, and the buckets add up to the whole
+    for (const c of whole.customers) expect(c.invoices.reduce((s: number, i: { outstandingPence: number }) => s + i.outstandingPence, 0)).toBe(c.totalPence)
+    expect(Object.values(whole.totals as Record<string, number>).reduce((a, b) => a + b, 0)).toBe(whole.totalPence)
+    for (const [query, field] of [['pageSize=0', 'pageSize'], ['pageSize=201', 'pageSize'], ['pageSize=2.5', 'pageSize'], ['page=0', 'page'], ['page=ten', 'page']]) {
+      const res = await owner.get(`/api/owed?${query}`)
+      expect(res.status, query).toBe(400)
+      expect(JSON.stringify(res.body), query).toContain(`${field} is a whole number`)
+    }
+  })
 })
