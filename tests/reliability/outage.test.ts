@@ -1,5 +1,6 @@
 // A mixed load for 60 seconds on loopback (reads, customers, quotes, invoices drafted and issued,
-// payments recorded by hand and paid by card through the Stripe fake, exports), with the database
+// payments recorded by hand and paid by card through the Stripe fake, sets logged on a job,
+// exports), with the database
 // stopped 20 seconds in and started again 10 seconds later.
 // Outside the outage: no 5xx. During it: 503 with a message, never another 5xx. Afterwards the
 // app answers again without a restart, every write it acknowledged is in the database, and no
@@ -27,6 +28,7 @@ const profile = { name: `outage-${process.pid}`, dataDir: join(env.root, `.data/
 let app: TestApp
 let owner: Client
 let firmId: string
+let job: { id: string, surfaceIds: string[], finishId: string }
 const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
 
 async function sql<T = Record<string, unknown>>(text: string, values: unknown[] = []): Promise<T[]> {
@@ -52,7 +54,34 @@ beforeAll(async () => {
   await pgLib.migrate(profile)
   app = await startApp({ NUXT_DATABASE_URL: env.urls(profile).app, NUXT_JOBS_ENABLED: 'false' })
   ;({ client: owner, firmId } = await signUpFirm(app.url, 'Outage Firm'))
+  job = await jobUnderWay()
 })
+
+/** A job from a measured visit, through a quote the customer accepted: its set 1 is logged under the load. */
+async function jobUnderWay() {
+  const email = uniqueEmail('site')
+  const c = (await owner.post('/api/customers', { customer: { kind: 'homeowner', name: 'Tamsin Orrell', email }, site: { line1: '9 Kiln Yard', postcode: 'KB2 5TW' } })).body
+  const v = (await owner.post('/api/visits', { customerId: c.id, siteId: c.sites[0].id, startsAt: '2026-12-02T09:00:00Z' })).body
+  const room = await owner.put(`/api/visits/${v.id}/rooms/${crypto.randomUUID()}`, {
+    revision: 0,
+    name: 'Front room',
+    surfaces: [
+      { id: crypto.randomUUID(), kind: 'wall', lengthMm: 4000, secondMm: 2400 },
+      { id: crypto.randomUUID(), kind: 'ceiling', lengthMm: 4000, secondMm: 3500 },
+    ],
+  })
+  expect(room.status, JSON.stringify(room.body)).toBe(200)
+  const q = (await owner.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
+  expect((await owner.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
+  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
+  expect((await new PublicClient(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Tamsin Orrell' })).status).toBe(200)
+  const made = await owner.post(`/api/quotes/${q.id}/job`)
+  expect(made.status, JSON.stringify(made.body)).toBe(201)
+  const detail = (await owner.get(`/api/jobs/${made.body.id}`)).body
+  const finish = (await owner.get('/api/materials')).body.find((m: { type: string }) => m.type === 'finish')
+  return { id: made.body.id as string, surfaceIds: detail.plan.plan.sets[0].tasks.map((t: { surfaceId: string }) => t.surfaceId) as string[], finishId: finish.id as string }
+}
 afterAll(async () => {
   await app?.stop()
   pgLib.stopCluster(profile)
@@ -66,7 +95,7 @@ describe('the database stopped in the middle of a mixed load', () => {
     const started = Date.now()
     const elapsed = () => (Date.now() - started) / 1000
     const outcomes: Outcome[] = []
-    const acknowledged = { customers: [] as string[], invoices: [] as string[], payments: [] as string[], issued: [] as string[], quotes: [] as string[], cards: [] as { invoiceId: string, amountPence: number }[] }
+    const acknowledged = { customers: [] as string[], invoices: [] as string[], payments: [] as string[], issued: [] as string[], quotes: [] as string[], cards: [] as { invoiceId: string, amountPence: number }[], setLogs: [] as { id: string, packsX1000: number }[] }
     const emails = new Map<string, string>()
     // Stripe keeps sending an event for days until it is taken; the fake, a few times quickly. For
     // the outage, long enough to outlast it (0.5 s doubling eight times: over two minutes)
@@ -90,7 +119,7 @@ describe('the database stopped in the middle of a mixed load', () => {
       let i = 0
       while (elapsed() < LOAD_SECONDS) {
         i++
-        const step = (n + i) % 7
+        const step = (n + i) % 8
         if (step === 0) {
           const email = uniqueEmail('load')
           const r = await call('new customer', 'POST', '/api/customers', { customer: { kind: 'homeowner', name: `Load ${n}-${i}`, email } })
@@ -129,6 +158,16 @@ describe('the database stopped in the middle of a mixed load', () => {
           const customerId = acknowledged.customers[(n * 5 + i) % acknowledged.customers.length]
           const quote = await call('new quote', 'POST', '/api/quotes', { customerId })
           if (quote.status === 201) acknowledged.quotes.push(quote.body.id)
+        }
+        else if (step === 6) {
+          // a set logged on the job, with the bags mixed
+          const packsX1000 = 1000 + n * 100 + (i % 100)
+          const logged = await call('log a set', 'POST', `/api/jobs/${job.id}/logs`, {
+            kind: 'set', setNumber: 1, coat: 'first', surfaceIds: job.surfaceIds, startedAt: `${day}T08:00:00Z`, endedAt: `${day}T09:30:00Z`,
+            materials: [{ materialId: job.finishId, packsX1000 }], notes: `load ${n}-${i}`,
+          })
+          const mine = logged.status === 201 ? logged.body.logs.find((l: { notes: string }) => l.notes === `load ${n}-${i}`) : undefined
+          if (mine) acknowledged.setLogs.push({ id: mine.id, packsX1000 })
         }
         else if (step === 2) await call('customers list', 'GET', '/api/customers?pageSize=25')
         else if (step === 3) await call('invoices list', 'GET', '/api/invoices')
@@ -183,6 +222,13 @@ describe('the database stopped in the middle of a mixed load', () => {
     const quotes = new Set((await sql<{ id: string }>('select q.id from quotes q join quote_versions v on v.firm_id = q.firm_id and v.quote_id = q.id and v.version = 1')).map(r => r.id))
     expect(acknowledged.quotes.filter(id => !quotes.has(id))).toEqual([])
     expect(acknowledged.quotes.length, 'quotes made under load').toBeGreaterThan(10)
+    // every set log acknowledged is there, and no set log is without the materials it was sent with
+    const logs = await sql<{ id: string, notes: string, packs: number | null, uses: number }>(
+      'select l.id, l.notes, (select sum(u.packs_x_1000)::int from material_uses u where u.firm_id = l.firm_id and u.log_id = l.id) as packs, (select count(*)::int from material_uses u where u.firm_id = l.firm_id and u.log_id = l.id) as uses from set_logs l where l.job_id = $1', [job.id])
+    const logsBy = new Map(logs.map(l => [l.id, l]))
+    expect(acknowledged.setLogs.filter(l => logsBy.get(l.id)?.packs !== l.packsX1000)).toEqual([])
+    expect(logs.filter(l => l.notes.startsWith('load ') && l.uses !== 1).map(l => l.notes)).toEqual([])
+    expect(acknowledged.setLogs.length, 'sets logged under load').toBeGreaterThan(10)
 
     // nothing half-written: an issued invoice has its number, reference, lines and totals together;
     // numbers run without gaps or repeats
