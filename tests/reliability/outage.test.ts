@@ -1,10 +1,9 @@
 // A mixed load for 60 seconds on loopback (reads, customers, quotes, invoices drafted and issued,
 // payments recorded by hand and paid by card through the Stripe fake, sets logged on a job,
-// exports), with the database
-// stopped 20 seconds in and started again 10 seconds later.
-// Outside the outage: no 5xx. During it: 503 with a message, never another 5xx. Afterwards the
-// app answers again without a restart, every write it acknowledged is in the database, and no
-// invoice or payment is half-written. The database is a cluster of this file's own, so stopping
+// exports), with the database stopped 20 seconds in and started again 10 seconds later. Outside
+// the outage: no 5xx. During it: 503 with a message, never another 5xx. Afterwards the app
+// answers again without a restart, every write it acknowledged is in the database, and no
+// invoice, payment or set log is half-written. The database is a cluster of this file's own, so stopping
 // it disturbs no other test.
 import { rmSync } from 'node:fs'
 import { join } from 'node:path'
