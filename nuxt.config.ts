@@ -46,6 +46,9 @@ export default defineNuxtConfig({
     // links fetch their page's code when touched or hovered, not whenever they scroll into view: on
     // a phone the menu alone would otherwise pull in every linked page's script (npm run bench)
     defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+    // no route rules live on the client, so the build manifest Nuxt would fetch for them is not
+    // needed: without it a phone that loses its signal mid-visit logs no failed fetch either
+    appManifest: false,
   },
   compatibilityDate: '2026-07-01',
   telemetry: false,
