@@ -243,13 +243,14 @@ export async function listInvoices(f: FirmScope, today = todayIso(), filter: { j
  * those of these ids that are owing.
  */
 export async function listOwing(f: FirmScope, today = todayIso(), only?: string[]) {
+  if (only && !only.length) return []
   // settled_pence (payments less refunds, and issued credit notes) is kept by triggers as they are
   // written; the partial index invoices_owing_idx holds only the invoices still owing, so this
   // reads a few rows at a busy firm rather than summing a hundred thousand invoices' payments
   const rows = await f.tx.select({ inv: invoices, customer: customers.name }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
     .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`,
-      only ? inArray(invoices.id, only.length ? only : ['00000000-0000-0000-0000-000000000000']) : undefined))
+      only ? inArray(invoices.id, only) : undefined))
     .orderBy(asc(invoices.dueOn), asc(invoices.number))
   const money = await moneyAgainst(f, rows.map(r => r.inv.id))
   return rows.map(({ inv, customer }) => {

@@ -4,6 +4,7 @@ import Stripe from 'stripe'
 import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
+import { queryAsFirm } from '../support/db'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
 import { inviteAndJoin } from './support'
 
@@ -58,18 +59,8 @@ async function payByCard(token: string) {
 
 /** The firm's highest issued invoice number (0 when none), read as the firm straight from the database. */
 async function highestInvoiceNumber() {
-  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-  await db.connect()
-  try {
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-    const { rows } = await db.query<{ n: number }>(`select coalesce(max(number), 0)::int as n from invoices where firm_id = $1 and series = 'invoice'`, [firmId])
-    await db.query('commit')
-    return rows[0]!.n
-  }
-  finally {
-    await db.end()
-  }
+  const [row] = await queryAsFirm<{ n: number }>(requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL'), firmId, `select coalesce(max(number), 0)::int as n from invoices where firm_id = $1 and series = 'invoice'`, [firmId])
+  return row!.n
 }
 
 function signed(payload: object, timestamp?: number) {

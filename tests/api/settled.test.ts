@@ -1,6 +1,6 @@
-import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
+import { queryAsFirm } from '../support/db'
 import type { Client } from '../support/client'
 import { signUpFirm, uniqueEmail } from '../support/client'
 
@@ -22,20 +22,7 @@ afterAll(async () => {
 })
 
 /** Run SQL as the firm, straight in the database (the owner role, row-level security on). */
-async function asFirm<T = Record<string, unknown>>(text: string, values: unknown[] = []): Promise<T[]> {
-  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-  await db.connect()
-  try {
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-    const { rows } = await db.query(text, values)
-    await db.query('commit')
-    return rows as T[]
-  }
-  finally {
-    await db.end()
-  }
-}
+const asFirm = <T = Record<string, unknown>>(text: string, values: unknown[] = []) => queryAsFirm<T>(requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL'), firmId, text, values)
 
 /** Every invoice whose kept figure differs from its payments and credit notes summed now. */
 const drifted = () => asFirm<{ reference: string, settled_pence: number, summed: number }>(`

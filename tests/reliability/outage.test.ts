@@ -7,9 +7,9 @@
 // it disturbs no other test.
 import { rmSync } from 'node:fs'
 import { join } from 'node:path'
-import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp, type TestApp } from '../support/app'
+import { queryAsFirm } from '../support/db'
 import type { Client } from '../support/client'
 import { Client as PublicClient, signUpFirm, uniqueEmail } from '../support/client'
 
@@ -30,20 +30,7 @@ let firmId: string
 let job: { id: string, surfaceIds: string[], finishId: string }
 const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
 
-async function sql<T = Record<string, unknown>>(text: string, values: unknown[] = []): Promise<T[]> {
-  const db = new pg.Client({ connectionString: env.urls(profile).owner })
-  await db.connect()
-  try {
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-    const { rows } = await db.query(text, values)
-    await db.query('commit')
-    return rows as T[]
-  }
-  finally {
-    await db.end()
-  }
-}
+const sql = <T = Record<string, unknown>>(text: string, values: unknown[] = []) => queryAsFirm<T>(env.urls(profile).owner, firmId, text, values)
 
 beforeAll(async () => {
   profile.pgPort = await runLib.freePort()
