@@ -2,15 +2,11 @@
 // the take-off's terms for estimates (shared/utils/materials.ts).
 import { asc, eq } from 'drizzle-orm'
 import { materials as materialsTable } from '../db/schema'
-import { DEFAULT_MATERIALS, defaultMaterialRow, type Material } from '#shared/utils/materials'
+import type { Material } from '#shared/utils/materials'
 
-/** The firm's catalogue rows, in the order estimates pick from; the generic ones are added the first time. */
+/** The firm's catalogue rows, in the order estimates pick from (the generic ones are the firm's from when it was made: server/db/firm-defaults.ts). */
 export async function catalogueRows(f: FirmScope) {
-  const list = () => f.tx.select().from(materialsTable).where(f.where(materialsTable)).orderBy(asc(materialsTable.type), asc(materialsTable.name), asc(materialsTable.id))
-  const rows = await list()
-  if (rows.length) return rows
-  await f.tx.insert(materialsTable).values(DEFAULT_MATERIALS.map(m => f.values(defaultMaterialRow(m)))).onConflictDoNothing()
-  return list()
+  return f.tx.select().from(materialsTable).where(f.where(materialsTable)).orderBy(asc(materialsTable.type), asc(materialsTable.name), asc(materialsTable.id))
 }
 
 /** The firm's switched-on materials in the take-off's terms (the first of each kind is used). */

@@ -3,7 +3,7 @@
 import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
 import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users, type InvoiceParties } from '../db/schema'
 import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
-import { invoiceTotals } from '#shared/utils/tax'
+import { invoiceTotals, lineNetPence } from '#shared/utils/tax'
 
 export type InvoiceRow = typeof invoices.$inferSelect
 
@@ -104,17 +104,48 @@ export async function nextInvoiceNumber(f: FirmScope, series: 'invoice' | 'credi
 }
 
 /**
- * What the job's invoices have already claimed (issued or not, not this one), labour and
- * materials apart, less what issued credit notes against them gave back.
+ * What the job's invoices claim of its price (drafts included, not this one), labour and
+ * materials apart, less what issued credit notes against them gave back. Lines marked as extra
+ * work are beyond the price and are not counted. Read from the lines themselves (each line's net
+ * rounded half up, as the tax arithmetic does).
  */
 export async function invoicedForJob(f: FirmScope, jobId: string, except?: string) {
-  const rows = await f.tx.select({ kind: invoices.kind, issuedOn: invoices.issuedOn, totals: invoices.totals }).from(invoices)
-    .where(f.where(invoices, eq(invoices.jobId, jobId), except ? ne(invoices.id, except) : undefined))
-  return rows.reduce((s, r) => {
-    if (r.kind === 'credit-note' && !r.issuedOn) return s
-    const sign = r.kind === 'credit-note' ? -1 : 1
-    return { labourNetPence: s.labourNetPence + sign * (r.totals.labourNetPence ?? 0), materialsNetPence: s.materialsNetPence + sign * (r.totals.materialsNetPence ?? 0) }
-  }, { labourNetPence: 0, materialsNetPence: 0 })
+  const rows = await f.tx.select({
+    kind: invoiceLines.kind,
+    net: sql<string>`coalesce(sum(case when ${invoices.kind} = 'credit-note' then -1 else 1 end * ((${invoiceLines.quantityX1000}::bigint * ${invoiceLines.unitPence} + 500) / 1000)), 0)`,
+  }).from(invoiceLines)
+    .innerJoin(invoices, and(eq(invoices.firmId, invoiceLines.firmId), eq(invoices.id, invoiceLines.invoiceId)))
+    .where(f.where(invoices, eq(invoices.jobId, jobId), eq(invoiceLines.extraWork, false), except ? ne(invoices.id, except) : undefined,
+      sql`(${invoices.kind} <> 'credit-note' or ${invoices.issuedOn} is not null)`))
+    .groupBy(invoiceLines.kind)
+  const of = (k: 'labour' | 'materials') => Number(rows.find(r => r.kind === k)?.net ?? 0)
+  return { labourNetPence: of('labour'), materialsNetPence: of('materials') }
+}
+
+/** The job, locked: whatever invoices it at once is counted one after another. */
+async function lockJob(f: FirmScope, jobId: string) {
+  const [job] = await f.tx.select().from(jobs).where(f.where(jobs, eq(jobs.id, jobId))).for('update')
+  return job ?? null
+}
+
+const priceOf = (job: { labourNetPence: number, materialsNetPence: number }) => job.labourNetPence + job.materialsNetPence
+
+/**
+ * What a job's invoices claim (drafts included, less issued credit notes, lines of extra work
+ * apart) never passes its price: checked under a lock on the job after a change is written, so a
+ * breach rolls the change back with a 409. A job with no price agreed (made directly, none given)
+ * has nothing to pass.
+ */
+export async function assertWithinJobPrice(f: FirmScope, jobId: string) {
+  const job = await lockJob(f, jobId)
+  if (!job || priceOf(job) <= 0) return
+  const claimed = await invoicedForJob(f, jobId)
+  const total = claimed.labourNetPence + claimed.materialsNetPence
+  if (total > priceOf(job)) {
+    throw createError({ statusCode: 409, statusMessage: 'More than the price', data: {
+      message: `The invoices for ${jobReference(job.number)} would come to ${formatPence(total)} before VAT, more than its price of ${formatPence(priceOf(job))}. Tick "Extra work" on the lines for work beyond the price, or lower the amounts.`,
+    } })
+  }
 }
 
 /** A new draft: blank for a customer, or from a job (deposit, stage or final). The VAT treatment and CIS rate are suggested from the firm and the customer. */
@@ -123,7 +154,8 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
   let siteId: string | null = null
   let lines: DraftInvoiceLine[] = []
   if (input.jobId) {
-    const [job] = await f.tx.select().from(jobs).where(f.where(jobs, eq(jobs.id, input.jobId)))
+    // the job is locked first: deposits drafted at once are counted one after another
+    const job = await lockJob(f, input.jobId)
     if (!job) throw fieldError({ jobId: 'Choose one of your jobs.' })
     if (job.status === 'cancelled') throw createError({ statusCode: 409, statusMessage: 'Job cancelled', data: { message: 'The job is cancelled: nothing to invoice.' } })
     customerId = job.customerId
@@ -136,14 +168,20 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
     else if (input.kind === 'deposit' || input.kind === 'stage') {
       const part: { percent: number } | { amountPence: number } | null = input.percent ? { percent: input.percent } : input.amountPence ? { amountPence: input.amountPence } : null
       if (!part) throw fieldError({ percent: 'Enter a percentage or an amount.' })
-      const invoiced = await invoicedForJob(f, job.id)
-      const left = price.labourNetPence + price.materialsNetPence - invoiced.labourNetPence - invoiced.materialsNetPence
-      if ('amountPence' in part && part.amountPence > left) throw fieldError({ amountPence: `That is more than is left to invoice on the job (${formatPence(Math.max(0, left))}).` })
       try {
         lines = partLines(input.kind, price, part)
       }
       catch {
         throw fieldError('percent' in part ? { percent: 'Enter a percentage from 1 to 100.' } : { amountPence: 'Enter an amount in pounds and pence, more than 0.' })
+      }
+      // percentages and amounts alike: never more than is left of the price (under the job's lock)
+      const invoiced = await invoicedForJob(f, job.id)
+      const left = priceOf(price) - invoiced.labourNetPence - invoiced.materialsNetPence
+      const asked = lines.reduce((sum, l) => sum + lineNetPence({ quantity: l.quantityX1000 / 1000, unitPence: l.unitPence }), 0)
+      if (priceOf(price) > 0 && asked > left) {
+        const field = 'percent' in part ? 'percent' : 'amountPence'
+        const words = `That is ${formatPence(asked)}, more than is left to invoice on ${price.reference}: ${formatPence(Math.max(0, left))} of its ${formatPence(priceOf(price))}. Invoice work beyond the price on lines marked as extra work.`
+        throw createError({ statusCode: 409, statusMessage: 'More than the price', data: { message: words, fields: { [field]: words } } })
       }
     }
   }
@@ -181,19 +219,33 @@ export async function issueInvoice(f: FirmScope, id: string) {
   if (inv.issuedOn) throw createError({ statusCode: 409, statusMessage: 'Already issued', data: { message: 'This invoice has been issued; it stays as it is. Correct it with a credit note.' } })
   const lines = await linesOf(f, id)
   if (!lines.length) throw fieldError({ lines: 'Add at least one line before issuing.' })
+  const totals = await refreshInvoiceTotals(f, id)
+  if (inv.kind === 'credit-note' && inv.creditsInvoiceId) await assertCreditFits(f, inv.creditsInvoiceId, id, totals.grossPence)
+  if (inv.jobId && inv.kind !== 'credit-note') await assertWithinJobPrice(f, inv.jobId)
+  // the firm's row is locked before its prefixes are read: numbering and prefixes change one at a time
+  await f.tx.execute(sql`select 1 from firms where id = ${f.firmId} for update`)
   const [firm] = await f.tx.select().from(firms).where(eq(firms.id, f.firmId))
   const series = inv.kind === 'credit-note' && firm!.creditNoteNumbering === 'own' ? 'credit-note' as const : 'invoice' as const
   const number = await nextInvoiceNumber(f, series)
   const prefix = series === 'credit-note' ? firm!.creditNotePrefix : firm!.invoicePrefix
+  const reference = `${prefix}${String(number).padStart(4, '0')}`
   const issuedOn = todayIso()
   const token = newToken()
-  await refreshInvoiceTotals(f, id)
   const parties = await partiesNow(f, inv)
-  await f.tx.update(invoices).set({
-    series, number, reference: `${prefix}${String(number).padStart(4, '0')}`, issuedOn, parties,
-    dueOn: inv.kind === 'credit-note' ? null : dueDateFor(issuedOn, firm!.paymentTermsDays),
-    tokenHash: inv.kind === 'credit-note' ? null : hashToken(token), updatedAt: sql`now()`,
-  }).where(f.where(invoices, eq(invoices.id, id)))
+  // references are unique per firm (a unique index); prefixes set alike would repeat one: say so, write nothing
+  const [clash] = await f.tx.select({ id: invoices.id }).from(invoices).where(f.where(invoices, eq(invoices.reference, reference)))
+  if (clash) throw referenceClash(reference)
+  try {
+    await f.tx.update(invoices).set({
+      series, number, reference, issuedOn, parties,
+      dueOn: inv.kind === 'credit-note' ? null : dueDateFor(issuedOn, firm!.paymentTermsDays),
+      tokenHash: inv.kind === 'credit-note' ? null : hashToken(token), updatedAt: sql`now()`,
+    }).where(f.where(invoices, eq(invoices.id, id)))
+  }
+  catch (err) {
+    if (isUniqueViolation(err)) throw referenceClash(reference)
+    throw err
+  }
   // a final invoice issued moves a finished job on
   if (inv.jobId && inv.kind === 'final') {
     const [job] = await f.tx.select().from(jobs).where(f.where(jobs, eq(jobs.id, inv.jobId))).for('update')
@@ -201,6 +253,30 @@ export async function issueInvoice(f: FirmScope, id: string) {
   }
   await f.audit('invoice.issued', 'invoice', id, { number, series })
   return { token }
+}
+
+function referenceClash(reference: string) {
+  return createError({ statusCode: 409, statusMessage: 'Reference in use', data: { message: `${reference} has already been given to another invoice or credit note, so nothing was issued. Give invoices and credit notes different prefixes in Firm settings, then issue again.` } })
+}
+
+/**
+ * Credit notes against an invoice never give back more than it charged: checked when a credit
+ * note is issued, under a lock on the invoice it credits, so notes issued at once are counted one
+ * after another.
+ */
+export async function assertCreditFits(f: FirmScope, creditedId: string, noteId: string, noteGrossPence: number) {
+  const [credited] = await f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, creditedId))).for('update')
+  if (!credited) notFound()
+  const [row] = await f.tx.select({ total: sql<number>`coalesce(sum((${invoices.totals}->>'grossPence')::bigint), 0)::bigint` }).from(invoices)
+    .where(f.where(invoices, eq(invoices.creditsInvoiceId, creditedId), isNotNull(invoices.issuedOn), ne(invoices.id, noteId)))
+  const already = Number(row?.total ?? 0)
+  const charged = Number(credited.totals.grossPence ?? 0)
+  if (already + noteGrossPence > charged) {
+    const left = Math.max(0, charged - already)
+    throw createError({ statusCode: 409, statusMessage: 'More than the invoice', data: {
+      message: `This credit note gives back ${formatPence(noteGrossPence)}, but ${credited.reference} charged ${formatPence(charged)}${already ? ` and ${formatPence(already)} has already been credited` : ''}: at most ${formatPence(left)} can be credited against it. Change the lines, then issue it.`,
+    } })
+  }
 }
 
 /** A job is paid once its final invoice is issued and every invoice of it is paid or credited. */
@@ -213,9 +289,18 @@ export async function settleJob(f: FirmScope, jobId: string | null) {
   if (rows.length && rows.every(r => ['paid', 'credited'].includes(statusOf(r, money).status))) await moveJob(f, job, 'paid', 'Every invoice paid', false)
 }
 
+/** The payment recorded for a form's request id, if any (the same request sent again is that payment). */
+export async function paymentByRequest(f: FirmScope, requestId: string) {
+  const [row] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.requestId, requestId)))
+  return row ?? null
+}
+
 /** Record money in (or a refund, negative) and let the invoice and its job follow. */
-export async function recordPayment(f: FirmScope, invoiceId: string, p: { method: 'card' | 'transfer' | 'cash' | 'cheque', amountPence: number, receivedOn: string, reference?: string, stripePaymentIntentId?: string | null, stripeRefundId?: string | null }) {
-  const [row] = await f.tx.insert(payments).values(f.values({ invoiceId, ...p, reference: p.reference ?? '', recordedBy: f.userId })).returning()
+export async function recordPayment(f: FirmScope, invoiceId: string, p: { method: 'card' | 'transfer' | 'cash' | 'cheque', amountPence: number, receivedOn: string, reference?: string, stripePaymentIntentId?: string | null, stripeRefundId?: string | null, requestId?: string | null }) {
+  const insert = f.tx.insert(payments).values(f.values({ invoiceId, ...p, reference: p.reference ?? '', recordedBy: f.userId }))
+  // a request id already used (on another invoice: the same one is found before this) is a 409, not a 500
+  const [row] = p.requestId ? await insert.onConflictDoNothing({ target: [payments.firmId, payments.requestId] }).returning() : await insert.returning()
+  if (!row) throw createError({ statusCode: 409, statusMessage: 'Already recorded', data: { message: 'That payment has already been recorded.' } })
   const [inv] = await f.tx.select({ jobId: invoices.jobId }).from(invoices).where(f.where(invoices, eq(invoices.id, invoiceId)))
   await settleJob(f, inv?.jobId ?? null)
   await f.audit(p.amountPence < 0 ? 'payment.refunded' : 'payment.recorded', 'invoice', invoiceId, { method: p.method, amountPence: p.amountPence })

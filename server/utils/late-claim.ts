@@ -4,17 +4,13 @@
 // thumb for the product, not legal advice.
 import { asc } from 'drizzle-orm'
 import { bankRates } from '../db/schema'
-import { DEFAULT_BANK_RATES, latePaymentClaim } from '#shared/utils/late-payment'
+import { latePaymentClaim } from '#shared/utils/late-payment'
 
 export const CLAIM_CAUTION = 'This is worked out from the Late Payment of Commercial Debts (Interest) Act 1998 as a rule of thumb: it is not legal advice. It applies to business customers only. Check the figures and your contract with an accountant or solicitor before you claim, and take advice before going to court.'
 
-/** The firm's Bank Rate table, seeded from DOMAIN.md's figures the first time. */
+/** The firm's Bank Rate table (it starts from the published figures when the firm is made: server/db/firm-defaults.ts). */
 export async function bankRateTable(f: FirmScope) {
-  const list = () => f.tx.select().from(bankRates).where(f.where(bankRates)).orderBy(asc(bankRates.fromDate))
-  const rows = await list()
-  if (rows.length) return rows
-  await f.tx.insert(bankRates).values(DEFAULT_BANK_RATES.map(r => f.values({ fromDate: r.from, rateBp: Math.round(r.ratePercent * 100) }))).onConflictDoNothing()
-  return list()
+  return f.tx.select().from(bankRates).where(f.where(bankRates)).orderBy(asc(bankRates.fromDate))
 }
 
 /** The claim on an invoice as of today: 409 for a homeowner, an invoice not overdue, or one with nothing owed. */

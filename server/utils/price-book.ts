@@ -1,12 +1,23 @@
-import { eq } from 'drizzle-orm'
+import { eq, getTableColumns, SQL } from 'drizzle-orm'
 import { priceBooks } from '../db/schema'
 
-/** The firm's price book, created with zero rates the first time it is asked for. */
-export async function usePriceBook(f: FirmScope) {
+type PriceBook = typeof priceBooks.$inferSelect
+
+/** A price book as a new firm's would be (the columns' defaults: zero rates), not written anywhere. */
+function emptyPriceBook(firmId: string): PriceBook {
+  const row: Record<string, unknown> = { firmId }
+  for (const [key, col] of Object.entries(getTableColumns(priceBooks))) {
+    if (key === 'firmId') continue
+    row[key] = col.default instanceof SQL ? new Date() : structuredClone(col.default ?? null)
+  }
+  return row as PriceBook
+}
+
+/**
+ * The firm's price book. Every firm gets one when it is made (server/db/firm-defaults.ts); should
+ * one be missing, this answers the defaults without writing (a read writes nothing).
+ */
+export async function usePriceBook(f: FirmScope): Promise<PriceBook> {
   const [row] = await f.tx.select().from(priceBooks).where(eq(priceBooks.firmId, f.firmId))
-  if (row) return row
-  const [created] = await f.tx.insert(priceBooks).values({ firmId: f.firmId }).onConflictDoNothing().returning()
-  if (created) return created
-  const [again] = await f.tx.select().from(priceBooks).where(eq(priceBooks.firmId, f.firmId))
-  return again!
+  return row ?? emptyPriceBook(f.firmId)
 }

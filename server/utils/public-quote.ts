@@ -14,14 +14,17 @@ const GONE = 'This quote link has expired or is not right. Ask the firm to send 
 export async function openQuoteByToken(tx: Tx, token: string, lock = false) {
   const tokenHash = hashToken(token)
   await tx.execute(sql`select set_config('app.quote_token_hash', ${tokenHash}, true)`)
-  const [found] = await tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id }).from(quoteVersions)
+  const [found] = await tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id, quoteId: quoteVersions.quoteId }).from(quoteVersions)
     .where(and(eq(quoteVersions.tokenHash, tokenHash), inArray(quoteVersions.status, ['sent', 'accepted', 'declined', 'superseded']), gt(quoteVersions.tokenExpiresAt, new Date())))
   if (!found) throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: GONE } })
   await scopeTransaction(tx, found.firmId, null)
   const f = new FirmScope(tx, found.firmId, null)
+  // an answer locks the quote, then the version, in the order the firm's own changes (revise, send)
+  // lock them: an answer and a revision at the same moment go one after the other
+  const qq = tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, found.quoteId)))
+  const [quote] = lock ? await qq.for('update') : await qq
   const q = tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, found.id)))
   const [version] = lock ? await q.for('update') : await q
-  const [quote] = await tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, version!.quoteId)))
   return { f, version: version!, quote: quote! }
 }
 

@@ -28,6 +28,12 @@ export async function currentVersion(f: FirmScope, quote: { id: string, currentV
   return row!
 }
 
+/** Whether any version of the quote has been accepted (call with the quote locked). */
+export async function anyAccepted(f: FirmScope, quoteId: string) {
+  const [row] = await f.tx.select({ id: quoteVersions.id }).from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.quoteId, quoteId), eq(quoteVersions.status, 'accepted'))).limit(1)
+  return Boolean(row)
+}
+
 export async function versionLines(f: FirmScope, versionId: string) {
   return f.tx.select().from(quoteLines).where(f.where(quoteLines, eq(quoteLines.versionId, versionId))).orderBy(asc(quoteLines.position))
 }

@@ -1,26 +1,17 @@
-// Sending payment reminders: the firm's schedule (made from the defaults once, the first time), which
+// Sending payment reminders: the firm's schedule (the defaults from when the firm was made), which
 // invoices are due one today, and sending one at most once per invoice and step (the chase log's
 // reminder key is unique, written before the e-mail goes). The background job (server/plugins/
 // jobs.ts) and "send a reminder now" both come here.
-import { asc, eq, inArray, isNull } from 'drizzle-orm'
-import { auditLog, chaseNotes, customers, firms, reminderRules } from '../db/schema'
+import { asc, eq, isNull } from 'drizzle-orm'
+import { chaseNotes, customers, firms, reminderRules } from '../db/schema'
 import { DEFAULT_REMINDERS, fillTemplate, reminderDue, reminderKey } from '#shared/utils/reminders'
 
 /**
- * The firm's schedule. The defaults are put in once, the first time it is read; that is recorded in
- * the audit log ('reminders.defaulted'), like every change the firm makes ('reminders.changed'), so
- * an empty schedule the firm saved stays empty (no reminders) instead of coming back as the defaults.
+ * The firm's schedule. The defaults are the firm's from when it was made (server/db/firm-defaults.ts,
+ * recorded as 'reminders.defaulted'); an empty schedule the firm saved stays empty (no reminders).
  */
 export async function reminderRulesFor(f: FirmScope) {
-  const list = () => f.tx.select().from(reminderRules).where(f.where(reminderRules)).orderBy(asc(reminderRules.offsetDays))
-  const rows = await list()
-  if (rows.length) return rows
-  const [chosen] = await f.tx.select({ id: auditLog.id }).from(auditLog)
-    .where(f.where(auditLog, inArray(auditLog.action, ['reminders.changed', 'reminders.defaulted']))).limit(1)
-  if (chosen) return rows
-  await f.tx.insert(reminderRules).values(DEFAULT_REMINDERS.map(r => f.values(r))).onConflictDoNothing()
-  await f.audit('reminders.defaulted', 'firm', f.firmId, { count: DEFAULT_REMINDERS.length })
-  return list()
+  return f.tx.select().from(reminderRules).where(f.where(reminderRules)).orderBy(asc(reminderRules.offsetDays))
 }
 
 /** The reminders the schedule asks for today: each owing invoice at its latest step not yet sent. */

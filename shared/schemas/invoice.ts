@@ -31,6 +31,8 @@ export const invoiceLineSchema = z.object({
   unit: z.string().trim().min(1).max(20).default('item'),
   unitPence: pence('The unit price'),
   vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
+  /** Work beyond the job's agreed price, confirmed by the person: not counted against the price. */
+  extraWork: z.boolean({ error: 'Say whether this line is extra work.' }).default(false),
 })
 
 export const invoiceDraftSchema = z.object({
@@ -73,6 +75,12 @@ export const paymentSchema = z.object({
   amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount received.' }).max(1_000_000_00),
   receivedOn: z.iso.date({ error: 'Pick the date it arrived.' }),
   reference: z.string().trim().max(200).default(''),
+  /**
+   * Made by the form, one per payment the person means to record: the same request sent twice (a
+   * double tap, a retry after the signal dropped) is recorded once. Required, because without it two
+   * real payments of the same amount on the same day could not be told from one sent twice.
+   */
+  requestId: z.uuid({ error: 'Send the payment again from the invoice page.' }),
 })
 
 export const chaseNoteSchema = z.object({

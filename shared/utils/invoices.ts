@@ -81,6 +81,21 @@ export function ageBucket(dueOn: string, today: string): AgeBucket {
   return 'over-90'
 }
 
+/**
+ * Whether two number series with these prefixes could ever give the same reference (a prefix and
+ * a number of at least four digits, as issuing writes them): when the prefixes are the same
+ * (ignoring case, which a reader would not tell apart), or when one is the other followed by
+ * digits ("A" at number 10001 is "A10001", as "A1" is at 1). Only matters when credit notes
+ * are numbered on their own.
+ */
+export function prefixesClash(a: string, b: string): boolean {
+  const x = a.toUpperCase()
+  const y = b.toUpperCase()
+  if (x === y) return true
+  const [short, long] = x.length < y.length ? [x, y] : [y, x]
+  return long.startsWith(short) && /^[1-9]\d*$/.test(long.slice(short.length))
+}
+
 /** The due date: issued on + the firm's payment terms (days). */
 export function dueDateFor(issuedOn: string, termsDays: number): string {
   const d = new Date(`${issuedOn}T00:00:00Z`)
@@ -93,7 +108,7 @@ export function dueDateFor(issuedOn: string, termsDays: number): string {
 
 export interface JobPrice { reference: string, labourNetPence: number, materialsNetPence: number }
 export interface InvoicedSoFar { labourNetPence: number, materialsNetPence: number }
-export interface DraftInvoiceLine { kind: 'labour' | 'materials', description: string, quantityX1000: number, unit: string, unitPence: number, vatRatePercent: number }
+export interface DraftInvoiceLine { kind: 'labour' | 'materials', description: string, quantityX1000: number, unit: string, unitPence: number, vatRatePercent: number, extraWork?: boolean }
 
 /** a x num / den, rounded half up, in integers. */
 function share(a: number, num: number, den: number): number {

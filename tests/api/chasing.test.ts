@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { extractText, getDocumentProxy } from 'unpdf'
@@ -66,7 +67,7 @@ describe('reminders', () => {
     expect(detail.status).toBe('overdue')
 
     // paid: nothing more is sent, by the schedule or by hand
-    await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'transfer', amountPence: invoice.amountDuePence, receivedOn: '2026-12-01' })
+    await owner.post(`/api/invoices/${invoice.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: invoice.amountDuePence, receivedOn: '2026-12-01' })
     await dueOn(invoice.id, '2026-07-01')
     expect((await owner.post('/api/reminders/run')).body.results.filter((r: any) => r.invoiceId === invoice.id)).toEqual([])
     expect((await owner.post(`/api/invoices/${invoice.id}/reminders`)).status).toBe(409)
@@ -145,7 +146,7 @@ describe('what is owed', () => {
       const d = (await partner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
       await partner.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: 'Skim', quantityX1000: 1000, unitPence: amount }] })
       const inv = (await partner.post(`/api/invoices/${d.id}/issue`)).body
-      if (paid) await partner.post(`/api/invoices/${d.id}/payments`, { method: 'transfer', amountPence: paid, receivedOn: isoDaysAgo(0) })
+      if (paid) await partner.post(`/api/invoices/${d.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: paid, receivedOn: isoDaysAgo(0) })
       await dueOn(d.id, isoDaysAgo(late), ownFirm)
       made.push({ customerId: c.id, outstanding: inv.amountDuePence - paid, late })
     }

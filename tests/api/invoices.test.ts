@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import { spawn } from 'node:child_process'
 import pg from 'pg'
 import Stripe from 'stripe'
@@ -260,13 +261,13 @@ async function priceBookFields() {
 describe('payments by hand', () => {
   it('adds part payments up, flags an overpayment, and checks the fields', async () => {
     const { invoice } = await issued(100_00)
-    const bad = await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'card', amountPence: 0, receivedOn: 'yesterday' })
+    const bad = await owner.post(`/api/invoices/${invoice.id}/payments`, { requestId: randomUUID(), method: 'card', amountPence: 0, receivedOn: 'yesterday' })
     expect(bad.status).toBe(400)
     expect(Object.keys(bad.body.data.fields).sort()).toEqual(['amountPence', 'method', 'receivedOn'])
-    const part = await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'transfer', amountPence: 40_00, receivedOn: '2026-12-01', reference: 'FPS WYNN' })
+    const part = await owner.post(`/api/invoices/${invoice.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 40_00, receivedOn: '2026-12-01', reference: 'FPS WYNN' })
     expect(part.status).toBe(201)
     expect(part.body).toMatchObject({ status: 'part-paid', paidPence: 40_00, outstandingPence: invoice.amountDuePence - 40_00 })
-    const rest = await owner.post(`/api/invoices/${invoice.id}/payments`, { method: 'cash', amountPence: invoice.amountDuePence - 40_00 + 5_00, receivedOn: '2026-12-01' })
+    const rest = await owner.post(`/api/invoices/${invoice.id}/payments`, { requestId: randomUUID(), method: 'cash', amountPence: invoice.amountDuePence - 40_00 + 5_00, receivedOn: '2026-12-01' })
     expect(rest.body).toMatchObject({ status: 'paid', outstandingPence: 0, overpaidPence: 5_00 })
   })
 })
@@ -311,7 +312,7 @@ describe('card payments through the Stripe fake', () => {
     expect(after).toMatchObject({ status: 'part-paid', outstandingPence: 30_00 })
 
     const { invoice: other2 } = await issued(40_00)
-    const cash = (await owner.post(`/api/invoices/${other2.id}/payments`, { method: 'cash', amountPence: other2.amountDuePence, receivedOn: '2026-12-01' })).body.payments[0]
+    const cash = (await owner.post(`/api/invoices/${other2.id}/payments`, { requestId: randomUUID(), method: 'cash', amountPence: other2.amountDuePence, receivedOn: '2026-12-01' })).body.payments[0]
     const back = await owner.post(`/api/invoices/${other2.id}/refunds`, { paymentId: cash.id, amountPence: 10_00 })
     expect(back.status).toBe(201)
     expect(back.body).toMatchObject({ status: 'part-paid', paidPence: other2.amountDuePence - 10_00 })
@@ -373,7 +374,7 @@ describe('card payments through the Stripe fake', () => {
 
     // 10p left after a transfer: too little for a card (Stripe's minimum is 30p, from memory)
     const { invoice: small, token: smallToken } = await issued(50_00)
-    await owner.post(`/api/invoices/${small.id}/payments`, { method: 'transfer', amountPence: small.amountDuePence - 10, receivedOn: '2026-12-01' })
+    await owner.post(`/api/invoices/${small.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: small.amountDuePence - 10, receivedOn: '2026-12-01' })
     const tiny = await new Client(app.url).post(`/api/public/invoices/${smallToken}/checkout`)
     expect(tiny.status, JSON.stringify(tiny.body)).toBe(409)
     expect(tiny.body.data.message).toMatch(/£0\.10 is left to pay, less than the £0\.30/)
@@ -426,7 +427,7 @@ describe('money routes, roles and firms', () => {
   it('gives crew 403 on every money route, hides another firm\'s invoices, and keeps the link to its own invoice', async () => {
     const { invoice, token } = await issued()
     const { client: crew } = await inviteAndJoin(app, owner, uniqueEmail('crew'), 'crew')
-    const body = { method: 'cash', amountPence: 100, receivedOn: '2026-12-01' }
+    const body = { requestId: randomUUID(), method: 'cash', amountPence: 100, receivedOn: '2026-12-01' }
     for (const [method, path] of [['GET', '/api/invoices'], ['POST', '/api/invoices'], ['GET', `/api/invoices/${invoice.id}`], ['PUT', `/api/invoices/${invoice.id}/draft`], ['POST', `/api/invoices/${invoice.id}/issue`], ['POST', `/api/invoices/${invoice.id}/payments`], ['POST', `/api/invoices/${invoice.id}/credit-note`], ['DELETE', `/api/invoices/${invoice.id}`],
       ['POST', `/api/invoices/${invoice.id}/refunds`], ['POST', `/api/invoices/${invoice.id}/resend`], ['POST', `/api/invoices/${invoice.id}/reminders`], ['POST', `/api/invoices/${invoice.id}/chase-notes`], ['GET', `/api/invoices/${invoice.id}/claim`],
       ['GET', '/api/owed'], ['GET', '/api/reminders'], ['PUT', '/api/reminders'], ['POST', '/api/reminders/run'], ['GET', '/api/bank-rates'], ['PUT', '/api/bank-rates']] as const) {

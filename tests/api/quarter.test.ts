@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -112,8 +113,8 @@ beforeAll(async () => {
   expect((await owner.post(`/api/invoices/${note.id}/issue`)).status).toBe(200)
   ids.note = note.id
   // the builder pays what is due, less CIS: 1000.00; the homeowner pays 300.00 of 744.00
-  expect((await owner.post(`/api/invoices/${ids.reverse}/payments`, { method: 'transfer', amountPence: 1000_00, receivedOn: today, reference: 'BACS STONECROP' })).status).toBe(201)
-  expect((await owner.post(`/api/invoices/${ids.standard}/payments`, { method: 'cash', amountPence: 300_00, receivedOn: today })).status).toBe(201)
+  expect((await owner.post(`/api/invoices/${ids.reverse}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 1000_00, receivedOn: today, reference: 'BACS STONECROP' })).status).toBe(201)
+  expect((await owner.post(`/api/invoices/${ids.standard}/payments`, { requestId: randomUUID(), method: 'cash', amountPence: 300_00, receivedOn: today })).status).toBe(201)
   // purchases: one in the quarter (net 300.00, VAT 60.00), one years before it
   ids.purchase = (await owner.post('/api/purchases', { supplier: '@Merchant "Yard", Unit 2', boughtOn: today, category: 'materials', netPence: 300_00, vatPence: 60_00, reference: '+INV-77' })).body.id
   ids.oldPurchase = (await owner.post('/api/purchases', { supplier: 'Old yard', boughtOn: '2020-01-15', category: 'tools', netPence: 50_00, vatPence: 10_00 })).body.id
@@ -153,7 +154,7 @@ describe('the VAT return', () => {
     const draft = (await cashOwner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
     await cashOwner.put(`/api/invoices/${draft.id}/draft`, { vat: 'standard', lines: [{ kind: 'labour', description: 'Skim', quantityX1000: 1000, unit: 'item', unitPence: 500_00, vatRatePercent: 20 }, { kind: 'materials', description: 'Plaster', quantityX1000: 1000, unit: 'item', unitPence: 120_00, vatRatePercent: 20 }] })
     await cashOwner.post(`/api/invoices/${draft.id}/issue`)
-    await cashOwner.post(`/api/invoices/${draft.id}/payments`, { method: 'transfer', amountPence: 300_00, receivedOn: today })
+    await cashOwner.post(`/api/invoices/${draft.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 300_00, receivedOn: today })
     await cashOwner.post('/api/purchases', { supplier: 'Yard', boughtOn: today, category: 'materials', netPence: 300_00, vatPence: 60_00 })
     const v = (await cashOwner.get(`/api/vat-return?quarterOf=${today}`)).body
     expect(v.basis).toBe('cash')
@@ -378,7 +379,7 @@ describe('the accountant\'s exports', () => {
     const purchase = { supplier: 'x', boughtOn: today, category: 'fuel', netPence: 1 }
     for (const [method, path, body] of [
       ['POST', '/api/purchases', purchase], ['PUT', `/api/purchases/${ids.purchase}`, purchase], ['DELETE', `/api/purchases/${ids.purchase}`],
-      ['POST', `/api/invoices/${ids.standard}/payments`, { method: 'cash', amountPence: 1, receivedOn: today }], ['POST', '/api/invoices', { kind: 'blank', customerId: ids.homeowner }],
+      ['POST', `/api/invoices/${ids.standard}/payments`, { requestId: randomUUID(), method: 'cash', amountPence: 1, receivedOn: today }], ['POST', '/api/invoices', { kind: 'blank', customerId: ids.homeowner }],
       ['PATCH', '/api/firm', {}], ['POST', '/api/cis-statements', {}],
     ] as const) {
       const res = await accountant.request(method, path, body)

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { queryAsFirm } from '../support/db'
@@ -42,7 +43,7 @@ async function issued(amountPence: number) {
   return res.body as { id: string, reference: string, amountDuePence: number }
 }
 
-const pay = (id: string, amountPence: number) => owner.post(`/api/invoices/${id}/payments`, { method: 'transfer', amountPence, receivedOn: '2026-12-01', reference: 'FPS' })
+const pay = (id: string, amountPence: number) => owner.post(`/api/invoices/${id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence, receivedOn: '2026-12-01', reference: 'FPS' })
 
 const owedReferences = async () => {
   const res = await owner.get('/api/owed')

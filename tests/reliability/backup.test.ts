@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import { execFile } from 'node:child_process'
 import { mkdtempSync, rmSync, statSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -96,7 +97,7 @@ beforeAll(async () => {
   const issued = await owner.post(`/api/invoices/${draft.id}/issue`)
   expect(issued.status, JSON.stringify(issued.body)).toBe(200)
   invoiceId = draft.id
-  const paid = await owner.post(`/api/invoices/${invoiceId}/payments`, { method: 'transfer', amountPence: 100_00, receivedOn: '2026-11-30', reference: 'FPS O\'ROURKE' })
+  const paid = await owner.post(`/api/invoices/${invoiceId}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 100_00, receivedOn: '2026-11-30', reference: 'FPS O\'ROURKE' })
   expect(paid.status, JSON.stringify(paid.body)).toBe(201)
 })
 

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 // A mixed load for 60 seconds on loopback (reads, customers, quotes, invoices drafted and issued,
 // payments recorded by hand and paid by card through the Stripe fake, sets logged on a job,
 // exports), with the database stopped 20 seconds in and started again 10 seconds later. Outside
@@ -125,7 +126,7 @@ describe('the database stopped in the middle of a mixed load', () => {
           if (issued.status !== 200) continue
           acknowledged.issued.push(draft.body.id)
           if (i % 2) {
-            const paid = await call('record payment', 'POST', `/api/invoices/${draft.body.id}/payments`, { method: 'transfer', amountPence: 50_00, receivedOn: day, reference: `load ${n}-${i}` })
+            const paid = await call('record payment', 'POST', `/api/invoices/${draft.body.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 50_00, receivedOn: day, reference: `load ${n}-${i}` })
             if (paid.status === 201) acknowledged.payments.push(`${draft.body.id}:load ${n}-${i}`)
             continue
           }

@@ -261,7 +261,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
   ok(await o.post(`/api/invoices/${toIssue.id}/issue`), 'issue invoice')
   const invoiceMail = await app.waitForMail(customer.email, /Invoice /)
   const invoiceToken = /\/i\/([\w-]+)/.exec(invoiceMail.text ?? '')![1]!
-  const paid = ok(await o.post(`/api/invoices/${toIssue.id}/payments`, { method: 'transfer', amountPence: 50_00, receivedOn: TODAY, reference: 'BACS 1' }), 'payment')
+  const paid = ok(await o.post(`/api/invoices/${toIssue.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 50_00, receivedOn: TODAY, reference: 'BACS 1' }), 'payment')
   const paymentId = paid.payments[0].id
 
   const newPurchase = async () => ok(await o.post('/api/purchases', { supplier: 'Trowel & Hawk Supplies', boughtOn: TODAY, category: 'materials', netPence: 100_00, vatPence: 20_00, jobs: [{ jobId: job.id, netPence: 50_00 }] }), 'purchase').id as string
@@ -377,7 +377,7 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
   'POST /api/invitations/:token/accept': () => ({ name: 'Ivo Newstart', password: GOOD_PASSWORD }),
   'POST /api/invoices/:id/chase-notes': () => ({ kind: 'promise', note: 'Will pay on Friday', promisedOn: inDays(3) }),
   'PUT /api/invoices/:id/draft': f => ({ vat: f.vat.invoice, vatReason: '', cisRatePercent: null, notes: 'Thank you', lines: [{ kind: 'labour', description: 'Skim the landing ceiling', quantityX1000: 1500, unit: 'm²', unitPence: 12_00, vatRatePercent: 0 }] }),
-  'POST /api/invoices/:id/payments': () => ({ method: 'cheque', amountPence: 10_00, receivedOn: TODAY, reference: 'Cheque 100234' }),
+  'POST /api/invoices/:id/payments': () => ({ requestId: randomUUID(), method: 'cheque', amountPence: 10_00, receivedOn: TODAY, reference: 'Cheque 100234' }),
   'POST /api/invoices/:id/refunds': f => ({ paymentId: f.ids.paymentId, amountPence: 1_00, reference: 'Overpaid' }),
   'POST /api/invoices': f => ({ kind: 'blank', jobId: null, customerId: f.ids.customerId, percent: null, amountPence: null }),
   'PATCH /api/job-days/:id': () => ({ worked: true, portion: 'day' }),

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import type { AgeBucket, DraftInvoiceLine, InvoiceStatus, JobPrice, StatusInput } from '../../shared/utils/invoices'
-import { ageBucket, daysBetween, dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines } from '../../shared/utils/invoices'
+import { ageBucket, daysBetween, dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, prefixesClash } from '../../shared/utils/invoices'
 
 // Sources (../shared/DOMAIN.md). CIS is deducted from the labour part only, so an invoice's labour
 // net must stay apart from its materials ("Money rules", CIS: gov.uk "What you must do as a CIS
@@ -296,5 +296,25 @@ describe('a deposit and then the final add up to the job exactly (property)', ()
       expect(net(all, 'labour') + net(all, 'materials')).toBe(total)
       expect(final.every(l => l.unitPence > 0)).toBe(true)
     }))
+  })
+})
+
+describe('prefixesClash: could an invoice and a credit note numbered apart share a reference?', () => {
+  // Our own rule (shared/utils/invoices.ts), from how issuing writes a reference: the prefix, then
+  // the number padded to four digits (INV-0001, INV-10001). VAT invoice numbers must be unique
+  // (gov.uk "VAT record keeping: VAT invoices"), so two series must never give the same one.
+  it.each([
+    ['CN-', 'CN-', true, 'the same prefix: both series start at 0001'],
+    ['cn-', 'CN-', true, 'the same to a reader (case), so refused too'],
+    ['', '', true, 'no prefix on either: both 0001'],
+    ['A', 'A1', true, 'A at 10001 is A10001, as A1 at 1 is A10001 (A1 + 0001)'],
+    ['INV', 'INV12', true, 'INV at 120001 is INV120001, as INV12 at 1'],
+    ['A', 'A0', false, 'A numbers never start with 0 past four digits, and A0001.. are four'],
+    ['INV', 'INV-', false, 'a dash never appears in a number'],
+    ['', 'X', false, 'a number alone never starts with a letter'],
+    ['INV-', 'CR-', false, 'different prefixes'],
+  ])('%j and %j: %s (%s)', (a, b, clash) => {
+    expect(prefixesClash(a, b)).toBe(clash)
+    expect(prefixesClash(b, a)).toBe(clash)
   })
 })

@@ -1,4 +1,5 @@
 import { firms, memberships, users } from '../../db/schema'
+import { addFirmDefaults } from '../../db/firm-defaults'
 import { signUpSchema } from '#shared/schemas/auth'
 import { randomUUID } from 'node:crypto'
 
@@ -14,6 +15,8 @@ export default defineEventHandler(async (event) => {
       const f = new FirmScope(tx, firmId, user!.id)
       await tx.insert(firms).values({ id: firmId, tradingName: input.firmName })
       await tx.insert(memberships).values(f.values({ userId: user!.id, role: 'owner' as const }))
+      // the price book, materials, reminders and Bank Rate a firm starts with: made now, never on a read
+      await addFirmDefaults(tx, firmId, user!.id)
       await f.audit('firm.created', 'firm', firmId, { tradingName: input.firmName })
       await startSession(event, tx, user!.id, firmId)
     })

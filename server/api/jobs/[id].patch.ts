@@ -15,6 +15,16 @@ export default defineEventHandler(async (event) => {
     const price = labourNetPence !== undefined || materialsNetPence !== undefined
       ? await jobPriceTotals(f, job.customerId, labourNetPence ?? job.labourNetPence, materialsNetPence ?? job.materialsNetPence)
       : {}
+    if ('netPence' in price) {
+      // the price never drops under what the job's invoices already claim of it (the job is locked)
+      const claimed = await invoicedForJob(f, id)
+      const total = claimed.labourNetPence + claimed.materialsNetPence
+      const next = (labourNetPence ?? job.labourNetPence) + (materialsNetPence ?? job.materialsNetPence)
+      if (total > next) {
+        const words = `Its invoices already come to ${formatPence(total)} before VAT: the price cannot be less than that. Correct an invoice with a credit note first.`
+        throw createError({ statusCode: 409, statusMessage: 'Less than invoiced', data: { message: words, fields: { labourNetPence: words } } })
+      }
+    }
     await f.tx.update(jobs).set({ ...fields, ...(notes === undefined ? {} : { notes }), ...price, updatedAt: sql`now()` }).where(f.where(jobs, eq(jobs.id, id)))
     await f.audit('job.updated', 'job', id, { fields: Object.keys(input) })
     return jobDetail(f, auth, id)

@@ -1,4 +1,4 @@
-import { eq, sql } from 'drizzle-orm'
+import { sql } from 'drizzle-orm'
 import { priceBooks } from '../../db/schema'
 import { priceBookSchema } from '#shared/schemas/quote'
 
@@ -7,8 +7,8 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'firm:manage')
   const input = await readBodyWith(event, priceBookSchema)
   return withFirm(auth, async (f) => {
-    await usePriceBook(f)
-    const [row] = await f.tx.update(priceBooks).set({ ...input, updatedAt: sql`now()` }).where(eq(priceBooks.firmId, f.firmId)).returning()
+    const [row] = await f.tx.insert(priceBooks).values({ firmId: f.firmId, ...input })
+      .onConflictDoUpdate({ target: priceBooks.firmId, set: { ...input, updatedAt: sql`now()` } }).returning()
     await f.audit('price-book.updated', 'price-book', f.firmId, { fields: Object.keys(input) })
     return row
   })

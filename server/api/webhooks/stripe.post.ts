@@ -65,7 +65,12 @@ export default defineEventHandler(async (event) => {
       if (!paid) throw createError({ statusCode: 409, statusMessage: 'Payment not recorded yet', data: { message: 'The payment this refund belongs to has not arrived yet; send the event again later.' } })
       const [already] = await f.tx.select({ total: sql<number>`coalesce(-sum(${payments.amountPence}), 0)::int` }).from(payments)
         .where(f.where(payments, eq(payments.invoiceId, invoiceId), eq(payments.method, 'card'), lt(payments.amountPence, 0), sql`${payments.reference} = ${pi}`))
-      const more = ch.amount_refunded - Number(already?.total ?? 0)
+      // never more than the payment itself, whatever the event says (a refund is of this payment only)
+      const refundedNow = Math.min(Number(ch.amount_refunded) || 0, paid.amountPence)
+      if ((Number(ch.amount_refunded) || 0) > paid.amountPence) {
+        await f.audit('payment.refund-mismatch', 'invoice', invoiceId, { eventId: evt.id, amountRefunded: ch.amount_refunded, paymentPence: paid.amountPence })
+      }
+      const more = refundedNow - Number(already?.total ?? 0)
       if (more <= 0) return done('refund already recorded')
       await recordPayment(f, invoiceId, { method: 'card', amountPence: -more, receivedOn: todayIso(), reference: pi, stripeRefundId: `${evt.id}` })
       return done('refund recorded')

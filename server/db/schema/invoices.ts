@@ -4,7 +4,7 @@
 // paid, paid, overdue, credited) follows from its payments and dates (shared/utils/invoices.ts),
 // never set by hand. Money is integer pence; quantities thousandths.
 import { sql } from 'drizzle-orm'
-import { check, date, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, date, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { firmColumn, sameFirm, timestamps } from './common'
 import { firms } from './firms'
 import { customers, sites } from './ledger'
@@ -71,6 +71,8 @@ export const invoices = pgTable('invoices', {
   primaryKey({ columns: [t.firmId, t.id] }),
   unique('invoices_firm_number_unique').on(t.firmId, t.series, t.number),
   unique('invoices_token_unique').on(t.tokenHash),
+  // a reference is never given twice in a firm, whatever the prefixes and numbering (issue 13)
+  uniqueIndex('invoices_firm_reference_unique').on(t.firmId, t.reference).where(sql`${t.reference} is not null`),
   foreignKey({ name: 'invoices_customer_fk', columns: [t.firmId, t.customerId], foreignColumns: [customers.firmId, customers.id] }),
   foreignKey({ name: 'invoices_site_fk', columns: [t.firmId, t.siteId], foreignColumns: [sites.firmId, sites.id] }),
   foreignKey({ name: 'invoices_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }),
@@ -98,6 +100,11 @@ export const invoiceLines = pgTable('invoice_lines', {
   unit: text().notNull(),
   unitPence: integer().notNull(),
   vatRatePercent: integer().notNull().default(20),
+  /**
+   * Work beyond the job's agreed price, confirmed as such by the person drafting: it does not count
+   * against the price (what a job's invoices claim of its price can never pass it).
+   */
+  extraWork: boolean().notNull().default(false),
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
   foreignKey({ name: 'invoice_lines_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
@@ -117,12 +124,15 @@ export const payments = pgTable('payments', {
   /** Card payments: the PaymentIntent, once (a second event for it does nothing). */
   stripePaymentIntentId: text(),
   stripeRefundId: text(),
+  /** Payments by hand: the key the form made for this payment, so the same request sent twice is one payment. */
+  requestId: uuid(),
   recordedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
   unique('payments_intent_unique').on(t.firmId, t.stripePaymentIntentId),
   unique('payments_refund_unique').on(t.firmId, t.stripeRefundId),
+  unique('payments_request_unique').on(t.firmId, t.requestId),
   foreignKey({ name: 'payments_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
   index('payments_invoice_idx').on(t.firmId, t.invoiceId),
   // the quarter's exports and the cash-basis VAT return read payments by the day received

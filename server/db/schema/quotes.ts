@@ -2,7 +2,7 @@
 // Money is integer pence; quantities are integers in the smallest unit (thousandths of the
 // unit: a quantity of 12.345 m² is 12345), so no float is ever stored.
 import { sql } from 'drizzle-orm'
-import { boolean, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { boolean, foreignKey, index, integer, jsonb, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { firmColumn, sameFirm, timestamps } from './common'
 import { firms } from './firms'
 import { customers, enquiries, sites } from './ledger'
@@ -141,6 +141,8 @@ export const quoteVersions = pgTable('quote_versions', {
   primaryKey({ columns: [t.firmId, t.id] }),
   unique('quote_versions_quote_version_unique').on(t.firmId, t.quoteId, t.version),
   unique('quote_versions_token_unique').on(t.tokenHash),
+  // one accepted version per quote at most: the database holds it whatever runs at once (issue 13)
+  uniqueIndex('quote_versions_one_accepted').on(t.firmId, t.quoteId).where(sql`${t.status} = 'accepted'`),
   foreignKey({ name: 'quote_versions_quote_fk', columns: [t.firmId, t.quoteId], foreignColumns: [quotes.firmId, quotes.id] }).onDelete('cascade'),
   // someone holding the customer's link sees only that version (app.quote_token_hash), as with invitations
   pgPolicy('quote_versions_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.quote_token_hash', true), '')` }),

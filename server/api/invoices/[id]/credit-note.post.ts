@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
       kind: 'credit-note' as const, customerId: inv.customerId, siteId: inv.siteId, jobId: inv.jobId, creditsInvoiceId: inv.id,
       vat: inv.vat, vatReason: inv.vatReason, cisRatePercent: inv.cisRatePercent, notes: `Credit against ${inv.reference}.`, createdBy: f.userId,
     })).returning()
-    await saveInvoiceLines(f, note!.id, lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent })))
+    await saveInvoiceLines(f, note!.id, lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, extraWork }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, extraWork })))
     await refreshInvoiceTotals(f, note!.id)
     await f.audit('invoice.credit-drafted', 'invoice', note!.id, { credits: inv.id })
     setResponseStatus(event, 201)

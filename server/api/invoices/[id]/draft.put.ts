@@ -20,6 +20,8 @@ export default defineEventHandler(async (event) => {
     await f.tx.update(invoices).set({ ...rest, updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, id)))
     await saveInvoiceLines(f, id, lines)
     await refreshInvoiceTotals(f, id)
+    // a job's invoices never claim more than its price but for lines marked as extra work
+    if (inv.jobId && inv.kind !== 'credit-note') await assertWithinJobPrice(f, inv.jobId)
     await f.audit('invoice.draft-saved', 'invoice', id, { vat: input.vat })
     return invoiceDetail(f, id)
   })

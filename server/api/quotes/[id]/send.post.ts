@@ -21,6 +21,7 @@ export default defineEventHandler(async (event) => {
     const quote = await findQuote(f, id, true)
     const version = await currentVersion(f, quote, true)
     if (version.status !== 'draft') throw createError({ statusCode: 409, statusMessage: 'Already sent', data: { message: 'This version has already been sent.' } })
+    if (await anyAccepted(f, id)) throw createError({ statusCode: 409, statusMessage: 'Already accepted', data: { message: 'The customer has accepted an earlier version of this quote, so this one is not sent. For more work, make a new quote.' } })
     const lines = await versionLines(f, version.id)
     if (!lines.length) throw fieldError({ lines: 'Add at least one line before sending.' })
     const [customer] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))

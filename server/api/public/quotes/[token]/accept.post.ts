@@ -4,6 +4,8 @@ import { quoteVersions } from '../../../../db/schema'
 
 const body = z.object({ name: z.string({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
 
+const REVISED = 'The firm has revised this quote since it was sent, so this version can no longer be accepted. They will send you the new version; if it has not arrived, give them a ring.'
+
 /** Public: the customer accepts, typing their name; the time and address are kept. Once only (409 after). */
 export default defineEventHandler(async (event) => {
   const { token } = await readParamsWith(event, quoteTokenParam)
@@ -12,10 +14,17 @@ export default defineEventHandler(async (event) => {
   const result = await useDb().transaction(async (tx) => {
     const { f, quote, version } = await openQuoteByToken(tx, token, true)
     if (version.status !== 'sent') {
-      throw createError({ statusCode: 409, statusMessage: 'Already answered', data: { message: version.status === 'accepted' ? 'You have already accepted this quote. Thank you.' : version.status === 'superseded' ? 'This quote has been replaced by a newer version: please use the latest link.' : 'This quote was declined.' } })
+      throw createError({ statusCode: 409, statusMessage: 'Already answered', data: { message: version.status === 'accepted' ? 'You have already accepted this quote. Thank you.' : version.status === 'superseded' ? REVISED : 'This quote was declined.' } })
     }
-    await tx.update(quoteVersions).set({ status: 'accepted', respondedAt: sql`now()`, acceptedName: name, respondedIp: ip })
-      .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    // one accepted version per quote: a unique index holds it even if a path forgot to check
+    try {
+      await tx.update(quoteVersions).set({ status: 'accepted', respondedAt: sql`now()`, acceptedName: name, respondedIp: ip })
+        .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
+    }
+    catch (err) {
+      if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Already accepted', data: { message: 'Another version of this quote has already been accepted. Thank you.' } })
+      throw err
+    }
     if (quote.enquiryId) {
       // the enquiry follows: quoted (if it was not yet), then won
       let status = (await findEnquiry(f, quote.enquiryId, true)).status

@@ -1,0 +1,60 @@
+// What every firm starts with: a price book, the generic materials catalogue, the reminder
+// schedule and the Bank Rate table. Written when the firm is made (sign-up, the demo seed) and
+// back-filled for firms made before (the seed script runs it for every firm on each start and
+// test run), never on a read: a GET writes nothing, so the accountant opening a screen leaves no
+// trace. Plain imports only (no Nitro auto-imports), so the seed script uses the same code.
+import { and, eq, inArray, sql } from 'drizzle-orm'
+import type { NodePgDatabase } from 'drizzle-orm/node-postgres'
+import * as schema from './schema'
+import { DEFAULT_MATERIALS, defaultMaterialRow } from '../../shared/utils/materials'
+import { DEFAULT_REMINDERS } from '../../shared/utils/reminders'
+import { DEFAULT_BANK_RATES } from '../../shared/utils/late-payment'
+
+type Tx = Parameters<Parameters<NodePgDatabase<typeof schema>['transaction']>[0]>[0]
+
+/**
+ * Add what the firm is missing of its defaults; never changes what it has. Call inside a
+ * transaction with `app.firm_id` set to the firm (row-level security is forced).
+ * - the price book: one row, zero rates (the firm sets its own);
+ * - the materials: the generic catalogue, when the firm has none;
+ * - the reminders: the default schedule, when the firm has none and has never saved its own (an
+ *   empty schedule saved on purpose stays empty);
+ * - the Bank Rate: each default rate dated before the firm's earliest, so a table seeded when the
+ *   defaults began in 2024 gains the history back to 2009, and the firm's own later rows stand.
+ */
+export async function addFirmDefaults(tx: Tx, firmId: string, actorUserId: string | null = null) {
+  await tx.insert(schema.priceBooks).values({ firmId }).onConflictDoNothing()
+
+  const [material] = await tx.select({ id: schema.materials.id }).from(schema.materials).where(eq(schema.materials.firmId, firmId)).limit(1)
+  if (!material) await tx.insert(schema.materials).values(DEFAULT_MATERIALS.map(m => ({ firmId, ...defaultMaterialRow(m) }))).onConflictDoNothing()
+
+  const [rule] = await tx.select({ id: schema.reminderRules.id }).from(schema.reminderRules).where(eq(schema.reminderRules.firmId, firmId)).limit(1)
+  if (!rule) {
+    const [chosen] = await tx.select({ id: schema.auditLog.id }).from(schema.auditLog)
+      .where(and(eq(schema.auditLog.firmId, firmId), inArray(schema.auditLog.action, ['reminders.changed', 'reminders.defaulted']))).limit(1)
+    if (!chosen) {
+      await tx.insert(schema.reminderRules).values(DEFAULT_REMINDERS.map(r => ({ firmId, ...r }))).onConflictDoNothing()
+      await tx.insert(schema.auditLog).values({ firmId, actorUserId, action: 'reminders.defaulted', entity: 'firm', entityId: firmId, detail: { count: DEFAULT_REMINDERS.length } })
+    }
+  }
+
+  const [earliest] = await tx.select({ from: sql<string | null>`min(${schema.bankRates.fromDate})::text` }).from(schema.bankRates).where(eq(schema.bankRates.firmId, firmId))
+  const older = DEFAULT_BANK_RATES.filter(r => !earliest?.from || r.from < earliest.from)
+  if (older.length) await tx.insert(schema.bankRates).values(older.map(r => ({ firmId, fromDate: r.from, rateBp: Math.round(r.ratePercent * 100) }))).onConflictDoNothing()
+}
+
+/** The defaults for every firm that is missing some (the seed script, on each start and test run). */
+export async function addDefaultsToEveryFirm(db: NodePgDatabase<typeof schema>) {
+  // every firm's id, through the policy the reminder sweep reads firms by (app.job_sweep)
+  const ids = await db.transaction(async (tx) => {
+    await tx.execute(sql`select set_config('app.job_sweep', 'on', true)`)
+    return (await tx.select({ id: schema.firms.id }).from(schema.firms)).map(r => r.id)
+  })
+  for (const firmId of ids) {
+    await db.transaction(async (tx) => {
+      await tx.execute(sql`select set_config('app.firm_id', ${firmId}, true)`)
+      await addFirmDefaults(tx, firmId)
+    })
+  }
+  return ids.length
+}
