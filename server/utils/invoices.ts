@@ -181,7 +181,7 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
       if (priceOf(price) > 0 && asked > left) {
         const field = 'percent' in part ? 'percent' : 'amountPence'
         const words = `That is ${formatPence(asked)}, more than is left to invoice on ${price.reference}: ${formatPence(Math.max(0, left))} of its ${formatPence(priceOf(price))}. Invoice work beyond the price on lines marked as extra work.`
-        throw createError({ statusCode: 409, statusMessage: 'More than the price', data: { message: words, fields: { [field]: words } } })
+        throw createError({ statusCode: 409, statusMessage: 'More than the price', data: { fields: { [field]: words } } })
       }
     }
   }

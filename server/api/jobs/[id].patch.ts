@@ -22,7 +22,7 @@ export default defineEventHandler(async (event) => {
       const next = (labourNetPence ?? job.labourNetPence) + (materialsNetPence ?? job.materialsNetPence)
       if (total > next) {
         const words = `Its invoices already come to ${formatPence(total)} before VAT: the price cannot be less than that. Correct an invoice with a credit note first.`
-        throw createError({ statusCode: 409, statusMessage: 'Less than invoiced', data: { message: words, fields: { labourNetPence: words } } })
+        throw createError({ statusCode: 409, statusMessage: 'Less than invoiced', data: { fields: { labourNetPence: words } } })
       }
     }
     await f.tx.update(jobs).set({ ...fields, ...(notes === undefined ? {} : { notes }), ...price, updatedAt: sql`now()` }).where(f.where(jobs, eq(jobs.id, id)))
