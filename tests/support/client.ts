@@ -75,3 +75,15 @@ export async function signUpFirm(base: string, firmName = 'Test Firm') {
   if (confirmed.status !== 200) throw new Error(`sign-up confirmation failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`)
   return { client, email, firmId: confirmed.body.firmId as string }
 }
+
+/**
+ * A firm for a server whose mail goes nowhere (`base`): signed up through a server of the same
+ * test database whose mail arrives (`mailBase`), then signed in at `base`.
+ */
+export async function signUpFirmAt(base: string, mailBase: string, firmName = 'Test Firm') {
+  const made = await signUpFirm(mailBase, firmName)
+  const client = new Client(base)
+  const res = await client.post('/api/auth/sign-in', { email: made.email, password: GOOD_PASSWORD })
+  if (res.status !== 200) throw new Error(`sign-in at ${base} failed: ${res.status} ${JSON.stringify(res.body)}`)
+  return { ...made, client }
+}
