@@ -106,7 +106,6 @@ describe('removing a member ends every way in (issue 13, case 1)', () => {
     const afterRemoval = await new Client(app.url).get(oldPath)
     expect(afterRemoval.status).toBe(404)
     expect(JSON.stringify(afterRemoval.body)).not.toMatch(/Feed Firm|BEGIN:VCALENDAR/)
-    expect((await crew.get('/api/me')).status).toBe(401)
     // nothing of the feed is left for a forgotten path to find
     const feeds = await ownerDb(async (db) => {
       await db.query('begin')
@@ -116,6 +115,10 @@ describe('removing a member ends every way in (issue 13, case 1)', () => {
       return rows[0].n as number
     })
     expect(feeds).toBe(0)
+    // and their sessions in the firm were revoked by the removal itself, not on their next request
+    const live = await ownerDb(async db => (await db.query('select count(*)::int as n from sessions where firm_id = $1 and revoked_at is null and user_id = (select id from users where lower(email) = $2)', [firmId, email])).rows[0].n as number)
+    expect(live).toBe(0)
+    expect((await crew.get('/api/me')).status).toBe(401)
 
     // invited back: the old link stays dead until they make a new one
     const mailsBefore = app.mails.length
