@@ -26,6 +26,10 @@ export default defineNuxtConfig({
     smtpSecure: false,
     smtpUser: '',
     smtpPass: '',
+    /** Wrong passwords one address may send in 15 minutes, across accounts (server/utils/limits.ts). */
+    signInAddressMax: 30,
+    /** Read the client's address from X-Forwarded-For: only behind a proxy you run that sets it. */
+    trustProxy: false,
     /** Largest photo accepted (bytes): 413 beyond it. */
     uploadMaxBytes: 15 * 1024 * 1024,
     /** Card payments. Locally the Stripe fake (scripts/lib/stripe-fake.mjs) at stripeApiBase; live: real keys and stripeApiBase empty. */

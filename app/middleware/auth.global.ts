@@ -1,7 +1,7 @@
 import type { Permission } from '#shared/utils/roles'
 
 // Convenience only: sends signed-out visitors to the sign-in page. The server protects the data.
-const PUBLIC = ['/sign-in', '/sign-up', '/invite/', '/enquire/', '/q/', '/i/']
+const PUBLIC = ['/sign-in', '/sign-up', '/sign-up/', '/invite/', '/enquire/', '/q/', '/i/']
 
 export default defineNuxtRouteMiddleware(async (to) => {
   // an /api path no server route answered reaches the page renderer: it is a 404, not a sign-in page

@@ -7,6 +7,36 @@ const EXEMPT_ORIGIN = [/^\/api\/webhooks\//]
 const EXEMPT_BODY = [/^\/api\/webhooks\//, /\/uploads(\/|$)/]
 export const MAX_JSON_BYTES = 256 * 1024
 
+/**
+ * The origins that are ours: the one this request was sent to (scheme, host and port as the
+ * server saw them; forwarded headers are not trusted) and the configured app URL (appUrl), which
+ * is the reference behind a proxy that ends TLS.
+ */
+function ownOrigins(event: Parameters<typeof getRequestHost>[0]): string[] {
+  const own = `${getRequestProtocol(event, { xForwardedProto: false })}://${getRequestHost(event, { xForwardedHost: false })}`
+  const out = [normalOrigin(own)]
+  const appUrl = useRuntimeConfig(event).appUrl
+  if (appUrl) out.push(normalOrigin(appUrl))
+  return out.filter((o): o is string => o !== null)
+}
+
+/** scheme://host:port as the URL standard writes it (default ports dropped), or null. */
+function normalOrigin(value: string): string | null {
+  try {
+    const url = new URL(value)
+    return url.origin === 'null' ? null : url.origin
+  }
+  catch {
+    return null
+  }
+}
+
+/** The whole origin must match one of ours: a different scheme or port is another site. "null" never does. */
+function sameOrigin(origin: string, ours: string[]): boolean {
+  const o = normalOrigin(origin)
+  return o !== null && ours.includes(o)
+}
+
 export default defineEventHandler((event) => {
   if (!UNSAFE.has(event.method)) return
   const path = event.path.split('?')[0]!
@@ -16,19 +46,7 @@ export default defineEventHandler((event) => {
     const site = getRequestHeader(event, 'sec-fetch-site')
     if (site === 'cross-site') throw createError({ statusCode: 403, statusMessage: 'Cross-site request refused' })
     const origin = getRequestHeader(event, 'origin')
-    if (origin && origin !== 'null') {
-      let host: string | null = null
-      try {
-        host = new URL(origin).host
-      }
-      catch {
-        host = null
-      }
-      if (host !== getRequestHost(event, { xForwardedHost: false })) {
-        throw createError({ statusCode: 403, statusMessage: 'Cross-site request refused' })
-      }
-    }
-    else if (origin === 'null') {
+    if (origin !== undefined && !sameOrigin(origin, ownOrigins(event))) {
       throw createError({ statusCode: 403, statusMessage: 'Cross-site request refused' })
     }
   }

@@ -2,8 +2,8 @@
 // calendar app polls. Only the token's hash is kept; resetting makes a new URL and the old one
 // stops at once. Built with the `ics` package.
 import { createEvents, type EventAttributes } from 'ics'
-import { and, asc, eq, sql } from 'drizzle-orm'
-import { calendarFeeds, customers, firms, jobDays, jobs, sites } from '../db/schema'
+import { and, asc, eq, gte, sql } from 'drizzle-orm'
+import { calendarFeeds, customers, firms, jobDays, jobs, memberships, sites } from '../db/schema'
 import { refoldIcs } from '#shared/utils/ics'
 
 export function calendarUrl(token: string) {
@@ -14,7 +14,7 @@ export function calendarUrl(token: string) {
 export async function resetCalendarFeed(f: FirmScope, userId: string) {
   const token = newToken()
   await f.tx.insert(calendarFeeds).values({ firmId: f.firmId, userId, tokenHash: hashToken(token) })
-    .onConflictDoUpdate({ target: [calendarFeeds.firmId, calendarFeeds.userId], set: { tokenHash: hashToken(token), updatedAt: new Date() } })
+    .onConflictDoUpdate({ target: [calendarFeeds.firmId, calendarFeeds.userId], set: { tokenHash: hashToken(token), updatedAt: sql`now()` } })
   await f.audit('calendar.reset', 'user', userId, {})
   return calendarUrl(token)
 }
@@ -28,10 +28,16 @@ const dateParts = (iso: string): [number, number, number] => {
 export async function calendarFor(token: string): Promise<string | null> {
   return useDb().transaction(async (tx) => {
     await tx.execute(sql`select set_config('app.calendar_token_hash', ${hashToken(token)}, true)`)
-    const [feed] = await tx.select().from(calendarFeeds).where(eq(calendarFeeds.tokenHash, hashToken(token)))
+    const [found] = await tx.select({ firmId: calendarFeeds.firmId }).from(calendarFeeds).where(eq(calendarFeeds.tokenHash, hashToken(token)))
+    if (!found) return null
+    await scopeTransaction(tx, found.firmId, null)
+    const f = new FirmScope(tx, found.firmId, null)
+    // A feed answers only while its person is a member, and only a feed made (or reset) since they
+    // joined: a removed member's link is dead, and stays dead if they are invited back later.
+    const [feed] = await tx.select({ firmId: calendarFeeds.firmId, userId: calendarFeeds.userId }).from(calendarFeeds)
+      .innerJoin(memberships, and(eq(memberships.firmId, calendarFeeds.firmId), eq(memberships.userId, calendarFeeds.userId)))
+      .where(and(f.where(calendarFeeds, eq(calendarFeeds.tokenHash, hashToken(token))), gte(calendarFeeds.updatedAt, memberships.createdAt)))
     if (!feed) return null
-    await scopeTransaction(tx, feed.firmId, null)
-    const f = new FirmScope(tx, feed.firmId, null)
     const [firm] = await tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, feed.firmId))
     const rows = await tx.select({
       id: jobDays.id, day: jobDays.day, portion: jobDays.portion, number: jobs.number, title: jobs.title, status: jobs.status,

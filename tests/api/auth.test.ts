@@ -12,24 +12,33 @@ afterAll(async () => {
 })
 
 describe('sign-up', () => {
-  it('creates a firm and its owner, and signs the owner in', async () => {
+  const linkIn = async (email: string) => /\/sign-up\/([\w-]+)/.exec((await app.waitForMail(email, /Confirm your e-mail/)).text ?? '')![1]!
+
+  it('answers "check your e-mail" with no session; the link makes the firm and its owner and signs them in', async () => {
     const client = new Client(app.url)
     const email = uniqueEmail('signup')
     const res = await client.post('/api/auth/sign-up', { firmName: 'Larkspur Walls', name: 'Ada Quill', email: email.toUpperCase(), password: GOOD_PASSWORD })
-    expect(res.status).toBe(201)
+    expect(res.status).toBe(202)
+    expect(res.body.message).toMatch(/Check your e-mail/)
+    expect((await client.get('/api/me')).status).toBe(401)
+    const confirmed = await client.post(`/api/auth/sign-up/${await linkIn(email)}`)
+    expect(confirmed.status).toBe(200)
     const me = await client.get('/api/me')
     expect(me.status).toBe(200)
     expect(me.body.user.email).toBe(email)
     expect(me.body.role).toBe('owner')
     expect(me.body.firm.tradingName).toBe('Larkspur Walls')
     expect(me.body.permissions).toContain('team:manage')
+    // the password was kept only as a hash, and works
+    expect((await new Client(app.url).post('/api/auth/sign-in', { email, password: GOOD_PASSWORD })).status).toBe(200)
   })
 
-  it('answers 409 on the e-mail field for an address that has an account', async () => {
+  it('answers an address that has an account exactly as a new one, and e-mails that address instead', async () => {
     const { email } = await signUpFirm(app.url)
     const res = await new Client(app.url).post('/api/auth/sign-up', { firmName: 'Second', name: 'Someone', email, password: GOOD_PASSWORD })
-    expect(res.status).toBe(409)
-    expect(Object.keys(res.body.data.fields)).toEqual(['email'])
+    expect(res.status).toBe(202)
+    expect(res.headers.get('set-cookie')).toBeNull()
+    expect((await app.waitForMail(email, /Someone tried to sign up/)).text).toMatch(/already has a Setwell account/)
   })
 
   it('answers 400 naming each bad field, and writes nothing', async () => {
@@ -39,8 +48,9 @@ describe('sign-up', () => {
     expect(res.body.data.fields).toMatchObject({ firmName: expect.any(String), password: expect.stringMatching(/10 characters/) })
     expect(res.body.data.fields.email).toBeUndefined()
     // the address is still free: nothing was written
-    const again = await new Client(app.url).post('/api/auth/sign-up', { firmName: 'Fine', name: 'X', email, password: GOOD_PASSWORD })
-    expect(again.status).toBe(201)
+    const again = new Client(app.url)
+    expect((await again.post('/api/auth/sign-up', { firmName: 'Fine', name: 'X', email, password: GOOD_PASSWORD })).status).toBe(202)
+    expect((await again.post(`/api/auth/sign-up/${await linkIn(email)}`)).status).toBe(200)
   })
 
   it('refuses a common password', async () => {

@@ -6,7 +6,7 @@ import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { queryAsFirm } from '../support/db'
-import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { Client, signUpFirm, signUpFirmAt, uniqueEmail } from '../support/client'
 import { inviteAndJoin } from './support'
 
 // Invoices: drafted from a job or blank, numbered when issued (no gaps, no duplicates, even 50 at
@@ -171,7 +171,7 @@ describe('sending an invoice again', () => {
     // a server of its own whose mail server is not there (nothing listens on port 1)
     const down = await startApp({ NUXT_SMTP_PORT: '1' })
     try {
-      const { client } = await signUpFirm(down.url, 'No Post Plastering')
+      const { client } = await signUpFirmAt(down.url, app.url, 'No Post Plastering')
       const c = (await client.post('/api/customers', { customer: { kind: 'homeowner', name: 'Ivo Marsh', email: uniqueEmail('ivo') } })).body
       const d = (await client.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
       await client.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: 'Skim the box room', quantityX1000: 1000, unitPence: 150_00 }] })

@@ -4,7 +4,7 @@ import pg from 'pg'
 import { SMTPServer } from 'smtp-server'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
-import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { Client, signUpFirm, signUpFirmAt, uniqueEmail } from '../support/client'
 import { inviteAndJoin } from './support'
 
 let app: TestApp
@@ -371,7 +371,7 @@ describe('sending when the mail server cannot be reached', () => {
   })
 
   it('answers 502, keeps the quote a draft with nothing sent, and sends it once the mail server is back', async () => {
-    const { client } = await signUpFirm(down.url, 'Quiet Mail Firm')
+    const { client } = await signUpFirmAt(down.url, app.url, 'Quiet Mail Firm')
     const c = (await client.post('/api/customers', { customer: { kind: 'homeowner', name: 'Tomasz Wren', email: uniqueEmail('wren') }, site: { line1: '2 Weir Row', postcode: 'OX9 2WR' } })).body
     const e = (await client.post('/api/enquiries', { customerId: c.id, siteId: c.sites[0].id, source: 'phone', description: 'Skim the hall' })).body
     const { id } = (await client.post('/api/quotes', { customerId: c.id, enquiryId: e.id })).body

@@ -52,6 +52,9 @@ export function requiredEnv(name: string): string {
   return v
 }
 
+/** The apps this test process started, by URL, so a helper given only the URL can read its mail (signUpFirm). */
+export const runningApps = new Map<string, TestApp>()
+
 export async function startApp(extraEnv: Record<string, string> = {}): Promise<TestApp> {
   const mails: ParsedMail[] = []
   const waiters: (() => void)[] = []
@@ -93,6 +96,10 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
       NUXT_STRIPE_SECRET_KEY: 'sk_test_setwell_tests',
       NUXT_SMTP_HOST: '127.0.0.1',
       NUXT_SMTP_PORT: String(smtpPort),
+      // every test file sends from 127.0.0.1 to one database, so the cap on wrong passwords per
+      // address across accounts would be shared by all of them: tests/reliability/access-rules.test.ts
+      // starts its app with the real figure and tests it from addresses of its own
+      NUXT_SIGN_IN_ADDRESS_MAX: '100000',
       // photos of the test run stay with the test database, not in the dev folder
       ...(process.env.SETWELL_TEST_STORAGE_DIR ? { NUXT_STORAGE_DIR: process.env.SETWELL_TEST_STORAGE_DIR } : {}),
       ...extraEnv,
@@ -118,7 +125,7 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
     await sleep(100)
   }
 
-  return {
+  const app: TestApp = {
     url,
     stripe,
     mails,
@@ -137,6 +144,7 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
       }
     },
     async stop() {
+      runningApps.delete(url)
       if (child.exitCode === null) {
         child.kill('SIGTERM')
         await new Promise(resolve => child.once('exit', resolve))
@@ -150,4 +158,6 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
       }
     },
   }
+  runningApps.set(url, app)
+  return app
 }

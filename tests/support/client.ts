@@ -1,5 +1,6 @@
 // A small HTTP client for the API tests, with a cookie jar (one per signed-in person).
 import { randomUUID } from 'node:crypto'
+import { runningApps } from './app'
 
 export interface ApiResponse<T = any> { status: number, body: T, headers: Headers }
 
@@ -56,11 +57,33 @@ export function uniqueEmail(label: string) {
 
 export const GOOD_PASSWORD = 'wet-edge-trowel-42'
 
-/** Sign up a new firm; returns its owner's client. */
+/**
+ * Sign up a new firm and follow the link in the e-mail the server sent (the app at `base` must
+ * have been started by this test process, tests/support/app.ts); returns its owner's client.
+ */
 export async function signUpFirm(base: string, firmName = 'Test Firm') {
   const client = new Client(base)
   const email = uniqueEmail('owner')
   const res = await client.post('/api/auth/sign-up', { firmName, name: 'Test Owner', email, password: GOOD_PASSWORD })
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`)
-  return { client, email, firmId: res.body.firmId as string }
+  if (res.status !== 202) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`)
+  const app = runningApps.get(base)
+  if (!app) throw new Error(`signUpFirm: no test app at ${base} (start it with startApp in this file)`)
+  const mail = await app.waitForMail(email, /Confirm your e-mail/)
+  const token = /\/sign-up\/([\w-]+)/.exec(mail.text ?? '')?.[1]
+  if (!token) throw new Error(`signUpFirm: no sign-up link in:\n${mail.text}`)
+  const confirmed = await client.post(`/api/auth/sign-up/${token}`)
+  if (confirmed.status !== 200) throw new Error(`sign-up confirmation failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`)
+  return { client, email, firmId: confirmed.body.firmId as string }
+}
+
+/**
+ * A firm for a server whose mail goes nowhere (`base`): signed up through a server of the same
+ * test database whose mail arrives (`mailBase`), then signed in at `base`.
+ */
+export async function signUpFirmAt(base: string, mailBase: string, firmName = 'Test Firm') {
+  const made = await signUpFirm(mailBase, firmName)
+  const client = new Client(base)
+  const res = await client.post('/api/auth/sign-in', { email: made.email, password: GOOD_PASSWORD })
+  if (res.status !== 200) throw new Error(`sign-in at ${base} failed: ${res.status} ${JSON.stringify(res.body)}`)
+  return { ...made, client }
 }

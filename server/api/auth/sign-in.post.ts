@@ -9,22 +9,17 @@ const VAGUE = 'That e-mail and password do not match an account.'
 
 export default defineEventHandler(async (event) => {
   const input = await readBodyWith(event, signInSchema)
-  const ip = getRequestIP(event) ?? '127.0.0.1'
-
-  const retryAfter = await signInRetryAfter(input.email, ip)
-  if (retryAfter > 0) {
-    setResponseHeader(event, 'Retry-After', retryAfter)
-    throw createError({ statusCode: 429, statusMessage: 'Too many attempts', data: { retryAfter, message: `Too many attempts. Try again in ${Math.ceil(retryAfter / 60)} minutes.` } })
-  }
+  // counted before the password is checked (one atomic step): a burst checks at most the limit
+  const attempt = await limitPasswordCheck(event, input.email)
 
   const [user] = await useDb().select({ id: users.id, passwordHash: users.passwordHash })
     .from(users).where(eq(sql`lower(${users.email})`, input.email))
   dummyHash ??= hashPassword('not-a-password-anyone-has')
   const ok = await verifyPassword(user?.passwordHash ?? await dummyHash, input.password)
   if (!user || !ok) {
-    await recordSignInFailure(input.email, ip)
     throw createError({ statusCode: 401, statusMessage: 'Sign-in failed', data: { message: VAGUE } })
   }
+  await passwordSucceeded(input.email, clientAddress(event), attempt)
 
   const firmId = await useDb().transaction(async (tx) => {
     const firm = await defaultFirmFor(tx, user.id)
@@ -35,6 +30,5 @@ export default defineEventHandler(async (event) => {
     // an account that belongs to no firm any more cannot work anywhere
     throw createError({ statusCode: 401, statusMessage: 'Sign-in failed', data: { message: 'This account is not part of any firm now. Ask a firm owner for an invitation.' } })
   }
-  await clearSignInFailures(input.email, ip)
   return { ok: true }
 })

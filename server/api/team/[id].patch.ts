@@ -9,6 +9,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const { role } = await readBodyWith(event, changeRoleSchema)
   return withFirm(auth, async (f) => {
+    await lockTeam(f)
     const m = await findMembership(f, id)
     if (m.role === role) return { id, role }
     if (m.role === 'owner') await assertAnotherOwner(f, id)

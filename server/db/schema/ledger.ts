@@ -108,10 +108,3 @@ export const enquiryEvents = pgTable('enquiry_events', {
   index('enquiry_events_enquiry_idx').on(t.firmId, t.enquiryId, t.at),
   ...firmPolicies('enquiry_events'),
 ]).enableRLS()
-
-/** Public enquiry form submissions per address, for its rate limit. Not firm-owned: the sender is anonymous. */
-export const publicFormHits = pgTable('public_form_hits', {
-  id: uuid().primaryKey().defaultRandom(),
-  ip: text().notNull(),
-  at: timestamp({ withTimezone: true }).notNull().defaultNow(),
-}, t => [index('public_form_hits_ip_idx').on(t.ip, t.at)])

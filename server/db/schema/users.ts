@@ -32,10 +32,33 @@ export const sessions = pgTable('sessions', {
   userAgent: text().notNull().default(''),
 }, t => [index('sessions_user_idx').on(t.userId)])
 
-/** Failed sign-ins, for the limit of 5 per account and address in 15 minutes. */
-export const signInFailures = pgTable('sign_in_failures', {
+/**
+ * One row per attempt counted against a limit (sign-in, the public enquiry form), by key
+ * (`sign-in:<email>:<address>`, `sign-in-address:<address>`, `enquiry-form:<address>`). Rows are
+ * only ever written by take_limits() (drizzle/0021_limits_function.sql), which counts and inserts
+ * under an advisory lock on each key, so no two requests can both see room for one more.
+ */
+export const limitHits = pgTable('limit_hits', {
   id: bigserial({ mode: 'number' }).primaryKey(),
-  email: text().notNull(),
-  ip: inet().notNull(),
+  key: text().notNull(),
+  /** The request that took the slot, so a success can give back its own address slot. */
+  attempt: uuid().notNull(),
   at: timestamp({ withTimezone: true }).notNull().defaultNow(),
-}, t => [index('sign_in_failures_lookup_idx').on(t.email, t.ip, t.at)])
+}, t => [index('limit_hits_key_at_idx').on(t.key, t.at), index('limit_hits_at_idx').on(t.at), index('limit_hits_attempt_idx').on(t.attempt)])
+
+/**
+ * A sign-up waiting for its e-mail to be confirmed. The link's token is random and only its hash
+ * is kept; the password only as its hash. Following the link (once, before it expires) makes the
+ * firm, its owner and a session. Not firm-owned: there is no firm yet.
+ */
+export const pendingSignUps = pgTable('pending_sign_ups', {
+  id: uuid().primaryKey().defaultRandom(),
+  email: text().notNull(),
+  name: text().notNull(),
+  firmName: text().notNull(),
+  passwordHash: text().notNull(),
+  tokenHash: text().notNull(),
+  expiresAt: timestamp({ withTimezone: true }).notNull(),
+  usedAt: timestamp({ withTimezone: true }),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+}, t => [uniqueIndex('pending_sign_ups_token_unique').on(t.tokenHash), index('pending_sign_ups_expires_idx').on(t.expiresAt)])

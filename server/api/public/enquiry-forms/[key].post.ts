@@ -12,7 +12,8 @@ export default defineEventHandler(async (event) => {
   const input = await readBodyWith(event, publicEnquirySchema)
   // an unknown or reset link is a 404 before it counts against the sender
   await useDb().transaction(tx => firmByFormKey(tx, key))
-  await limitPublicForm(event, getRequestIP(event) ?? 'unknown')
+  // counted and checked in one atomic step: a burst gets at most what is left
+  await limitPublicForm(event)
   setResponseStatus(event, 201)
   // a filled honeypot gets the same thanks, and nothing is written
   if (input.website.trim() !== '') return { ok: true }
