@@ -1,11 +1,44 @@
 // zod on every input, through h3's validated readers. A failure is a 400 that names each field,
 // so the form can show the message beside it: { statusCode: 400, data: { fields: { email: '...' } } }.
+//
+// A second wall before the schema: a string anywhere in a body or query (a key too) holding a NUL
+// or half of a surrogate pair on its own is a 400 naming where it is, even inside a part the schema
+// takes as it comes (the rows of a customer import). PostgreSQL's text and jsonb refuse both, so
+// no such string may reach a query or the audit log. The schemas' text() says the same, and more.
 import type { H3Event } from 'h3'
-import type { z } from 'zod'
-import { fieldErrors } from '#shared/schemas/common'
+import { z } from 'zod'
+import { fieldErrors, hasBrokenCharacter, UNUSUAL_CHARACTER } from '#shared/schemas/common'
 
 export function fieldError(fields: Record<string, string>, statusCode = 400, statusMessage = 'Check the highlighted fields') {
   return createError({ statusCode, statusMessage, data: { fields } })
+}
+
+/** The path of the first string (or object key) holding a NUL or a lone surrogate, walked without recursion; null when there is none. */
+export function brokenTextAt(value: unknown): (string | number)[] | null {
+  const stack: { value: unknown, path: (string | number)[] }[] = [{ value, path: [] }]
+  while (stack.length) {
+    const { value: v, path } = stack.pop()!
+    if (typeof v === 'string') {
+      if (hasBrokenCharacter(v)) return path
+    }
+    else if (Array.isArray(v)) {
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ value: v[i], path: [...path, i] })
+    }
+    else if (v !== null && typeof v === 'object') {
+      for (const [k, inner] of Object.entries(v)) {
+        if (hasBrokenCharacter(k)) return [...path, k]
+        stack.push({ value: inner, path: [...path, k] })
+      }
+    }
+  }
+  return null
+}
+
+/** The schema's result, unless the input holds a broken character: then a failure naming where. */
+function parseWith<S extends z.ZodType>(schema: S, input: unknown): z.ZodSafeParseResult<z.output<S>> {
+  const at = brokenTextAt(input)
+  if (at) return { success: false, error: new z.ZodError([{ code: 'custom', path: at, message: UNUSUAL_CHARACTER, input }]) }
+  return schema.safeParse(input)
 }
 
 // h3 wraps an error thrown inside a validator; so the validator returns zod's result and we throw here.
@@ -16,11 +49,11 @@ function unwrap<T>(result: z.ZodSafeParseResult<T>, where: 'body' | 'query' | 'p
 }
 
 export async function readBodyWith<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
-  return unwrap(await readValidatedBody(event, body => schema.safeParse(body ?? {})), 'body')
+  return unwrap(await readValidatedBody(event, body => parseWith(schema, body ?? {})), 'body')
 }
 
 export async function readQueryWith<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
-  return unwrap(await getValidatedQuery(event, q => schema.safeParse(q)), 'query')
+  return unwrap(await getValidatedQuery(event, q => parseWith(schema, q)), 'query')
 }
 
 /** Route parameters that fail validation answer 404: a malformed id names no row. */

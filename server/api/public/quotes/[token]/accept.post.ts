@@ -1,8 +1,9 @@
 import { eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { quoteVersions } from '../../../../db/schema'
+import { text } from '#shared/schemas/common'
 
-const body = z.object({ name: z.string({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
+const body = z.object({ name: text({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
 
 /** Public: the customer accepts, typing their name; the time and address are kept. Once only (409 after). */
 export default defineEventHandler(async (event) => {
