@@ -1,4 +1,4 @@
-import { count, eq, ne, type SQL } from 'drizzle-orm'
+import { count, eq, ne, sql, type SQL } from 'drizzle-orm'
 import { cisStatements, customers, enquiries, invoices, jobs, quotes, sites, visits } from '../db/schema'
 import { holdingWorkInWords, type HoldingWork } from '#shared/utils/ledger'
 
@@ -44,6 +44,17 @@ export async function workNaming(f: FirmScope, by: 'customerId' | 'siteId', id: 
     enquiries: await n(enquiries),
     cisStatements: cis,
   }
+}
+
+/**
+ * Before a customer or site is locked for removal, the firm's row is share-locked
+ * (FOR KEY SHARE, as the audit entry's foreign key would lock it later anyway): numbering a job or a
+ * quote locks the firm's row before its foreign keys lock the customer, so taking the two locks in
+ * that same order here is what keeps a removal and a new job from waiting on each other for ever
+ * (PostgreSQL's deadlock, a 500, in tests/reliability/removals.test.ts).
+ */
+export async function lockFirmForRemoval(f: FirmScope) {
+  await f.tx.execute(sql`select 1 from firms where id = ${f.firmId} for key share`)
 }
 
 /** A removal refused because work names the row: 409 with the counts in words. */

@@ -37,7 +37,7 @@ export function brokenTextAt(value: unknown): (string | number)[] | null {
 /** The schema's result, unless the input holds a broken character: then a failure naming where. */
 function parseWith<S extends z.ZodType>(schema: S, input: unknown): z.ZodSafeParseResult<z.output<S>> {
   const at = brokenTextAt(input)
-  if (at) return { success: false, error: new z.ZodError([{ code: 'custom', path: at, message: UNUSUAL_CHARACTER, input }]) }
+  if (at) return { success: false, error: new z.ZodError<z.output<S>>([{ code: 'custom', path: at, message: UNUSUAL_CHARACTER, input }]) }
   return schema.safeParse(input)
 }
 

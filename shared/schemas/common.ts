@@ -68,7 +68,6 @@ export const queryWholeNumber = (what: string, min: number, max: number, fallbac
   return z.coerce.number({ error }).int({ error }).min(min, { error }).max(max, { error }).default(fallback)
 }
 
-
 export const emailField = text({ error: 'Enter an e-mail address.' })
   .trim()
   .toLowerCase()

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp, type TestApp } from '../support/app'
-import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { signUpFirm, uniqueEmail, type Client } from '../support/client'
 
 // Removing a customer or a site that work names (issue 13, item 9): a 409 that says what holds it,
 // in words, never the 500 of the foreign key; a customer or site nothing names goes (204).

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
-import { Client, signUpFirm, uniqueEmail, type ApiResponse } from '../support/client'
+import { signUpFirm, uniqueEmail, type ApiResponse, type Client } from '../support/client'
 import { queryAsFirm } from '../support/db'
 
 // Removing a customer or a site while someone records work for it (issue 13, item 9). Each round

@@ -13,6 +13,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   try {
     await withFirm(auth, async (f) => {
+      await lockFirmForRemoval(f)
       const [c] = await f.tx.select({ name: customers.name }).from(customers).where(f.where(customers, eq(customers.id, id))).for('update')
       if (!c) notFound()
       const work = await workNaming(f, 'customerId', id)

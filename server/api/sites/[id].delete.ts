@@ -8,6 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   try {
     await withFirm(auth, async (f) => {
+      await lockFirmForRemoval(f)
       const [s] = await f.tx.select({ id: sites.id }).from(sites).where(f.where(sites, eq(sites.id, id))).for('update')
       if (!s) notFound()
       const work = await workNaming(f, 'siteId', id)
