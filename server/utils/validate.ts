@@ -6,7 +6,7 @@
 // takes as it comes (the rows of a customer import). PostgreSQL's text and jsonb refuse both, so
 // no such string may reach a query or the audit log. The schemas' text() says the same, and more.
 import type { H3Event } from 'h3'
-import { z } from 'zod'
+import type { z } from 'zod'
 import { fieldErrors, hasBrokenCharacter, UNUSUAL_CHARACTER } from '#shared/schemas/common'
 
 export function fieldError(fields: Record<string, string>, statusCode = 400, statusMessage = 'Check the highlighted fields') {
@@ -35,14 +35,16 @@ export function brokenTextAt(value: unknown): (string | number)[] | null {
 }
 
 /** The schema's result, unless the input holds a broken character: then a failure naming where. */
-function parseWith<S extends z.ZodType>(schema: S, input: unknown): z.ZodSafeParseResult<z.output<S>> {
+function parseWith<S extends z.ZodType>(schema: S, input: unknown): Parsed<z.output<S>> {
   const at = brokenTextAt(input)
-  if (at) return { success: false, error: new z.ZodError<z.output<S>>([{ code: 'custom', path: at, message: UNUSUAL_CHARACTER, input }]) }
+  if (at) return { success: false, error: { issues: [{ path: at, message: UNUSUAL_CHARACTER }] } }
   return schema.safeParse(input)
 }
 
+type Parsed<T> = { success: true, data: T } | { success: false, error: { issues: readonly { path: PropertyKey[], message: string }[] } }
+
 // h3 wraps an error thrown inside a validator; so the validator returns zod's result and we throw here.
-function unwrap<T>(result: z.ZodSafeParseResult<T>, where: 'body' | 'query' | 'params'): T {
+function unwrap<T>(result: Parsed<T>, where: 'body' | 'query' | 'params'): T {
   if (result.success) return result.data
   if (where === 'params') notFound()
   throw fieldError(fieldErrors(result.error.issues))
