@@ -7,31 +7,10 @@
 // no such string may reach a query or the audit log. The schemas' text() says the same, and more.
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
-import { fieldErrors, hasBrokenCharacter, UNUSUAL_CHARACTER } from '#shared/schemas/common'
+import { brokenTextAt, fieldErrors, UNUSUAL_CHARACTER } from '#shared/schemas/common'
 
 export function fieldError(fields: Record<string, string>, statusCode = 400, statusMessage = 'Check the highlighted fields') {
   return createError({ statusCode, statusMessage, data: { fields } })
-}
-
-/** The path of the first string (or object key) holding a NUL or a lone surrogate, walked without recursion; null when there is none. */
-export function brokenTextAt(value: unknown): (string | number)[] | null {
-  const stack: { value: unknown, path: (string | number)[] }[] = [{ value, path: [] }]
-  while (stack.length) {
-    const { value: v, path } = stack.pop()!
-    if (typeof v === 'string') {
-      if (hasBrokenCharacter(v)) return path
-    }
-    else if (Array.isArray(v)) {
-      for (let i = v.length - 1; i >= 0; i--) stack.push({ value: v[i], path: [...path, i] })
-    }
-    else if (v !== null && typeof v === 'object') {
-      for (const [k, inner] of Object.entries(v)) {
-        if (hasBrokenCharacter(k)) return [...path, k]
-        stack.push({ value: inner, path: [...path, k] })
-      }
-    }
-  }
-  return null
 }
 
 /** The schema's result, unless the input holds a broken character: then a failure naming where. */

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from 'node:fs'
 import { join, relative, sep } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { DATE_RANGE, hasBrokenCharacter, isoDate, isoDateTime, queryWholeNumber, text, UNUSUAL_CHARACTER } from '../../shared/schemas/common'
+import { brokenTextAt, DATE_RANGE, hasBrokenCharacter, isoDate, isoDateTime, queryWholeNumber, text, UNUSUAL_CHARACTER } from '../../shared/schemas/common'
 
 // One text schema and one date schema for every route (issue 13, item 8): PostgreSQL's text refuses
 // NUL, jsonb refuses half a surrogate pair, and the date code broke on the years 0000 and 9999.
@@ -111,5 +111,23 @@ describe('queryWholeNumber(): a whole number in a query string, within its bound
     const r = page.safeParse(value)
     expect(r.success).toBe(false)
     expect(r.error!.issues[0]!.message).toBe('A page is a whole number from 1 to 10000.')
+  })
+})
+
+describe('brokenTextAt(): where the body and query readers find a NUL or a lone surrogate (PostgreSQL text, jsonb)', () => {
+  it.each<[string, unknown, (string | number)[] | null]>([
+    ['a clean body', { name: 'Wren', rows: [{ notes: 'a\nb' }], n: 5, ok: true, none: null }, null],
+    ['a top-level field', { name: 'Wren\u0000' }, ['name']],
+    ['inside an array of objects (an import\'s rows)', { rows: [{ name: 'A' }, { name: 'B\uD800' }] }, ['rows', 1, 'name']],
+    ['in a key (a record\'s key)', { moves: { 'a\u0000': 1 } }, ['moves', 'a\u0000']],
+    ['a string on its own', '\uDC00', []],
+    ['the first of two, in order', { a: 'x\u0000', b: 'y\u0000' }, ['a']],
+    ['a whole emoji is fine', { name: '👷' }, null],
+  ])('%s', (_what, value, path) => expect(brokenTextAt(value)).toEqual(path))
+
+  it('walks a body nested 100,000 deep without running out of stack', () => {
+    let deep: unknown = 'end\u0000'
+    for (let i = 0; i < 100_000; i++) deep = [deep]
+    expect(brokenTextAt(deep)).toHaveLength(100_000)
   })
 })
