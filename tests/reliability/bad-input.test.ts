@@ -290,6 +290,18 @@ describe('bad input', () => {
     expect.soft(changedCounts(before, after), 'rows written by refused requests').toEqual([])
   })
 
+  it('answers a body nested 100,000 deep (under the size limit) with a 400, and one with a NUL deep inside naming its path', async () => {
+    const route = bodyRoutes.find(r => r.key === 'POST /api/customers')!
+    const deep = `${'['.repeat(100_000)}"x"${']'.repeat(100_000)}`
+    expect(deep.length).toBeLessThan(256 * 1024)
+    const res = await send(route, deep)
+    expect(res.status, short(res)).toBe(400)
+    const nul = `{"customer":${'['.repeat(1000)}"x\\u0000"${']'.repeat(1000)}}`
+    const named = await send(route, nul)
+    expect(named.status, short(named)).toBe(400)
+    expect(Object.keys(named.body.data.fields)).toEqual([['customer', ...Array.from({ length: 1000 }, () => 0)].join('.')])
+  })
+
   it('knows a good query for every GET route that reads one', () => {
     const routes = queryRoutes()
     expect(routes.length).toBeGreaterThan(15)
