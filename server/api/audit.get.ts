@@ -1,8 +1,9 @@
 import { desc, eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { auditLog, users } from '../db/schema'
+import { queryWholeNumber } from '#shared/schemas/common'
 
-const query = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
+const query = z.object({ limit: queryWholeNumber('limit', 1, 500, 100) })
 
 /** Who changed what in this firm, newest first. */
 export default defineEventHandler(async (event) => {

@@ -1,12 +1,10 @@
 import { z } from 'zod'
-
-const whole = (what: string, max: number) => z.coerce.number({ error: `${what} is a whole number from 1 to ${max}.` })
-  .int({ error: `${what} is a whole number from 1 to ${max}.` }).min(1, { error: `${what} is a whole number from 1 to ${max}.` }).max(max, { error: `${what} is a whole number from 1 to ${max}.` })
+import { queryWholeNumber } from '#shared/schemas/common'
 
 const owedQuery = z.object({
-  page: whole('page', 10_000).default(1),
+  page: queryWholeNumber('page', 1, 10_000, 1),
   // customers a page; also how many of the longest overdue invoices come with it (the dashboard asks for 10)
-  pageSize: whole('pageSize', 200).default(50),
+  pageSize: queryWholeNumber('pageSize', 1, 200, 50),
 })
 
 /**

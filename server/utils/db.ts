@@ -88,3 +88,14 @@ export function isUniqueViolation(err: unknown): boolean {
   const e = err as { code?: string, cause?: { code?: string } }
   return e?.code === '23505' || e?.cause?.code === '23505'
 }
+
+/**
+ * A foreign key refused the write (23503): a row still names the one being removed, or the row a
+ * new one names was removed meanwhile. Looks through the wrappers (Drizzle's, h3's) to the driver's error.
+ */
+export function isForeignKeyViolation(err: unknown): boolean {
+  for (let e = err as { code?: string, cause?: unknown } | undefined, depth = 0; e && depth < 6; e = e.cause as typeof e, depth++) {
+    if (e.code === '23503') return true
+  }
+  return false
+}

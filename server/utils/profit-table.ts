@@ -27,6 +27,7 @@ import { CUSTOMER_KIND_LABELS, CUSTOMER_KINDS, type CustomerKind } from '#shared
 import { jobProfit } from '#shared/utils/profit'
 import type { JobStatus } from '#shared/utils/jobs'
 import { poundsCell, toCsv, type CsvCell } from '#shared/utils/csv'
+import { isoDate } from '#shared/schemas/common'
 
 /** The longest period one request may ask for, counting both ends. */
 export const PROFIT_MAX_DAYS = 366
@@ -35,8 +36,8 @@ const DAY_MS = 86_400_000
 
 /** The query of the profit table and its CSV: a period of at most 366 days, and optionally one kind of customer. */
 export const profitQuerySchema = z.object({
-  from: z.iso.date({ error: 'Pick the first day of the period (YYYY-MM-DD).' }),
-  to: z.iso.date({ error: 'Pick the last day of the period (YYYY-MM-DD).' }),
+  from: isoDate('Pick the first day of the period (YYYY-MM-DD).'),
+  to: isoDate('Pick the last day of the period (YYYY-MM-DD).'),
   // '' is "every kind" (an empty choice in a form)
   customerKind: z.enum(['', ...CUSTOMER_KINDS], { error: 'Choose homeowner, landlord, builder or business, or every kind.' })
     .optional().transform(v => (v ? v as CustomerKind : undefined)),

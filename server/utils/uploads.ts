@@ -18,7 +18,7 @@ import sharp from 'sharp'
 import { z } from 'zod'
 import { conditions, enquiries, photos, rooms, setLogPhotos, setLogs, surfaces, visits } from '../db/schema'
 import type { FirmScope } from './db'
-import { fieldErrors } from '#shared/schemas/common'
+import { fieldErrors, text } from '#shared/schemas/common'
 
 export const DEFAULT_UPLOAD_MAX_BYTES = 15 * 1024 * 1024
 /** Room for the multipart boundaries, part headers and the small text fields beside the file. */
@@ -321,7 +321,7 @@ function exactlyOneTarget(value: PhotoTarget, ctx: z.RefinementCtx) {
 /** The target (exactly one id) and caption of an upload, from its query or form fields. */
 export const photoUploadSchema = z.object({
   ...targetShape,
-  caption: z.string().trim().max(500, { error: 'Keep the caption under 500 characters.' }).default(''),
+  caption: text().trim().max(500, { error: 'Keep the caption under 500 characters.' }).default(''),
 }).superRefine(exactlyOneTarget)
 
 /** The list route's filter: exactly one of the ids. */

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { emailField, nameField, newPasswordField } from './common'
+import { emailField, nameField, newPasswordField, text } from './common'
 import { ROLES } from '../utils/roles'
 import { passwordProblem } from '../utils/password'
 
@@ -16,7 +16,7 @@ export type SignUpInput = z.infer<typeof signUpSchema>
 
 export const signInSchema = z.object({
   email: emailField,
-  password: z.string({ error: 'Enter your password.' }).min(1, { error: 'Enter your password.' }).max(200, { error: 'That password is too long.' }),
+  password: text({ error: 'Enter your password.' }).min(1, { error: 'Enter your password.' }).max(200, { error: 'That password is too long.' }),
 })
 export type SignInInput = z.infer<typeof signInSchema>
 
@@ -32,12 +32,12 @@ export const changeRoleSchema = z.object({
 
 /** Accepting an invitation: a new person names themselves and sets a password; someone with an account gives theirs. */
 export const acceptInvitationSchema = z.object({
-  name: z.string().trim().max(120, { error: 'Keep it under 120 characters.' }).optional(),
-  password: z.string({ error: 'Enter a password.' }).min(1, { error: 'Enter a password.' }).max(200, { error: 'That password is too long.' }),
+  name: text().trim().max(120, { error: 'Keep it under 120 characters.' }).optional(),
+  password: text({ error: 'Enter a password.' }).min(1, { error: 'Enter a password.' }).max(200, { error: 'That password is too long.' }),
 })
 
 export const changePasswordSchema = z.object({
-  currentPassword: z.string({ error: 'Enter your current password.' }).min(1, { error: 'Enter your current password.' }).max(200),
+  currentPassword: text({ error: 'Enter your current password.' }).min(1, { error: 'Enter your current password.' }).max(200),
   newPassword: newPasswordField,
 })
 
@@ -46,5 +46,5 @@ export const switchFirmSchema = z.object({
 })
 
 export const tokenParam = z.object({
-  token: z.string().regex(/^[\w-]{20,100}$/, { error: 'Not found.' }),
+  token: text().regex(/^[\w-]{20,100}$/, { error: 'Not found.' }),
 })

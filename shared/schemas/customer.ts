@@ -1,17 +1,17 @@
 import { z } from 'zod'
-import { whenObject } from './common'
+import { queryWholeNumber, text, whenObject } from './common'
 import { CUSTOMER_KINDS } from '../utils/ledger'
 
-const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
+const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
 const optionalEmail = z.union([
   z.literal(''),
-  z.string().trim().toLowerCase().max(254, { error: 'An e-mail address is at most 254 characters.' }).pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' })),
+  text().trim().toLowerCase().max(254, { error: 'An e-mail address is at most 254 characters.' }).pipe(z.email({ error: 'Enter an e-mail address like name@example.co.uk.' })),
 ])
 /** UK phone numbers as people write them: digits, spaces, +, brackets, dashes; 10 to 13 digits. */
-const phone = z.string().trim().max(30, { error: 'That phone number is too long.' })
+const phone = text().trim().max(30, { error: 'That phone number is too long.' })
   .refine(v => v === '' || (/^[\d\s()+-]+$/.test(v) && v.replace(/\D/g, '').length >= 10 && v.replace(/\D/g, '').length <= 13), { error: 'Enter a phone number like 07700 900123.' })
-const vatNumber = z.string().trim().toUpperCase().transform(v => v.replace(/\s+/g, ''))
-  .pipe(z.string().regex(/^(GB)?(\d{9}|\d{12})$/, { error: 'A UK VAT number is GB then 9 digits, for example GB123456789.' }))
+const vatNumber = text().trim().toUpperCase().transform(v => v.replace(/\s+/g, ''))
+  .pipe(text().regex(/^(GB)?(\d{9}|\d{12})$/, { error: 'A UK VAT number is GB then 9 digits, for example GB123456789.' }))
 
 /**
  * A customer, with the tax flags validated together:
@@ -21,15 +21,15 @@ const vatNumber = z.string().trim().toUpperCase().transform(v => v.replace(/\s+/
  */
 export const customerSchema = z.object({
   kind: z.enum(CUSTOMER_KINDS, { error: 'Choose what kind of customer this is.' }),
-  name: z.string({ error: 'Enter the customer\'s name.' }).trim().min(1, { error: 'Enter the customer\'s name.' }).max(160, { error: 'Keep it under 160 characters.' }),
-  contactName: text(120).default(''),
+  name: text({ error: 'Enter the customer\'s name.' }).trim().min(1, { error: 'Enter the customer\'s name.' }).max(160, { error: 'Keep it under 160 characters.' }),
+  contactName: upTo(120).default(''),
   email: optionalEmail.default(''),
   phone: phone.default(''),
-  billingLine1: text(200).default(''),
-  billingLine2: text(200).default(''),
-  billingTown: text(100).default(''),
-  billingPostcode: text(10).transform(v => v.toUpperCase()).default(''),
-  notes: text(4000).default(''),
+  billingLine1: upTo(200).default(''),
+  billingLine2: upTo(200).default(''),
+  billingTown: upTo(100).default(''),
+  billingPostcode: upTo(10).transform(v => v.toUpperCase()).default(''),
+  notes: upTo(4000).default(''),
   vatRegistered: z.boolean().default(false),
   vatNumber: z.union([z.literal('').transform(() => null), vatNumber]).nullable().default(null),
   paysUnderCis: z.boolean().default(false),
@@ -46,20 +46,20 @@ export type CustomerInput = z.input<typeof customerSchema>
 export type Customer = z.output<typeof customerSchema>
 
 export const siteSchema = z.object({
-  label: text(80).default(''),
-  line1: z.string({ error: 'Enter the first line of the address.' }).trim().min(1, { error: 'Enter the first line of the address.' }).max(200),
-  line2: text(200).default(''),
-  town: text(100).default(''),
-  postcode: text(10).transform(v => v.toUpperCase()).default(''),
-  accessNotes: text(2000).default(''),
+  label: upTo(80).default(''),
+  line1: text({ error: 'Enter the first line of the address.' }).trim().min(1, { error: 'Enter the first line of the address.' }).max(200),
+  line2: upTo(200).default(''),
+  town: upTo(100).default(''),
+  postcode: upTo(10).transform(v => v.toUpperCase()).default(''),
+  accessNotes: upTo(2000).default(''),
 })
 export type SiteInput = z.input<typeof siteSchema>
 
 export const CUSTOMER_SORTS = ['name', '-name', 'created', '-created', 'postcode', '-postcode'] as const
 export const customerListQuery = z.object({
-  q: z.string().trim().max(100).default(''),
-  page: z.coerce.number().int().min(1).max(10_000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+  q: text().trim().max(100).default(''),
+  page: queryWholeNumber('A page', 1, 10_000, 1),
+  pageSize: queryWholeNumber('A page size', 1, 100, 25),
   sort: z.enum(CUSTOMER_SORTS).default('name'),
   /** Only contractors that pay the firm under CIS (the CIS statements form). */
   cis: z.enum(['yes'], { error: 'Use cis=yes or leave it out.' }).optional(),

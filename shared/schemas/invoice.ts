@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { whenObject } from './common'
+import { isoDate, text, whenObject } from './common'
 import { PAYMENT_METHODS } from '../utils/invoices'
 import { formatPence } from '../utils/money'
 import { invoiceTotals } from '../utils/tax'
@@ -26,9 +26,9 @@ export const newInvoiceSchema = z.object({
 
 export const invoiceLineSchema = z.object({
   kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
-  description: z.string({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
+  description: text({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
   quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
-  unit: z.string().trim().min(1).max(20).default('item'),
+  unit: text().trim().min(1).max(20).default('item'),
   unitPence: pence('The unit price'),
   vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
   /** Work beyond the job's agreed price, confirmed by the person: not counted against the price. */
@@ -38,9 +38,9 @@ export const invoiceLineSchema = z.object({
 export const invoiceDraftSchema = z.object({
   vat: z.enum(['standard', 'reverse-charge', 'not-registered']),
   /** Why the VAT treatment was changed from the one suggested; kept with the invoice. */
-  vatReason: z.string().trim().max(500).default(''),
+  vatReason: text().trim().max(500).default(''),
   cisRatePercent: z.union([z.literal(0), z.literal(20), z.literal(30)]).nullable().default(null),
-  notes: z.string().trim().max(4000).default(''),
+  notes: text().trim().max(4000).default(''),
   lines: z.array(invoiceLineSchema).max(200).default([]),
 })
   .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: whenObject })
@@ -73,8 +73,8 @@ export const invoiceDraftSchema = z.object({
 export const paymentSchema = z.object({
   method: z.enum(['transfer', 'cash', 'cheque'], { error: 'Choose transfer, cash or cheque (card payments arrive by themselves).' }),
   amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount received.' }).max(1_000_000_00),
-  receivedOn: z.iso.date({ error: 'Pick the date it arrived.' }),
-  reference: z.string().trim().max(200).default(''),
+  receivedOn: isoDate('Pick the date it arrived.'),
+  reference: text().trim().max(200).default(''),
   /**
    * Made by the form, one per payment the person means to record: the same request sent twice (a
    * double tap, a retry after the signal dropped) is recorded once. Required, because without it two
@@ -85,8 +85,8 @@ export const paymentSchema = z.object({
 
 export const chaseNoteSchema = z.object({
   kind: z.enum(['call', 'message', 'promise'], { error: 'Call, message or promise to pay?' }),
-  note: z.string().trim().max(2000).default(''),
-  promisedOn: z.iso.date({ error: 'Pick the date they promised.' }).nullable().default(null),
+  note: text().trim().max(2000).default(''),
+  promisedOn: isoDate('Pick the date they promised.').nullable().default(null),
 }).refine(v => v.kind !== 'promise' || v.promisedOn !== null, { path: ['promisedOn'], error: 'Pick the date they promised to pay by.', when: whenObject })
 
 export { PAYMENT_METHODS }

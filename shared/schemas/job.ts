@@ -1,9 +1,9 @@
 import { z } from 'zod'
-import { whenObject } from './common'
+import { isoDate, isoDateTime, text, whenObject } from './common'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 
-const isoDate = z.iso.date({ error: 'Pick a date.' })
-const text = (max: number) => z.string().trim().max(max, { error: `Keep it under ${max} characters.` })
+const pickDate = isoDate('Pick a date.')
+const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
 
 /** A price in whole pence, 0 or more (£1,000,000 at most). */
 const pence = (what: string) => z.int({ error: `Enter the ${what} in pounds and pence.` })
@@ -26,26 +26,26 @@ export const newJobSchema = z.object({
   customerId: z.uuid({ error: 'Choose the customer.' }),
   siteId: z.uuid({ error: 'Choose the site.' }).nullable().default(null),
   visitId: z.uuid().nullable().default(null),
-  title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is, like Skim the front bedroom.' }).max(200),
+  title: text({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is, like Skim the front bedroom.' }).max(200),
   estimatedDaysX100: z.int().min(0).max(100_000).default(0),
-  notes: text(4000).default(''),
+  notes: upTo(4000).default(''),
   ...jobPrice,
 })
 
 /** A change to a job: its title, and its notes and price when given (left as they are when not). */
 export const jobUpdateSchema = z.object({
-  title: z.string({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is.' }).max(200, { error: 'Keep it under 200 characters.' }),
-  notes: text(4000).optional(),
+  title: text({ error: 'Say what the job is.' }).trim().min(1, { error: 'Say what the job is.' }).max(200, { error: 'Keep it under 200 characters.' }),
+  notes: upTo(4000).optional(),
   ...jobPrice,
 })
 
 export const jobMoveSchema = z.object({
   to: z.enum(JOB_STATUSES, { error: 'Choose the new status.' }),
-  reason: text(500).default(''),
+  reason: upTo(500).default(''),
 }).refine(v => v.to !== 'cancelled' || v.reason.length > 0, { path: ['reason'], error: 'Say why the job is cancelled.' })
 
 export const jobDaySchema = z.object({
-  day: isoDate,
+  day: pickDate,
   userId: z.uuid({ error: 'Choose who works the day.' }),
   portion: z.enum(DAY_PORTIONS).default('day'),
 })
@@ -77,13 +77,13 @@ export const planSettingsSchema = z.object({
 export const setLogSchema = z.object({
   kind: z.enum(['set', 'problem']).default('set'),
   setNumber: z.int().min(1).max(200).nullable().default(null),
-  startedAt: z.iso.datetime({ offset: true, error: 'Enter the start time.' }).nullable().default(null),
-  endedAt: z.iso.datetime({ offset: true, error: 'Enter the end time.' }).nullable().default(null),
+  startedAt: isoDateTime('Enter the start time.').nullable().default(null),
+  endedAt: isoDateTime('Enter the end time.').nullable().default(null),
   coat: z.enum(LOG_COATS, { error: 'Choose the coat.' }).nullable().default(null),
   surfaceIds: z.array(z.uuid()).max(200).default([]),
   userIds: z.array(z.uuid()).max(20).default([]),
   coldOrDamp: z.boolean().default(false),
-  notes: text(2000).default(''),
+  notes: upTo(2000).default(''),
   materials: z.array(z.object({
     materialId: z.uuid({ error: 'Choose the material.' }),
     packsX1000: z.int({ error: 'Enter the bags mixed.' }).min(1, { error: 'Enter the bags mixed, like 1.5.' }).max(1_000_000),
@@ -96,7 +96,7 @@ export const setLogSchema = z.object({
   .refine(v => !Array.isArray(v.materials) || new Set(v.materials.map(m => m?.materialId)).size === v.materials.length, { path: ['materials'], error: 'Each material once: add the bags together.', when: whenObject })
 
 export const diaryQuery = z.object({
-  from: isoDate,
-  to: isoDate,
+  from: pickDate,
+  to: pickDate,
 }).refine(v => v.from <= v.to, { path: ['to'], error: 'The end is before the start.' })
   .refine(v => (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 <= 62, { path: ['to'], error: 'Ask for at most two months at a time.' })

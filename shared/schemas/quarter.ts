@@ -1,16 +1,16 @@
 // Inputs of the quarter's summaries and exports: a period (a VAT quarter by any date in it, or
 // from and to), and a contractor's CIS statement.
 import { z } from 'zod'
-import { whenObject } from './common'
+import { isoDate, text, whenObject } from './common'
 
-const isoDate = z.iso.date({ error: 'Pick a date.' })
+const pickDate = isoDate('Pick a date.')
 const MAX_DAYS = 400
 
 /** A period: `quarterOf` (the VAT quarter that date falls in) or `from` and `to`; at most about a year (exports of more come a year at a time). */
 export const periodQuery = z.object({
-  quarterOf: isoDate.optional(),
-  from: isoDate.optional(),
-  to: isoDate.optional(),
+  quarterOf: pickDate.optional(),
+  from: pickDate.optional(),
+  to: pickDate.optional(),
 })
   .refine(v => Boolean(v.quarterOf) !== Boolean(v.from || v.to), { path: ['quarterOf'], error: 'Pick a VAT quarter, or a from and to date.', when: whenObject })
   .refine(v => !(v.from || v.to) || Boolean(v.from && v.to), { path: ['to'], error: 'Pick both dates.', when: whenObject })
@@ -23,18 +23,18 @@ const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and penc
 /** What a contractor's monthly CIS statement says (gov.uk: gross paid excluding VAT, materials, the deduction). */
 export const cisStatementSchema = z.object({
   customerId: z.uuid({ error: 'Choose the contractor.' }),
-  taxMonthStart: isoDate.refine(d => d.endsWith('-06'), { error: 'A CIS tax month starts on the 6th: pick the 6th.' }),
+  taxMonthStart: pickDate.refine(d => d.endsWith('-06'), { error: 'A CIS tax month starts on the 6th: pick the 6th.' }),
   grossPence: pence('The gross amount paid'),
   materialsPence: pence('The materials').default(0),
   deductionPence: pence('The deduction'),
-  reference: z.string().trim().max(200, { error: 'Keep it under 200 characters.' }).default(''),
-  notes: z.string().trim().max(2000, { error: 'Keep it under 2000 characters.' }).default(''),
+  reference: text().trim().max(200, { error: 'Keep it under 200 characters.' }).default(''),
+  notes: text().trim().max(2000, { error: 'Keep it under 2000 characters.' }).default(''),
 })
   .refine(v => typeof v.grossPence !== 'number' || typeof v.materialsPence !== 'number' || v.materialsPence <= v.grossPence, { path: ['materialsPence'], error: 'The materials cannot be more than the gross amount.', when: whenObject })
   .refine(v => typeof v.grossPence !== 'number' || typeof v.deductionPence !== 'number' || v.deductionPence <= v.grossPence, { path: ['deductionPence'], error: 'The deduction cannot be more than the gross amount.', when: whenObject })
 
 export const cisStatementListQuery = z.object({
-  from: isoDate.optional(),
-  to: isoDate.optional(),
+  from: pickDate.optional(),
+  to: pickDate.optional(),
   customerId: z.uuid({ error: 'Choose the contractor.' }).optional(),
 })

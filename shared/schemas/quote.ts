@@ -1,13 +1,13 @@
 import { z } from 'zod'
-import { whenObject } from './common'
+import { isoDate, text, whenObject } from './common'
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(100_000_00, { error: `${what} looks too high.` })
 const percent = (max = 100) => z.int({ error: 'Enter a whole percentage.' }).min(0).max(max)
 
 /** A making-good item of the price book: what it is, what it is priced by, and its price. */
 export const makingGoodItemSchema = z.object({
-  name: z.string({ error: 'Name the item.' }).trim().min(2, { error: 'Name the item, like "Make good round a socket".' }).max(120, { error: 'Keep the name under 120 characters.' }),
-  unit: z.string({ error: 'Enter the unit, like item.' }).trim().min(1, { error: 'Enter the unit, like item.' }).max(20, { error: 'Keep the unit short, like item or metre.' }),
+  name: text({ error: 'Name the item.' }).trim().min(2, { error: 'Name the item, like "Make good round a socket".' }).max(120, { error: 'Keep the name under 120 characters.' }),
+  unit: text({ error: 'Enter the unit, like item.' }).trim().min(1, { error: 'Enter the unit, like item.' }).max(20, { error: 'Keep the unit short, like item or metre.' }),
   pricePence: pence('The price'),
 })
 export type MakingGoodItemInput = z.infer<typeof makingGoodItemSchema>
@@ -49,12 +49,12 @@ export type PriceBookInput = z.infer<typeof priceBookSchema>
 
 export const quoteLineSchema = z.object({
   kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
-  description: z.string({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
+  description: text({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
   quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
-  unit: z.string().trim().min(1).max(20),
+  unit: text().trim().min(1).max(20),
   unitPence: pence('The unit price'),
   vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
-  derivation: z.string().max(4000).default(''),
+  derivation: text().max(4000).default(''),
 })
 
 export const quoteVersionSchema = z.object({
@@ -63,10 +63,10 @@ export const quoteVersionSchema = z.object({
   fixedPricePence: pence('The fixed price').nullable().default(null),
   vat: z.enum(['standard', 'reverse-charge', 'not-registered']),
   cisRatePercent: z.union([z.literal(0), z.literal(20), z.literal(30)]).nullable().default(null),
-  validUntil: z.iso.date({ error: 'Pick the date the quote is good until.' }),
-  terms: z.string().trim().max(4000).default(''),
-  notes: z.string().trim().max(4000).default(''),
-  cautions: z.array(z.string().max(500)).max(10).default([]),
+  validUntil: isoDate('Pick the date the quote is good until.'),
+  terms: text().trim().max(4000).default(''),
+  notes: text().trim().max(4000).default(''),
+  cautions: z.array(text().max(500)).max(10).default([]),
   lines: z.array(quoteLineSchema).max(200).default([]),
 })
   .refine(v => v.pricing !== 'fixed' || v.fixedPricePence !== null, { path: ['fixedPricePence'], error: 'Enter the fixed price.', when: whenObject })

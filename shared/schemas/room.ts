@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { BACKGROUNDS, CONDITION_KINDS, CORNER_KINDS, OPENING_KINDS, SURFACE_KINDS } from '../utils/ledger'
 import { rectCm2 } from '../utils/measure'
+import { text } from './common'
 
 // A room is saved whole: its surfaces (each with openings and conditions) and the corners
 // between them. Every item carries an id made by the client, so a draft kept on the phone
@@ -24,7 +25,7 @@ export const conditionSchema = z.object({
   lengthMm: z.int().min(1).max(100_000).nullable().default(null),
   outOfTrueMm: z.int().min(1, { error: 'Enter by how many mm.' }).max(200, { error: 'Over 200 mm out of true? Check the figure.' }).nullable().default(null),
   scrimmed: z.boolean().default(false),
-  notes: z.string().trim().max(1000).default(''),
+  notes: text().trim().max(1000).default(''),
 })
   .refine(c => !c.kind.startsWith('patch-') || c.areaCm2 !== null, { path: ['areaCm2'], error: 'Enter the patch area in m².' })
   .refine(c => !['crack', 'frame-gap'].includes(c.kind) || c.lengthMm !== null, { path: ['lengthMm'], error: 'Enter the length in metres.' })
@@ -33,11 +34,11 @@ export const conditionSchema = z.object({
 export const surfaceSchema = z.object({
   id: z.uuid(),
   kind: z.enum(SURFACE_KINDS, { error: 'Choose the kind of surface.' }),
-  label: z.string().trim().max(60).default(''),
+  label: text().trim().max(60).default(''),
   lengthMm: mm('length', 100_000),
   secondMm: mm('second measurement', 20_000),
   background: z.enum(BACKGROUNDS).default('sound-plaster'),
-  notes: z.string().trim().max(1000).default(''),
+  notes: text().trim().max(1000).default(''),
   openings: z.array(openingSchema).max(20, { error: 'At most 20 openings on one surface.' }).default([]),
   conditions: z.array(conditionSchema).max(30, { error: 'At most 30 findings on one surface.' }).default([]),
 }).superRefine((s, ctx) => {
@@ -63,9 +64,9 @@ export const cornerSchema = z.object({
 export const roomSchema = z.object({
   /** The revision this draft started from (0 for a new room); an older one than saved is a 409. */
   revision: z.int().min(0),
-  name: z.string({ error: 'Name the room.' }).trim().min(1, { error: 'Name the room, like Front bedroom.' }).max(80),
+  name: text({ error: 'Name the room.' }).trim().min(1, { error: 'Name the room, like Front bedroom.' }).max(80),
   position: z.int().min(0).max(1000).default(0),
-  notes: z.string().trim().max(2000).default(''),
+  notes: text().trim().max(2000).default(''),
   surfaces: z.array(surfaceSchema).max(60, { error: 'At most 60 surfaces in one room.' }).default([]),
   corners: z.array(cornerSchema).max(60).default([]),
 }).superRefine((r, ctx) => {

@@ -1,14 +1,15 @@
 import { z } from 'zod'
 import { VISIT_STATUSES } from '../utils/ledger'
+import { isoDateTime, queryWholeNumber, text } from './common'
 
 export const visitSchema = z.object({
   customerId: z.uuid({ error: 'Choose the customer.' }),
   siteId: z.uuid({ error: 'Choose the site.' }),
   enquiryId: z.uuid().nullable().default(null),
-  startsAt: z.iso.datetime({ offset: true, error: 'Pick the date and time of the visit.' }),
+  startsAt: isoDateTime('Pick the date and time of the visit.'),
   durationMinutes: z.int({ error: 'Enter how long, in minutes.' }).min(10, { error: 'At least 10 minutes.' }).max(8 * 60, { error: 'At most 8 hours.' }).default(60),
   visitorUserId: z.uuid().nullable().default(null),
-  notes: z.string().trim().max(2000).default(''),
+  notes: text().trim().max(2000).default(''),
 })
 export type VisitInput = z.input<typeof visitSchema>
 
@@ -21,7 +22,7 @@ export const visitUpdateSchema = z.object({
 })
 
 export const visitListQuery = z.object({
-  from: z.iso.datetime({ offset: true }).optional(),
-  to: z.iso.datetime({ offset: true }).optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(50),
+  from: isoDateTime().optional(),
+  to: isoDateTime().optional(),
+  limit: queryWholeNumber('The limit', 1, 200, 50),
 })

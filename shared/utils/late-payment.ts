@@ -41,20 +41,44 @@ export interface LatePaymentClaim {
 }
 
 /**
- * Bank Rate changes as DOMAIN.md gives them ("news reports, not the Bank's own table; verify before
- * relying"). A seed for the firm's own editable table, not a constant to calculate with.
- * - DOMAIN.md gives 5.25% only as "to 1 Aug 2024", with no start date, so it is left out: a
- *   reference day before 2024-08-01 (30 June 2024 and earlier) finds no rate until the firm adds it.
- * - "4.75% from Nov 2024" and "3.75% from Dec 2025" give no day: we use the last day of the month,
- *   by which the rate was in force. The reference days (30 June, 31 December) are not affected.
+ * Bank Rate changes since March 2009, each with the day it took effect. A seed for the firm's own
+ * editable table, not a constant to calculate with.
+ *
+ * Source: ../shared/DOMAIN.md, "Bank Rate changes since 2009 (from memory of the Bank of England's
+ * history; check against its published table before relying)". These rows are from memory of the
+ * Bank of England's history, not copied from the Bank's published table: check them against it
+ * before relying on them. The later rows agree with DOMAIN.md's news-report list ("5.25% to 1 Aug
+ * 2024, 5.00%, 4.75% from Nov 2024, 4.50% from 6 Feb 2025, 4.25% from 8 May 2025, 4.00% from
+ * 7 Aug 2025, 3.75% from Dec 2025"), which gives no day for November 2024 and December 2025; the
+ * days here are the from-memory list's.
  */
 export const DEFAULT_BANK_RATES: BankRateChange[] = [
-  { from: '2024-08-01', ratePercent: 5 }, // DOMAIN.md: "5.25% to 1 Aug 2024, 5.00%"
-  { from: '2024-11-30', ratePercent: 4.75 }, // DOMAIN.md: "4.75% from Nov 2024" (day not given)
-  { from: '2025-02-06', ratePercent: 4.5 }, // DOMAIN.md: "4.50% from 6 Feb 2025"
-  { from: '2025-05-08', ratePercent: 4.25 }, // DOMAIN.md: "4.25% from 8 May 2025"
-  { from: '2025-08-07', ratePercent: 4 }, // DOMAIN.md: "4.00% from 7 Aug 2025"
-  { from: '2025-12-31', ratePercent: 3.75 }, // DOMAIN.md: "3.75% from Dec 2025" (day not given)
+  { from: '2009-03-05', ratePercent: 0.5 }, // DOMAIN.md, from memory: "0.5% from 5 Mar 2009"
+  { from: '2016-08-04', ratePercent: 0.25 }, // DOMAIN.md, from memory: "0.25% 4 Aug 2016"
+  { from: '2017-11-02', ratePercent: 0.5 }, // DOMAIN.md, from memory: "0.5% 2 Nov 2017"
+  { from: '2018-08-02', ratePercent: 0.75 }, // DOMAIN.md, from memory: "0.75% 2 Aug 2018"
+  { from: '2020-03-11', ratePercent: 0.25 }, // DOMAIN.md, from memory: "0.25% 11 Mar 2020"
+  { from: '2020-03-19', ratePercent: 0.1 }, // DOMAIN.md, from memory: "0.1% 19 Mar 2020"
+  { from: '2021-12-16', ratePercent: 0.25 }, // DOMAIN.md, from memory: "0.25% 16 Dec 2021"
+  { from: '2022-02-03', ratePercent: 0.5 }, // DOMAIN.md, from memory: "0.5% 3 Feb 2022"
+  { from: '2022-03-17', ratePercent: 0.75 }, // DOMAIN.md, from memory: "0.75% 17 Mar 2022"
+  { from: '2022-05-05', ratePercent: 1 }, // DOMAIN.md, from memory: "1% 5 May 2022"
+  { from: '2022-06-16', ratePercent: 1.25 }, // DOMAIN.md, from memory: "1.25% 16 Jun 2022"
+  { from: '2022-08-04', ratePercent: 1.75 }, // DOMAIN.md, from memory: "1.75% 4 Aug 2022"
+  { from: '2022-09-22', ratePercent: 2.25 }, // DOMAIN.md, from memory: "2.25% 22 Sep 2022"
+  { from: '2022-11-03', ratePercent: 3 }, // DOMAIN.md, from memory: "3% 3 Nov 2022"
+  { from: '2022-12-15', ratePercent: 3.5 }, // DOMAIN.md, from memory: "3.5% 15 Dec 2022"
+  { from: '2023-02-02', ratePercent: 4 }, // DOMAIN.md, from memory: "4% 2 Feb 2023"
+  { from: '2023-03-23', ratePercent: 4.25 }, // DOMAIN.md, from memory: "4.25% 23 Mar 2023"
+  { from: '2023-05-11', ratePercent: 4.5 }, // DOMAIN.md, from memory: "4.5% 11 May 2023"
+  { from: '2023-06-22', ratePercent: 5 }, // DOMAIN.md, from memory: "5% 22 Jun 2023"
+  { from: '2023-08-03', ratePercent: 5.25 }, // DOMAIN.md, from memory: "5.25% 3 Aug 2023"
+  { from: '2024-08-01', ratePercent: 5 }, // DOMAIN.md, from memory: "5% 1 Aug 2024"
+  { from: '2024-11-07', ratePercent: 4.75 }, // DOMAIN.md, from memory: "4.75% 7 Nov 2024"
+  { from: '2025-02-06', ratePercent: 4.5 }, // DOMAIN.md, from memory: "4.5% 6 Feb 2025"
+  { from: '2025-05-08', ratePercent: 4.25 }, // DOMAIN.md, from memory: "4.25% 8 May 2025"
+  { from: '2025-08-07', ratePercent: 4 }, // DOMAIN.md, from memory: "4% 7 Aug 2025"
+  { from: '2025-12-18', ratePercent: 3.75 }, // DOMAIN.md, from memory: "3.75% 18 Dec 2025"
 ]
 
 const MS_PER_DAY = 86_400_000

@@ -96,3 +96,26 @@ export type CornerKind = (typeof CORNER_KINDS)[number]
 
 /** Shown wherever a textured coating is recorded. */
 export const ASBESTOS_CAUTION = 'Old textured coatings can contain asbestos. Have it tested by a licensed surveyor before it is sanded, scraped or drilled, and follow their advice.'
+
+/** What can name a customer or a site, in the order a removal that is refused lists it. */
+export const HOLDING_WORK = ['invoices', 'creditNotes', 'jobs', 'quotes', 'visits', 'enquiries', 'cisStatements'] as const
+export type HoldingWork = (typeof HOLDING_WORK)[number]
+const HOLDING_WORDS: Record<HoldingWork, [string, string]> = {
+  invoices: ['invoice', 'invoices'],
+  creditNotes: ['credit note', 'credit notes'],
+  jobs: ['job', 'jobs'],
+  quotes: ['quote', 'quotes'],
+  visits: ['visit', 'visits'],
+  enquiries: ['enquiry', 'enquiries'],
+  cisStatements: ['CIS statement', 'CIS statements'],
+}
+
+/** Counts of work in words: { invoices: 2, jobs: 1 } -> "2 invoices and 1 job"; '' when there is none. */
+export function holdingWorkInWords(counts: Partial<Record<HoldingWork, number>>): string {
+  const parts = HOLDING_WORK.filter(k => (counts[k] ?? 0) > 0).map((k) => {
+    const n = counts[k]!
+    return `${n} ${HOLDING_WORDS[k][n === 1 ? 0 : 1]}`
+  })
+  if (parts.length <= 1) return parts.join('')
+  return `${parts.slice(0, -1).join(', ')} and ${parts.at(-1)}`
+}

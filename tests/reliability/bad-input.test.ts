@@ -5,8 +5,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp, type TestApp } from '../support/app'
 import { Client, type ApiResponse } from '../support/client'
 import {
-  changedCounts, GOOD_BODIES, jpeg, listRoutes, makeFirm, pathFor, pool, routeSource, sendMultipart, signIn, snapshot,
-  TINY_PDF, type Firm, type Route,
+  changedCounts, GOOD_BODIES, JOB_DAY, jpeg, listRoutes, makeFirm, pathFor, pool, routeSource, sendMultipart, signIn, snapshot,
+  TINY_PDF, TODAY, VISIT_AT, type Firm, type Route,
 } from './support'
 
 // Bad input (issue 8): every POST, PATCH and PUT route, as the owner of a firm, sent bodies of the
@@ -145,16 +145,89 @@ function namesField(res: ApiResponse, path: Path) {
 const short = (res: ApiResponse) => `${res.status} ${(typeof res.body === 'string' ? res.body : JSON.stringify(res.body) ?? '').slice(0, 240)}`
 
 /** Every case answered 4xx with its problem named; the ones that were not, for the failure message. */
-async function refusedEach(cases: Case[]) {
+async function refusedEach(cases: Case[], fivexx?: Set<string>) {
   const wrong: string[] = []
   await pool(cases, CONCURRENCY, async (c) => {
     const res = await send(c.route, c.body)
     const problem = problemOf(res)
+    if (res.status >= 500) fivexx?.add(`${c.route.key} ${c.path?.join('.') ?? ''}`)
     if (res.status < 400 || res.status >= 500) wrong.push(`${c.route.key} ${c.what}: ${short(res)}`)
     else if (!problem) wrong.push(`${c.route.key} ${c.what}: ${res.status} with no message`)
     else if (c.path && !namesField(res, c.path)) wrong.push(`${c.route.key} ${c.what}: 400 not naming ${c.path.join('.')}: ${problem.slice(0, 200)}`)
   })
   return wrong
+}
+
+// --- hostile values (issue 13, item 8) ------------------------------------------------------------
+
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/
+const ISO_DATE_TIME = /^\d{4}-\d{2}-\d{2}T/
+
+/**
+ * Values PostgreSQL, jsonb or the date code cannot take, for a field whose known-good value is
+ * `good`: a NUL (text refuses it), each half of a surrogate pair alone (jsonb and UTF-8 refuse it),
+ * years 0000 and 9999 in a date or date-time, and numbers past what a column or a safe integer holds.
+ */
+function hostile(good: unknown): { what: string, value: unknown }[] {
+  if (typeof good === 'number') return [2 ** 53, 1e308, -1e308].map(value => ({ what: String(value), value }))
+  if (typeof good !== 'string') return []
+  const out = [
+    { what: 'with a NUL', value: `${good}\u0000x` },
+    { what: 'with a lone high surrogate', value: `${good}\uD800` },
+    { what: 'with a lone low surrogate', value: `\uDC00${good}` },
+  ]
+  if (ISO_DATE.test(good)) out.push({ what: 'in the year 0000', value: '0000-01-01' }, { what: 'in the year 9999', value: '9999-12-31' })
+  if (ISO_DATE_TIME.test(good)) out.push({ what: 'in the year 0000', value: `0000${good.slice(4)}` }, { what: 'in the year 9999', value: `9999${good.slice(4)}` })
+  return out
+}
+
+/**
+ * A known-good query for each GET route that reads one (several where the route takes two shapes,
+ * like a VAT quarter or a from and to). The test below checks no such route is missing here.
+ */
+const FROM = `${TODAY.slice(0, 4)}-01-01`
+const PERIODS = [{ quarterOf: TODAY }, { from: FROM, to: TODAY }]
+const GOOD_QUERIES: Record<string, (f: Firm) => Record<string, string>[]> = {
+  'GET /api/audit': () => [{ limit: '100' }],
+  'GET /api/cis-deductions': () => PERIODS,
+  'GET /api/cis-statements': f => [{ from: FROM, to: TODAY, customerId: f.ids.contractorId! }],
+  'GET /api/customers': () => [{ q: 'wren', page: '1', pageSize: '25', sort: 'name' }, { q: '', cis: 'yes' }],
+  'GET /api/diary': () => [{ from: TODAY, to: JOB_DAY }],
+  'GET /api/enquiries': () => [{ status: 'new', page: '1', pageSize: '25' }],
+  'GET /api/invoices': () => [{ pageSize: '50' }],
+  'GET /api/jobs': () => [{ status: 'booked', page: '1', pageSize: '50' }],
+  'GET /api/owed': () => [{ page: '1', pageSize: '50' }],
+  'GET /api/photos': f => [{ visitId: f.ids.visitId! }],
+  'GET /api/profit': () => [{ from: FROM, to: TODAY, customerKind: 'homeowner' }],
+  'GET /api/purchases': f => [{ from: FROM, to: TODAY, jobId: f.ids.jobId! }],
+  'GET /api/vat-return': () => PERIODS,
+  'GET /api/visits': () => [{ from: `${TODAY}T00:00:00.000Z`, to: VISIT_AT, limit: '50' }],
+  'GET /exports/profit.csv': () => [{ from: FROM, to: TODAY, customerKind: 'homeowner' }],
+}
+const queryRoutes = () => listRoutes().filter(r => r.method === 'GET' && /readQueryWith|getValidatedQuery|getQuery\(|exportDownload\(/.test(routeSource(r)))
+const goodQueries = (route: Route, f: Firm) => GOOD_QUERIES[route.key]?.(f) ?? (route.pattern.startsWith('/exports/') ? PERIODS : [])
+
+/**
+ * A query string with one value replaced. A lone surrogate cannot be percent-encoded as UTF-8
+ * (encodeURIComponent throws): it goes as the bytes a careless encoder would send (CESU-8).
+ */
+function queryString(q: Record<string, string>) {
+  return `?${Object.entries(q).map(([k, v]) => `${k}=${[...v].map((ch) => {
+    const c = ch.charCodeAt(0)
+    if (ch.length === 1 && c >= 0xD800 && c <= 0xDFFF) return `%${(0xE0 | (c >> 12)).toString(16)}%${(0x80 | ((c >> 6) & 0x3F)).toString(16)}%${(0x80 | (c & 0x3F)).toString(16)}`.toUpperCase()
+    return encodeURIComponent(ch)
+  }).join('')}`).join('&')}`
+}
+
+/** A GET that never throws: a download cut off half-way is an answer of its own, not an exception. */
+async function getSafely(path: string): Promise<ApiResponse | { status: 'cut', body: string, headers: Headers }> {
+  requests++
+  try {
+    return await a.owner.client.get(path)
+  }
+  catch (err) {
+    return { status: 'cut', body: String((err as Error)?.cause ?? err), headers: new Headers() }
+  }
 }
 
 // --- the tests --------------------------------------------------------------------------------
@@ -193,6 +266,92 @@ describe('bad input', () => {
     const before = await snapshot([a.firmId, b.firmId])
     const wrong = await refusedEach(cases)
     const after = await snapshot([a.firmId, b.firmId])
+    expect.soft(wrong, `${wrong.length} of ${cases.length} answers`).toEqual([])
+    expect.soft(changedCounts(before, after), 'rows written by refused requests').toEqual([])
+  })
+
+  it('refuses a NUL, a lone surrogate, a date in the year 0000 or 9999 and a number of 2^53 or 1e308 in each field with a 4xx naming it, and writes nothing', async () => {
+    const cases: Case[] = []
+    for (const route of bodyRoutes) {
+      // opaque fields are walked into too: the body's reader refuses these values wherever they are
+      for (const { path, value } of nodes(GOOD_BODIES[route.key]!(a))) {
+        for (const h of hostile(value)) cases.push({ route, what: `${path.join('.')} ${h.what}`, body: changed(route, g => setAt(g, path, h.value)), path })
+      }
+    }
+    expect(cases.filter(c => c.what.includes('year 0000')).length).toBeGreaterThan(10)
+    expect(cases.filter(c => c.what.endsWith(' 1e+308')).length).toBeGreaterThan(20)
+
+    const before = await snapshot([a.firmId, b.firmId])
+    const pairs = new Set<string>()
+    const wrong = await refusedEach(cases, pairs)
+    const after = await snapshot([a.firmId, b.firmId])
+    console.info(`[bad-input] hostile values: ${cases.length} cases on ${bodyRoutes.length} routes, ${wrong.length} wrong, ${wrong.filter(w => /: 5\d\d /.test(w)).length} answered 5xx, on ${pairs.size} route/field pairs`)
+    expect.soft(wrong, `${wrong.length} of ${cases.length} answers`).toEqual([])
+    expect.soft(changedCounts(before, after), 'rows written by refused requests').toEqual([])
+  })
+
+  it('answers a body nested 100,000 deep (under the size limit) with a 400, and one with a NUL deep inside naming its path', async () => {
+    const route = bodyRoutes.find(r => r.key === 'POST /api/customers')!
+    const deep = `${'['.repeat(100_000)}"x"${']'.repeat(100_000)}`
+    expect(deep.length).toBeLessThan(256 * 1024)
+    const res = await send(route, deep)
+    expect(res.status, short(res)).toBe(400)
+    const nul = `{"customer":${'['.repeat(1000)}"x\\u0000"${']'.repeat(1000)}}`
+    const named = await send(route, nul)
+    expect(named.status, short(named)).toBe(400)
+    expect(Object.keys(named.body.data.fields)).toEqual([['customer', ...Array.from({ length: 1000 }, () => 0)].join('.')])
+  })
+
+  it('knows a good query for every GET route that reads one', () => {
+    const routes = queryRoutes()
+    expect(routes.length).toBeGreaterThan(15)
+    expect(routes.filter(r => goodQueries(r, a).length === 0).map(r => r.key), 'routes that read a query but have no known-good query').toEqual([])
+    expect(Object.keys(GOOD_QUERIES).filter(k => !routes.some(r => r.key === k)), 'good queries of no route').toEqual([])
+  })
+
+  it('answers the same hostile values in each query parameter of each GET route with a 4xx naming it, never a 5xx or a download cut short, and writes nothing', async () => {
+    const routes = queryRoutes()
+    // the good queries first: each answers 200 in full (and a first read has made whatever it makes)
+    const bad: string[] = []
+    for (const route of routes) {
+      for (const q of goodQueries(route, a)) {
+        const res = await getSafely(pathFor(route, a) + queryString(q))
+        if (res.status !== 200) bad.push(`${route.key}${queryString(q)}: ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`)
+      }
+    }
+    expect(bad, 'known-good queries').toEqual([])
+
+    const cases: { route: Route, what: string, path: string, param: string, mustRefuse: boolean }[] = []
+    for (const route of routes) {
+      for (const q of goodQueries(route, a)) {
+        for (const [param, good] of Object.entries(q)) {
+          // a number in a text parameter (a search for "1e308") is a fair question: only numeric parameters must refuse them
+          const values = [...hostile(good), ...(/^\d+$/.test(good) ? hostile(Number(good)) : [])]
+          for (const h of values) {
+            const mustRefuse = !h.what.includes('surrogate') // sent as bytes that decode to no surrogate: any answer but a 5xx
+            cases.push({ route, what: `${param} ${h.what}`, param, mustRefuse, path: pathFor(route, a) + queryString({ ...q, [param]: String(h.value) }) })
+          }
+        }
+      }
+    }
+    expect(cases.filter(c => c.route.pattern === '/exports/quarter.zip' && c.what.includes('year 0000')).length).toBeGreaterThan(0)
+
+    const before = await snapshot([a.firmId, b.firmId])
+    const wrong: string[] = []
+    const pairs = new Set<string>()
+    await pool(cases, CONCURRENCY, async (c) => {
+      const res = await getSafely(c.path)
+      const where = `${c.route.key} ${c.what}`
+      if (res.status === 'cut' || res.status >= 500) pairs.add(`${c.route.key} ${c.param}`)
+      if (res.status === 'cut') wrong.push(`${where}: the answer was cut off: ${res.body.slice(0, 200)}`)
+      else if (res.status >= 500) wrong.push(`${where}: ${short(res as ApiResponse)}`)
+      else if (c.mustRefuse && res.status < 400) wrong.push(`${where}: ${res.status}, not refused`)
+      else if (res.status >= 400 && !problemOf(res as ApiResponse)) wrong.push(`${where}: ${res.status} with no message`)
+      else if (res.status === 400 && !namesField(res as ApiResponse, [c.param])) wrong.push(`${where}: 400 not naming ${c.param}: ${short(res as ApiResponse)}`)
+    })
+    const after = await snapshot([a.firmId, b.firmId])
+    const broken = wrong.filter(w => / 5\d\d |cut off/.test(w))
+    console.info(`[bad-input] hostile queries: ${cases.length} cases on ${routes.length} routes, ${wrong.length} wrong, ${broken.length} a 5xx or cut off, on ${pairs.size} route/parameter pairs`)
     expect.soft(wrong, `${wrong.length} of ${cases.length} answers`).toEqual([])
     expect.soft(changedCounts(before, after), 'rows written by refused requests').toEqual([])
   })

@@ -7,7 +7,8 @@ import { DEFAULT_BANK_RATES, defaultDueDate, latePaymentClaim, referenceDate } f
 // of the 30 days beginning with the later date), s.4(2) (interest from the day after), s.5A (fixed
 // sum 40/70/100); SI 2002/1675 art. 4 (8% over the Bank Rate in force on the 31 December or 30 June
 // before interest starts, fixed for the debt); daily interest = debt x rate / 365 (DOMAIN.md).
-// Bank Rates in DEFAULT_BANK_RATES: DOMAIN.md's history (news reports). DOMAIN.md has no worked
+// Bank Rates in DEFAULT_BANK_RATES: DOMAIN.md, from memory of the Bank of England's history (check
+// against the Bank's published table before relying). DOMAIN.md has no worked
 // late-payment example, so the figures below are invented inputs with the arithmetic beside them.
 // Half-up rounding to the penny, once at the end, is our rule.
 
@@ -95,6 +96,71 @@ describe('latePaymentClaim on DEFAULT_BANK_RATES (DOMAIN.md Bank Rate history; S
   })
 })
 
+// Every reference day of SI 2002/1675 art. 4 (each 30 June and 31 December) from 30 June 2009 to
+// today: the default table must have a Bank Rate in force on each, or a claim starting in the half
+// year after it cannot be worked out.
+function referenceDaysSince2009(today = new Date().toISOString().slice(0, 10)): string[] {
+  const out: string[] = []
+  for (let y = 2009; `${y}-06-30` <= today; y++) {
+    out.push(`${y}-06-30`)
+    if (`${y}-12-31` <= today) out.push(`${y}-12-31`)
+  }
+  return out
+}
+/** The day after the reference day: the first day of interest that the reference day fixes the rate for. */
+const dayAfter = (iso: string) => new Date(Date.parse(`${iso}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10)
+/** A claim whose interest starts the day after `reference` (due on the reference day itself). */
+const claimFrom = (reference: string) => latePaymentClaim({ debtPence: 100_000, dueDate: reference, asOf: reference, bankRates: DEFAULT_BANK_RATES })
+
+describe('DEFAULT_BANK_RATES covers every reference day since 2009 (SI 2002/1675 art. 4)', () => {
+  it('lists the reference days it checks (SI 2002/1675 art. 4: 30 June and 31 December)', () => {
+    const days = referenceDaysSince2009('2026-12-04')
+    expect(days[0]).toBe('2009-06-30')
+    expect(days.at(-1)).toBe('2026-06-30')
+    expect(days).toHaveLength(35)
+  })
+
+  it.each(referenceDaysSince2009().map(d => [d, 'SI 2002/1675 art. 4']))('has a rate in force on %s (%s)', (reference) => {
+    expect(referenceDate(dayAfter(reference))).toBe(reference)
+    expect(() => claimFrom(reference)).not.toThrow()
+  })
+
+  it.each([
+    ['2009-06-30', 0.5, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.5% from 5 Mar 2009'],
+    ['2009-12-31', 0.5, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.5% from 5 Mar 2009'],
+    ['2016-06-30', 0.5, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.25% only from 4 Aug 2016'],
+    ['2016-12-31', 0.25, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.25% 4 Aug 2016'],
+    ['2017-12-31', 0.5, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.5% 2 Nov 2017'],
+    ['2018-12-31', 0.75, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.75% 2 Aug 2018'],
+    ['2020-06-30', 0.1, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.1% 19 Mar 2020'],
+    ['2020-12-31', 0.1, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.1% 19 Mar 2020'],
+    ['2021-12-31', 0.25, 'DOMAIN.md, from memory of the Bank of England\'s history: 0.25% 16 Dec 2021'],
+    ['2022-06-30', 1.25, 'DOMAIN.md, from memory of the Bank of England\'s history: 1.25% 16 Jun 2022'],
+    ['2022-12-31', 3.5, 'DOMAIN.md, from memory of the Bank of England\'s history: 3.5% 15 Dec 2022'],
+    ['2023-06-30', 5, 'DOMAIN.md, from memory of the Bank of England\'s history: 5% 22 Jun 2023'],
+    ['2023-12-31', 5.25, 'DOMAIN.md, from memory of the Bank of England\'s history: 5.25% 3 Aug 2023'],
+    ['2024-06-30', 5.25, 'DOMAIN.md, from memory of the Bank of England\'s history: "The reference rate on 30 June 2024 was therefore 5.25%"'],
+    ['2024-12-31', 4.75, 'DOMAIN.md, from memory of the Bank of England\'s history: 4.75% 7 Nov 2024'],
+    ['2025-06-30', 4.25, 'DOMAIN.md, from memory of the Bank of England\'s history: 4.25% 8 May 2025'],
+    ['2025-12-31', 3.75, 'DOMAIN.md, from memory of the Bank of England\'s history: 3.75% 18 Dec 2025'],
+  ])('Bank Rate on %s was %s%% (%s), so 8 points more for interest starting the day after (SI 2002/1675 art. 4)', (reference, bankRate) => {
+    expect(claimFrom(reference)).toMatchObject({ interestStart: dayAfter(reference), ratePercent: bankRate + 8 })
+  })
+
+  it('a claim whose interest starts in the second half of 2024 is worked out (it failed when the table began in August 2024)', () => {
+    // due 14 Aug 2024, interest from 15 Aug; 30 June 2024: 5.25% + 8% = 13.25%; 100,000 x 0.1325 x 30 / 365 = 1089.04 -> 1089
+    expect(latePaymentClaim({ debtPence: 100_000, dueDate: '2024-08-14', asOf: '2024-09-13', bankRates: DEFAULT_BANK_RATES }))
+      .toEqual({ interestStart: '2024-08-15', ratePercent: 13.25, days: 30, interestPence: 1_089, fixedSumPence: 7_000, totalPence: 108_089 })
+  })
+
+  it('has each change once, in date order, each a real date (our rule for the seed table)', () => {
+    const froms = DEFAULT_BANK_RATES.map(r => r.from)
+    expect([...froms].sort()).toEqual(froms)
+    expect(new Set(froms).size).toBe(froms.length)
+    expect(froms[0]! <= '2009-06-30').toBe(true)
+  })
+})
+
 describe('latePaymentClaim: overdue or not (Act s.4(2): interest runs from the day after the due date)', () => {
   const base = { debtPence: 240_000, dueDate: '2026-02-07', bankRates: DEFAULT_BANK_RATES }
   it.each([
@@ -165,7 +231,7 @@ describe('bad input is a RangeError naming the field (our rules)', () => {
     ['asOf missing', () => latePaymentClaim({ ...ok, asOf: undefined as unknown as string }), /asOf/],
     ['an empty bankRates table', () => latePaymentClaim({ ...ok, bankRates: [] }), /bankRates/],
     ['no rate in force on the reference day', () => latePaymentClaim({ ...ok, bankRates: [{ from: '2026-01-01', ratePercent: 3.75 }] }), /bankRates.*2025-12-31/],
-    ['DEFAULT_BANK_RATES has no rate for 30 June 2024 (DOMAIN.md gives no start for 5.25%)', () => latePaymentClaim({ ...ok, dueDate: '2024-08-15' }), /bankRates.*2024-06-30/],
+    ['a table that starts after the reference day has no rate for it', () => latePaymentClaim({ ...ok, dueDate: '2024-08-15', bankRates: [{ from: '2024-08-01', ratePercent: 5 }] }), /bankRates.*2024-06-30/],
     ['a bad date in bankRates', () => latePaymentClaim({ ...ok, bankRates: [{ from: '2025-02-30', ratePercent: 4 }] }), /bankRates\[0\]\.from/],
     ['a rate with 3 decimals', () => latePaymentClaim({ ...ok, bankRates: [{ from: '2025-01-01', ratePercent: 4.125 }] }), /bankRates\[0\]\.ratePercent/],
     ['a negative rate', () => latePaymentClaim({ ...ok, bankRates: [{ from: '2025-01-01', ratePercent: -0.5 }] }), /bankRates\[0\]\.ratePercent/],

@@ -1,9 +1,10 @@
 import { z } from 'zod'
 import { bankRates } from '../../db/schema'
+import { isoDate } from '#shared/schemas/common'
 
 const schema = z.object({
   rates: z.array(z.object({
-    fromDate: z.iso.date({ error: 'Pick the date the rate took effect.' }),
+    fromDate: isoDate('Pick the date the rate took effect.'),
     rateBp: z.int({ error: 'Enter the rate in hundredths of a percent (4.25% is 425).' }).min(0).max(2500, { error: 'Over 25%? Check the figure.' }),
   })).min(1, { error: 'Keep at least one rate.' }).max(200),
 }).superRefine((v, ctx) => {

@@ -1,7 +1,8 @@
 import { z } from 'zod'
+import { queryWholeNumber } from '#shared/schemas/common'
 
 const query = z.object({
-  pageSize: z.coerce.number({ error: 'A page size is a number.' }).int().min(1).max(200).default(50),
+  pageSize: queryWholeNumber('A page size', 1, 200, 50),
 })
 
 /** Invoices and credit notes, drafts first then newest, each with its status worked out from its payments and dates; the newest `pageSize`. */

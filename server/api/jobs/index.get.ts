@@ -2,11 +2,12 @@ import { and, desc, eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { customers, jobs, sites } from '../../db/schema'
 import { JOB_STATUSES } from '#shared/utils/jobs'
+import { queryWholeNumber } from '#shared/schemas/common'
 
 const query = z.object({
   status: z.enum(JOB_STATUSES, { error: 'Choose one of the job statuses.' }).optional(),
-  page: z.coerce.number({ error: 'A page is a number.' }).int().min(1).max(10_000).default(1),
-  pageSize: z.coerce.number({ error: 'A page size is a number.' }).int().min(1).max(200).default(50),
+  page: queryWholeNumber('A page', 1, 10_000, 1),
+  pageSize: queryWholeNumber('A page size', 1, 200, 50),
 })
 
 /**

@@ -1,11 +1,12 @@
 import { z } from 'zod'
 import { reminderRules } from '../../db/schema'
+import { text } from '#shared/schemas/common'
 
 const schema = z.object({
   rules: z.array(z.object({
     offsetDays: z.int({ error: 'Enter whole days.' }).min(-60, { error: 'At most 60 days before.' }).max(365, { error: 'At most a year after.' }),
-    subject: z.string().trim().min(1, { error: 'Write the subject.' }).max(200),
-    body: z.string().trim().min(1, { error: 'Write the message.' }).max(4000),
+    subject: text().trim().min(1, { error: 'Write the subject.' }).max(200),
+    body: text().trim().min(1, { error: 'Write the message.' }).max(4000),
   })).max(10, { error: 'At most 10 reminders.' }),
 }).superRefine((v, ctx) => {
   const seen = new Set<number>()

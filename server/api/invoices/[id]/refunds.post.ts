@@ -1,12 +1,12 @@
 import { eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { payments } from '../../../db/schema'
-import { idParam } from '#shared/schemas/common'
+import { idParam, text } from '#shared/schemas/common'
 
 const schema = z.object({
   paymentId: z.uuid({ error: 'Choose the payment to refund.' }),
   amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount to refund.' }).max(1_000_000_00),
-  reference: z.string().trim().max(200).default(''),
+  reference: text().trim().max(200).default(''),
   /** One per refund the person means to make (the form makes it): a repeat of the same request is one refund. */
   requestId: z.uuid({ error: 'That is not a request id.' }).optional(),
 })

@@ -1,8 +1,9 @@
 import { eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { quoteVersions } from '../../../../db/schema'
+import { text } from '#shared/schemas/common'
 
-const body = z.object({ name: z.string({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
+const body = z.object({ name: text({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
 
 const REVISED = 'The firm has revised this quote since it was sent, so this version can no longer be accepted. They will send you the new version; if it has not arrived, give them a ring.'
 

@@ -1,8 +1,9 @@
 import { eq, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { quoteVersions } from '../../../../db/schema'
+import { text } from '#shared/schemas/common'
 
-const body = z.object({ reason: z.string({ error: 'Tell the firm why, so they can do better.' }).trim().min(2, { error: 'Tell the firm why (a few words is fine).' }).max(1000) })
+const body = z.object({ reason: text({ error: 'Tell the firm why, so they can do better.' }).trim().min(2, { error: 'Tell the firm why (a few words is fine).' }).max(1000) })
 
 /** Public: the customer declines with a reason. Once only (409 after). */
 export default defineEventHandler(async (event) => {
