@@ -1,5 +1,5 @@
 // npm test: set up like npm start, but on a database of its own (fresh every run), then lint,
-// typecheck, build once, and run the vitest projects unit, api and e2e against the build.
+// typecheck, build once, and run the vitest projects unit, api, reliability and e2e against the build.
 // Local shortcuts: --no-checks (skip lint and typecheck), --no-build (reuse .output),
 // --project=unit (one project); anything after -- goes to vitest.
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs'
