@@ -43,7 +43,7 @@ export const profitQuerySchema = z.object({
 })
   .refine(q => q.from <= q.to, { path: ['to'], error: 'The last day is before the first.' })
   // counting both ends: 1 January to 31 December of a leap year is 366 days
-  .refine(q => q.from > q.to || daysBetween(q.from, q.to) + 1 <= PROFIT_MAX_DAYS, { path: ['to'], error: `Ask for at most ${PROFIT_MAX_DAYS} days at a time.` })
+  .refine(q => q.from > q.to || !(daysBetween(q.from, q.to) + 1 > PROFIT_MAX_DAYS), { path: ['to'], error: `Ask for at most ${PROFIT_MAX_DAYS} days at a time.` })
 export type ProfitQuery = z.output<typeof profitQuerySchema>
 
 /** Shown wherever the figures are (shared/utils/profit.ts gives the basis). */

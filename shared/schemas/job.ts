@@ -100,4 +100,4 @@ export const diaryQuery = z.object({
   from: pickDate,
   to: pickDate,
 }).refine(v => v.from <= v.to, { path: ['to'], error: 'The end is before the start.' })
-  .refine(v => daysBetween(v.from, v.to) <= 62, { path: ['to'], error: 'Ask for at most two months at a time.' })
+  .refine(v => !(daysBetween(v.from, v.to) > 62), { path: ['to'], error: 'Ask for at most two months at a time.' })

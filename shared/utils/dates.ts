@@ -109,7 +109,10 @@ export function addMonths(isoDate: string, months: number): string {
   return isoOfUtc(dfAddMonths(date, months, { in: inUtc }), `${isoDate} plus ${months} months`)
 }
 
-/** Whole calendar days from a to b (b - a); NaN when either is not a date (so a schema's refine can run before the shape is checked). */
+/**
+ * Whole calendar days from a to b (b - a); NaN when either is not a real date, so a schema's
+ * length check written `!(daysBetween(from, to) > max)` passes and leaves the bad field to its own message.
+ */
 export function daysBetween(a: string, b: string): number {
   if (!isIsoDate(a) || !isIsoDate(b)) return Number.NaN
   return differenceInCalendarDays(isoDay(b), isoDay(a), { in: inUtc })
