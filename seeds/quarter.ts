@@ -6,7 +6,7 @@
 // people and streets, for the demo only.
 import { randomUUID } from 'node:crypto'
 import * as schema from '../server/db/schema'
-import { addDays } from '../shared/utils/jobs'
+import { addDays, londonToday } from '../shared/utils/dates'
 import { cisTaxMonth, vatQuarter } from '../shared/utils/periods'
 import { invoiceTotals } from '../shared/utils/tax'
 import type { Tx } from './visit'
@@ -14,7 +14,7 @@ import type { Tx } from './visit'
 type Line = { kind: 'labour' | 'materials', description: string, quantityX1000: number, unit: string, unitPence: number, vatRatePercent: number }
 type People = { ownerId: string, officeId: string, crewId: string }
 
-const todayIso = () => new Date().toISOString().slice(0, 10)
+const todayIso = () => londonToday()
 
 /** The VAT quarter (stagger 1, the demo firm's) before today's: where the demo quarter happens. */
 export function demoQuarter(today = todayIso()) {

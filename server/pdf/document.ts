@@ -2,6 +2,7 @@
 // an A4 pdfkit document in the app's own fonts (server/pdf/fonts.ts, any Latin script through
 // server/pdf/text.ts), the firm's heading with the document's particulars, the lines table, the
 // totals with the VAT, reverse-charge and CIS wording, a footer on every page, and the download.
+import { isIsoDate, longDate } from '#shared/utils/dates'
 import PDFDocument from 'pdfkit'
 import type { H3Event } from 'h3'
 import { formatPence } from '#shared/utils/money'
@@ -14,13 +15,12 @@ export const RULE = '#cbd2d9'
 export const GREEN = '#1d6b3a'
 export const AMBER = '#7a4b00'
 
-const ukDate = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'Europe/London' })
-
 /** '2026-12-31' or a Date as '31 December 2026'. */
 export function formatUkDate(value: Date | string | null | undefined): string {
   if (!value) return ''
-  const d = typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value) ? new Date(`${value}T12:00:00Z`) : new Date(value)
-  return Number.isNaN(d.getTime()) ? String(value) : ukDate.format(d)
+  if (typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value)) return isIsoDate(value) ? longDate(value) : String(value)
+  const d = new Date(value)
+  return Number.isNaN(d.getTime()) ? String(value) : longDate(d)
 }
 
 /** Thousandths of a unit: 3000 bags -> '3', 12000 m² -> '12.00', 8400 -> '8.40', 12345 -> '12.345'. */

@@ -3,11 +3,13 @@
 import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
 import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users, type InvoiceParties } from '../db/schema'
 import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
+import { londonToday } from '#shared/utils/dates'
 import { invoiceTotals, lineNetPence } from '#shared/utils/tax'
 
 export type InvoiceRow = typeof invoices.$inferSelect
 
-export const todayIso = () => new Date().toISOString().slice(0, 10)
+/** Today in Britain (not UTC's day: half past midnight in summer is already the next day). */
+export const todayIso = (now = new Date()) => londonToday(now)
 
 export async function findInvoice(f: FirmScope, id: string, lock = false) {
   const q = f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, id)))

@@ -3,7 +3,8 @@
 // worked out from the visit's rooms (shared/utils/set-plan.ts).
 import { and, asc, eq, exists, inArray, max, sql } from 'drizzle-orm'
 import { customers, firms, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, setLogs, sites, users } from '../db/schema'
-import { canMoveJob, daysWorked, JOB_STATUS_LABELS, londonDay, materialsAgainstEstimate, READY_CAUTION, roomReadyToDecorate, safePlanOptions, skimCoverageM2, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
+import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, READY_CAUTION, roomReadyToDecorate, safePlanOptions, skimCoverageM2, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
+import { londonDay } from '#shared/utils/dates'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
 import { checkPlan, planSets } from '#shared/utils/set-plan'
 import { applyMoves } from '#shared/utils/plan-moves'

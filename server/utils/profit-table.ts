@@ -28,11 +28,10 @@ import { jobProfit } from '#shared/utils/profit'
 import type { JobStatus } from '#shared/utils/jobs'
 import { poundsCell, toCsv, type CsvCell } from '#shared/utils/csv'
 import { isoDate } from '#shared/schemas/common'
+import { daysBetween } from '#shared/utils/dates'
 
 /** The longest period one request may ask for, counting both ends. */
 export const PROFIT_MAX_DAYS = 366
-
-const DAY_MS = 86_400_000
 
 /** The query of the profit table and its CSV: a period of at most 366 days, and optionally one kind of customer. */
 export const profitQuerySchema = z.object({
@@ -44,7 +43,7 @@ export const profitQuerySchema = z.object({
 })
   .refine(q => q.from <= q.to, { path: ['to'], error: 'The last day is before the first.' })
   // counting both ends: 1 January to 31 December of a leap year is 366 days
-  .refine(q => q.from > q.to || (Date.parse(q.to) - Date.parse(q.from)) / DAY_MS + 1 <= PROFIT_MAX_DAYS, { path: ['to'], error: `Ask for at most ${PROFIT_MAX_DAYS} days at a time.` })
+  .refine(q => q.from > q.to || !(daysBetween(q.from, q.to) + 1 > PROFIT_MAX_DAYS), { path: ['to'], error: `Ask for at most ${PROFIT_MAX_DAYS} days at a time.` })
 export type ProfitQuery = z.output<typeof profitQuerySchema>
 
 /** Shown wherever the figures are (shared/utils/profit.ts gives the basis). */

@@ -9,6 +9,7 @@ import { and, eq, gt, isNull, lt, sql } from 'drizzle-orm'
 import { firms, memberships, pendingSignUps, users } from '../db/schema'
 import { addFirmDefaults } from '../db/firm-defaults'
 import type { SignUpInput } from '#shared/schemas/auth'
+import { daysBefore } from '#shared/utils/dates'
 
 export const SIGN_UP_LINK_HOURS = 24
 /** Sign-up e-mails to one address in an hour: beyond this nothing is sent (the answer is the same). */
@@ -61,7 +62,7 @@ export async function requestSignUp(event: H3Event, input: SignUpInput) {
     return
   }
   const token = newToken()
-  await db.delete(pendingSignUps).where(lt(pendingSignUps.expiresAt, new Date(Date.now() - 7 * 86_400_000)))
+  await db.delete(pendingSignUps).where(lt(pendingSignUps.expiresAt, daysBefore(new Date(), 7)))
   await db.insert(pendingSignUps).values({
     email: input.email, name: input.name, firmName: input.firmName, passwordHash,
     tokenHash: hashToken(token), expiresAt: new Date(Date.now() + SIGN_UP_LINK_HOURS * 3600_000),

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { addDays } from '../utils/dates'
 import { passwordProblem } from '../utils/password'
 
 // Every schema in shared/schemas and server/ builds its text and dates from here, so no route can
@@ -80,7 +81,7 @@ export const text = (params?: { error?: string }) => z.string(params).refine(s =
 
 const DATE_SHAPE = /^\d{4}-\d{2}-\d{2}/
 const FIRST_MS = Date.parse(`${FIRST_DAY}T00:00:00Z`)
-const AFTER_LAST_MS = Date.parse(`${LAST_DAY}T00:00:00Z`) + 86_400_000
+const AFTER_LAST_MS = Date.parse(`${addDays(LAST_DAY, 1)}T00:00:00Z`)
 
 /** A calendar date, YYYY-MM-DD, from 1900 to 2100. */
 export const isoDate = (error = 'Pick a date (YYYY-MM-DD).') => z.iso.date({ error })

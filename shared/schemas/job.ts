@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { isoDate, isoDateTime, text, whenObject } from './common'
+import { daysBetween } from '../utils/dates'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 
 const pickDate = isoDate('Pick a date.')
@@ -99,4 +100,4 @@ export const diaryQuery = z.object({
   from: pickDate,
   to: pickDate,
 }).refine(v => v.from <= v.to, { path: ['to'], error: 'The end is before the start.' })
-  .refine(v => (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 <= 62, { path: ['to'], error: 'Ask for at most two months at a time.' })
+  .refine(v => !(daysBetween(v.from, v.to) > 62), { path: ['to'], error: 'Ask for at most two months at a time.' })

@@ -1,6 +1,7 @@
 // Inputs of the quarter's summaries and exports: a period (a VAT quarter by any date in it, or
 // from and to), and a contractor's CIS statement.
 import { z } from 'zod'
+import { daysBetween } from '../utils/dates'
 import { isoDate, text, whenObject } from './common'
 
 const pickDate = isoDate('Pick a date.')
@@ -15,7 +16,7 @@ export const periodQuery = z.object({
   .refine(v => Boolean(v.quarterOf) !== Boolean(v.from || v.to), { path: ['quarterOf'], error: 'Pick a VAT quarter, or a from and to date.', when: whenObject })
   .refine(v => !(v.from || v.to) || Boolean(v.from && v.to), { path: ['to'], error: 'Pick both dates.', when: whenObject })
   .refine(v => !(v.from && v.to) || v.from <= v.to, { path: ['to'], error: 'The end is before the start.', when: whenObject })
-  .refine(v => !(v.from && v.to) || (Date.parse(v.to) - Date.parse(v.from)) / 86_400_000 < MAX_DAYS, { path: ['to'], error: 'Pick at most a year at a time.', when: whenObject })
+  .refine(v => !(v.from && v.to) || !(daysBetween(v.from, v.to) >= MAX_DAYS), { path: ['to'], error: 'Pick at most a year at a time.', when: whenObject })
 export type PeriodQuery = z.infer<typeof periodQuery>
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(10_000_000_00, { error: `${what} looks too high.` })

@@ -11,6 +11,7 @@
 // Figures (a planning rule of thumb of our own, from memory): a set of finish plaster goes off in
 // about 1.5 to 2 hours (common practice, DOMAIN.md), so with mixing and cleaning down about three
 // sets fit in a working day and one in a half day. The plasterer decides on the day.
+import { dayAndMonth } from './dates'
 import type { DayPortion } from './jobs'
 
 /** Sets in a full working day (from memory: three sets of 1.5 to 2 hours with mixing and cleaning down). */
@@ -28,8 +29,7 @@ export interface PlanDay { day: string, people: DayPerson[], sets: DaySetPlan[] 
 export interface DayPlan { days: PlanDay[], unplaced: number[], warnings: string[] }
 
 const ISO = /^\d{4}-\d{2}-\d{2}$/
-const dayWords = new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', timeZone: 'UTC' })
-const showDay = (d: string) => dayWords.format(new Date(`${d}T00:00:00Z`))
+const showDay = (d: string) => dayAndMonth(d)
 const tenths = (bags: number) => Math.round(bags * 10)
 const people = (n: number) => (n === 1 ? '1 person' : `${n} people`)
 

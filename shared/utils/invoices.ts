@@ -1,6 +1,7 @@
 // The words and arithmetic of invoices: kinds, payment methods, the status that follows from an
 // invoice's payments and dates (never set by hand), aged debts, and the lines of a deposit, a
 // stage or the final invoice worked out from the job's price. Pure; money in integer pence.
+import { addDays, daysBetween } from './dates'
 
 export const INVOICE_KINDS = ['deposit', 'stage', 'final', 'blank', 'credit-note'] as const
 export type InvoiceKind = (typeof INVOICE_KINDS)[number]
@@ -66,11 +67,6 @@ export const AGE_BUCKETS = ['not-due', '1-30', '31-60', '61-90', 'over-90'] as c
 export type AgeBucket = (typeof AGE_BUCKETS)[number]
 export const AGE_BUCKET_LABELS: Record<AgeBucket, string> = { 'not-due': 'Not yet due', '1-30': '1–30 days', '31-60': '31–60 days', '61-90': '61–90 days', 'over-90': 'Over 90 days' }
 
-/** Whole calendar days from a to b (b - a). */
-export function daysBetween(a: string, b: string): number {
-  return Math.round((Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / 86_400_000)
-}
-
 /** Which age a debt is, by the days since its due date. */
 export function ageBucket(dueOn: string, today: string): AgeBucket {
   const late = daysBetween(dueOn, today)
@@ -98,9 +94,7 @@ export function prefixesClash(a: string, b: string): boolean {
 
 /** The due date: issued on + the firm's payment terms (days). */
 export function dueDateFor(issuedOn: string, termsDays: number): string {
-  const d = new Date(`${issuedOn}T00:00:00Z`)
-  d.setUTCDate(d.getUTCDate() + termsDays)
-  return d.toISOString().slice(0, 10)
+  return addDays(issuedOn, termsDays)
 }
 
 // ---------------------------------------------------------------------------------------------

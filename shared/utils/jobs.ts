@@ -1,6 +1,7 @@
 // The words and the arithmetic of a job: its statuses and moves, the days booked and worked,
 // materials used against the estimate, and the "ready to decorate from" date. Pure.
 import { JOB_CAUTIONS } from './cautions'
+import { addDays } from './dates'
 
 export const JOB_STATUSES = ['booked', 'in-progress', 'finished', 'invoiced', 'paid', 'cancelled'] as const
 export type JobStatus = (typeof JOB_STATUSES)[number]
@@ -140,31 +141,6 @@ export interface DryingRules {
 export const DEFAULT_DRYING: DryingRules = { skimDays: 7, undercoatDays: 14, coldOrDampExtraDays: 7 }
 
 export const READY_CAUTION: string = JOB_CAUTIONS.drying
-
-const LONDON_DAY = new Intl.DateTimeFormat('en-GB', { timeZone: 'Europe/London', year: 'numeric', month: '2-digit', day: '2-digit' })
-
-/** The calendar day of an instant in Britain (Europe/London, so BST in summer), as YYYY-MM-DD. Throws for an invalid date. */
-export function londonDay(at: Date): string {
-  if (!(at instanceof Date) || Number.isNaN(at.getTime())) throw new RangeError(`not a date: ${String(at)}`)
-  const parts = Object.fromEntries(LONDON_DAY.formatToParts(at).map(p => [p.type, p.value]))
-  return `${parts.year}-${parts.month}-${parts.day}`
-}
-
-/** An ISO date plus whole days (calendar days, no time zone shifts). Throws for a date that is not a real one or days that are not whole. */
-export function addDays(isoDate: string, days: number): string {
-  const m = typeof isoDate === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(isoDate) : null
-  if (!m) throw new RangeError(`not an ISO date: ${String(isoDate)}`)
-  if (!Number.isSafeInteger(days)) throw new RangeError(`days must be a whole number, got ${String(days)}`)
-  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])]
-  // setUTCFullYear, not Date.UTC, which reads years 0 to 99 as 1900 to 1999
-  const date = new Date(0)
-  date.setUTCFullYear(y, mo - 1, d)
-  if (date.getUTCFullYear() !== y || date.getUTCMonth() !== mo - 1 || date.getUTCDate() !== d) throw new RangeError(`not a real date: ${isoDate}`)
-  date.setUTCDate(date.getUTCDate() + days)
-  const out = Number.isNaN(date.getTime()) ? '' : date.toISOString().slice(0, 10)
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(out)) throw new RangeError(`${isoDate} plus ${days} days is outside the years 0000 to 9999`)
-  return out
-}
 
 /**
  * The date a room can be decorated from: the latest of, for each coat logged in it, the day it

@@ -24,6 +24,7 @@
 // (no interest, no fixed sum). Out of scope: agreed payment dates (pass the agreed date as
 // `dueDate`; the Act's caps on long agreed terms are not applied), part payments, public-authority
 // purchasers and recovery costs beyond the fixed sum (s.5A(2A)).
+import { dayNumber, isoFromDayNumber } from './dates'
 
 export interface BankRateChange { from: string, ratePercent: number } // ISO date the rate took effect
 
@@ -81,27 +82,7 @@ export const DEFAULT_BANK_RATES: BankRateChange[] = [
   { from: '2025-12-18', ratePercent: 3.75 }, // DOMAIN.md, from memory: "3.75% 18 Dec 2025"
 ]
 
-const MS_PER_DAY = 86_400_000
 const STATUTORY_MARGIN_HUNDREDTHS = 800 // the 8% of SI 2002/1675 art. 4
-
-/** An ISO date as days since 1970-01-01; RangeError naming the field when it is not a real YYYY-MM-DD date. */
-function dayNumber(iso: unknown, field: string): number {
-  const m = typeof iso === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso) : null
-  if (!m) throw new RangeError(`${field} must be an ISO date (YYYY-MM-DD), got ${String(iso)}`)
-  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])]
-  // setUTCFullYear, not Date.UTC, which reads years 0 to 99 as 1900 to 1999
-  const date = new Date(0)
-  date.setUTCFullYear(y, mo - 1, d)
-  if (date.getUTCFullYear() !== y || date.getUTCMonth() !== mo - 1 || date.getUTCDate() !== d) throw new RangeError(`${field} is not a real date: ${iso as string}`)
-  return date.getTime() / MS_PER_DAY
-}
-
-function isoFromDayNumber(n: number, field: string): string {
-  const date = new Date(n * MS_PER_DAY)
-  const out = Number.isNaN(date.getTime()) ? '' : date.toISOString().slice(0, 10)
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(out)) throw new RangeError(`${field} falls outside the years 0000 to 9999`)
-  return out
-}
 
 /** The last day of the 30 days beginning with the later of the two dates (Act s.4(5) as enacted): the later date + 29 days. */
 export function defaultDueDate(workDone: string, invoiceReceived: string): string {

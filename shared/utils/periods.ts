@@ -23,6 +23,7 @@
 //
 // Dates are ISO YYYY-MM-DD strings, worked as UTC calendar dates (no time zone, no time of day).
 // A string that is not a real date is a RangeError naming the field.
+import { daysInMonth, isoDay } from './dates'
 
 export interface VatQuarter { start: string, end: string, returnDue: string }
 export interface CisTaxMonth { start: string, end: string, returnDue: string, paymentDue: string }
@@ -33,17 +34,8 @@ interface Ymd { y: number, m: number, d: number } // m is 1 to 12
 function parseIso(iso: unknown, field: string): Ymd {
   const match = typeof iso === 'string' ? /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso) : null
   if (!match) throw new RangeError(`${field} must be an ISO date (YYYY-MM-DD), got ${String(iso)}`)
-  const [y, m, d] = [Number(match[1]), Number(match[2]), Number(match[3])]
-  if (m < 1 || m > 12 || d < 1 || d > daysInMonth(y, m)) throw new RangeError(`${field} is not a real date: ${iso as string}`)
-  return { y, m, d }
-}
-
-/** Days in month m (1 to 12) of year y, from the UTC calendar (day 0 of the next month). */
-function daysInMonth(y: number, m: number): number {
-  const date = new Date(0)
-  // setUTCFullYear, not Date.UTC, which reads years 0 to 99 as 1900 to 1999
-  date.setUTCFullYear(y, m, 0)
-  return date.getUTCDate()
+  isoDay(iso, field) // RangeError naming the field for 31 April, 29 February 2027, month 13...
+  return { y: Number(match[1]), m: Number(match[2]), d: Number(match[3]) }
 }
 
 /** The month `months` after (or before, when negative) month m of year y. */

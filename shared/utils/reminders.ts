@@ -1,6 +1,6 @@
 // Payment reminders: the schedule a firm starts with (days from the due date; negative is before
 // it), the words, and which step of the schedule an invoice has reached. Pure.
-import { addDays } from './jobs'
+import { addDays } from './dates'
 
 export interface ReminderRule { offsetDays: number, subject: string, body: string }
 

@@ -3,6 +3,7 @@ import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { londonToday } from '../../shared/utils/dates'
 import { latePaymentClaim } from '../../shared/utils/late-payment'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
@@ -213,7 +214,7 @@ describe('the statutory claim', () => {
     const res = await owner.get(`/api/invoices/${invoice.id}/claim`)
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     const rates = (await owner.get('/api/bank-rates')).body.map((r: any) => ({ from: r.fromDate, ratePercent: r.rateBp / 100 }))
-    const today = new Date().toISOString().slice(0, 10)
+    const today = londonToday() // the server's today (the claim is worked out to it)
     expect(res.body).toMatchObject(latePaymentClaim({ debtPence: 2_400_00, dueDate: '2026-10-01', asOf: today, bankRates: rates }))
     // £2,400 is under £10,000: a fixed sum of £70 (Act s.5A); interest starts the day after the due date
     expect(res.body).toMatchObject({ interestStart: '2026-10-02', fixedSumPence: 70_00 })

@@ -5,7 +5,7 @@ import { readFile } from 'node:fs/promises'
 import { describe, expect, it } from 'vitest'
 import { GOOD_PASSWORD, signUpFirm, uniqueEmail, type Client } from '../support/client'
 import { expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
-import { addDays } from '#shared/utils/jobs'
+import { addDays } from '#shared/utils/dates'
 
 const e2e = useE2E()
 

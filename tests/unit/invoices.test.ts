@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import type { AgeBucket, DraftInvoiceLine, InvoiceStatus, JobPrice, StatusInput } from '../../shared/utils/invoices'
-import { ageBucket, daysBetween, dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, prefixesClash } from '../../shared/utils/invoices'
+import { daysBetween } from '../../shared/utils/dates'
+import { ageBucket, dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, prefixesClash } from '../../shared/utils/invoices'
 
 // Sources (../shared/DOMAIN.md). CIS is deducted from the labour part only, so an invoice's labour
 // net must stay apart from its materials ("Money rules", CIS: gov.uk "What you must do as a CIS

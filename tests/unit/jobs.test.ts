@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import type { DayPortion, DryingRules, EstimatedMaterial, JobStatus, LogCoat, MaterialComparison, MaterialUse, PlanTasks, RoomLog } from '../../shared/utils/jobs'
-import { addDays, canMoveJob, DEFAULT_DRYING, daysWorked, halfDaysWords, JOB_STATUSES, londonDay, materialsAgainstEstimate, packCostPence, READY_CAUTION, readyToDecorateFrom, roomReadyToDecorate, safePlanOptions, skimCoverageM2 } from '../../shared/utils/jobs'
+import { addDays, londonDay } from '../../shared/utils/dates'
+import { canMoveJob, DEFAULT_DRYING, daysWorked, halfDaysWords, JOB_STATUSES, materialsAgainstEstimate, packCostPence, READY_CAUTION, readyToDecorateFrom, roomReadyToDecorate, safePlanOptions, skimCoverageM2 } from '../../shared/utils/jobs'
 
 // Sources. The statuses, their moves, half days, pack costs and the materials comparison are our
 // product's own rules (shared/utils/jobs.ts), not trade figures. Drying before decorating

@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { firms, quotes, quoteVersions } from '../../db/schema'
 import { newQuoteSchema } from '#shared/schemas/quote'
+import { addDays, londonToday } from '#shared/utils/dates'
 
 /**
  * Start a quote for a customer (and a site, an enquiry, a measured visit). Version 1 is a draft
@@ -24,7 +25,7 @@ export default defineEventHandler(async (event) => {
     const [firm] = await f.tx.select({ vatRegistered: firms.vatRegistered, paymentTermsDays: firms.paymentTermsDays }).from(firms).where(eq(firms.id, f.firmId))
     const number = await nextQuoteNumber(f)
     const [quote] = await f.tx.insert(quotes).values(f.values({ number, customerId: customer.id, siteId: input.siteId, enquiryId: input.enquiryId, visitId: input.visitId })).returning()
-    const validUntil = new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10)
+    const validUntil = addDays(londonToday(), 30)
     const draft = input.visitId ? await draftFromVisit(f, input.visitId) : { lines: [], rules: {}, estimatedDaysX100: 0, cautions: [] as string[], roomEstimates: [] }
     const [version] = await f.tx.insert(quoteVersions).values(f.values({
       quoteId: quote!.id,
