@@ -15,10 +15,10 @@ import busboy from 'busboy'
 import { and, asc, eq, getTableColumns } from 'drizzle-orm'
 import { fileTypeFromBuffer } from 'file-type'
 import sharp from 'sharp'
-import { z } from 'zod'
 import { conditions, enquiries, photos, rooms, setLogPhotos, setLogs, surfaces, visits } from '../db/schema'
 import type { FirmScope } from './db'
-import { fieldErrors, text } from '#shared/schemas/common'
+import { fieldErrors } from '#shared/schemas/common'
+import { PHOTO_TARGET_KEYS, photoUploadSchema, type PhotoTarget, type PhotoTargetKey } from '#shared/schemas/photo'
 
 export const DEFAULT_UPLOAD_MAX_BYTES = 15 * 1024 * 1024
 /** Room for the multipart boundaries, part headers and the small text fields beside the file. */
@@ -294,39 +294,6 @@ export function cleanFilename(name: string): string {
 // ---------------------------------------------------------------------------------------------
 // Photos: what they attach to, and how a row is answered
 
-export const PHOTO_TARGET_KEYS = ['enquiryId', 'visitId', 'surfaceId', 'conditionId', 'setLogId'] as const
-export type PhotoTargetKey = (typeof PHOTO_TARGET_KEYS)[number]
-export type PhotoTarget = Partial<Record<PhotoTargetKey, string>>
-
-const optionalId = z.preprocess(
-  v => (v === '' ? undefined : v),
-  z.uuid({ error: 'That is not an id from Setwell.' }).optional(),
-)
-
-const targetShape = {
-  enquiryId: optionalId,
-  visitId: optionalId,
-  surfaceId: optionalId,
-  conditionId: optionalId,
-  setLogId: optionalId,
-}
-
-function exactlyOneTarget(value: PhotoTarget, ctx: z.RefinementCtx) {
-  const named = PHOTO_TARGET_KEYS.filter(k => value[k])
-  if (named.length !== 1) {
-    ctx.addIssue({ code: 'custom', path: ['target'], message: 'Say what the photo belongs to: one enquiry, visit, surface, condition or logged set.' })
-  }
-}
-
-/** The target (exactly one id) and caption of an upload, from its query or form fields. */
-export const photoUploadSchema = z.object({
-  ...targetShape,
-  caption: text().trim().max(500, { error: 'Keep the caption under 500 characters.' }).default(''),
-}).superRefine(exactlyOneTarget)
-
-/** The list route's filter: exactly one of the ids. */
-export const photoListQuery = z.object(targetShape).superRefine(exactlyOneTarget)
-
 /** The upload's inputs, query string and form fields together; the same name twice with two values is a 400. */
 export function mergeUploadInputs(query: Record<string, unknown>, fields: Record<string, string>) {
   const merged: Record<string, unknown> = {}
@@ -439,8 +406,7 @@ export type PhotoJson = ReturnType<typeof photoJson>
 
 /** One photo of this firm, or 404 (another firm's id and a missing one alike). */
 export async function findPhoto(f: FirmScope, auth: FirmContext, id: string): Promise<PhotoRow> {
-  const [row] = await f.tx.select().from(photos).where(f.where(photos, eq(photos.id, id)))
-  if (!row) notFound()
+  const row = await findOr404(f, photos, id)
   await assertPhotoAccess(f, auth, { ...row, setLogId: row.enquiryId || row.visitId ? null : await photoSetLog(f, row.id) })
   return row
 }

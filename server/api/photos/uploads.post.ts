@@ -1,4 +1,5 @@
 import { photos, setLogPhotos } from '../../db/schema'
+import { PHOTO_TARGET_KEYS, photoListQuery } from '#shared/schemas/photo'
 
 /**
  * Upload one photo: multipart/form-data with the picture in `file`, what it belongs to in exactly

@@ -1,9 +1,7 @@
 import type Stripe from 'stripe'
 import { and, eq, lt, sql } from 'drizzle-orm'
-import { z } from 'zod'
 import { customers, firms, invoices, payments, stripeEvents } from '../../db/schema'
-
-const metadataSchema = z.object({ firmId: z.uuid(), invoiceId: z.uuid() })
+import { stripePaymentMetadataSchema } from '#shared/schemas/invoice'
 
 /**
  * Stripe's webhook. The raw body is checked against the Stripe-Signature header (400 otherwise,
@@ -25,7 +23,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 400, statusMessage: 'Bad signature' })
   }
   const obj = evt.data.object as unknown as { metadata?: Record<string, string> }
-  const meta = metadataSchema.safeParse(obj.metadata ?? {})
+  const meta = stripePaymentMetadataSchema.safeParse(obj.metadata ?? {})
   if (!meta.success) return { received: true, outcome: 'not ours' }
   const { firmId, invoiceId } = meta.data
 
