@@ -1,6 +1,6 @@
 // Documents: a purchase's receipt, or a contractor's CIS statement, as a photo or a PDF. They come
 // in through the same streamed, size-limited multipart reader as site photos
-// (server/utils/uploads.ts) and are sniffed by their bytes, never their name. Photos are re-encoded
+// (server/utils/multipart.ts) and are sniffed by their bytes, never their name. Photos are re-encoded
 // without metadata like site photos; a PDF is kept as sent (the accountant needs the original) and
 // only ever served as a download, sandboxed, never shown inline.
 import { asc, eq } from 'drizzle-orm'
@@ -8,7 +8,8 @@ import { fileTypeFromBuffer } from 'file-type'
 import { cisStatements, documents, purchases } from '../db/schema'
 import type { FirmScope } from './db'
 import type { DocumentTarget } from '#shared/schemas/photo'
-import { PHOTO_TYPES, type PhotoType, type UploadedFile } from './uploads'
+import { PHOTO_TYPES, type PhotoType } from './images'
+import type { UploadedFile } from './multipart'
 
 export function notADocument(detail = 'That file is not a receipt Setwell can keep. Send a PDF, or a JPEG, PNG, WebP or HEIC photo.') {
   return fieldError({ file: detail }, 415, 'Unsupported file type')

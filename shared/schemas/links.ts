@@ -1,7 +1,7 @@
 import { z } from 'zod'
 
 // The secrets in customers' and people's links, matched whole by a strict pattern: a wrong one
-// (a NUL, anything else) fails it and the route answers 404. Raw z.string() is allowed here only
+// (a NUL, anything else) fails it and the route answers 404. A raw string schema is allowed here only
 // (tests/unit/schema-fields.test.ts names these lines).
 
 /** A public enquiry form's key (/f/<key>). */
