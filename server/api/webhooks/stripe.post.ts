@@ -1,5 +1,5 @@
 import type Stripe from 'stripe'
-import { and, eq, lt, sql } from 'drizzle-orm'
+import { eq, lt, sql } from 'drizzle-orm'
 import { customers, firms, invoices, payments, stripeEvents } from '../../db/schema'
 import { stripePaymentMetadataSchema } from '#shared/schemas/invoice'
 
@@ -33,7 +33,7 @@ export default defineEventHandler(async (event) => {
     if (!firm) return 'not ours'
     const [fresh] = await f.tx.insert(stripeEvents).values({ firmId, eventId: evt.id, type: evt.type }).onConflictDoNothing().returning()
     if (!fresh) return 'duplicate'
-    const done = (o: string) => f.tx.update(stripeEvents).set({ outcome: o }).where(and(eq(stripeEvents.firmId, firmId), eq(stripeEvents.eventId, evt.id))).then(() => o)
+    const done = (o: string) => f.tx.update(stripeEvents).set({ outcome: o }).where(f.where(stripeEvents, eq(stripeEvents.eventId, evt.id))).then(() => o)
     const [inv] = await f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, invoiceId))).for('update')
     if (!inv || !inv.issuedOn) return done('no such invoice')
 
