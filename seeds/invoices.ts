@@ -5,6 +5,7 @@
 import { randomUUID } from 'node:crypto'
 import * as schema from '../server/db/schema'
 import { partLines } from '../shared/utils/invoices'
+import { invoiceReference } from '../shared/utils/references'
 import { invoiceTotals } from '../shared/utils/tax'
 import type { Tx } from './visit'
 
@@ -20,7 +21,7 @@ async function invoice(tx: Tx, o: { firmId: string, number: number, prefix: stri
   const totals = invoiceTotals(o.lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent as 0 | 5 | 20 })), { vat: o.vat, cisRatePercent: o.cis })
   const id = randomUUID()
   await tx.insert(schema.invoices).values({
-    firmId: o.firmId, id, kind: o.kind, series: 'invoice', number: o.number, reference: `${o.prefix}${String(o.number).padStart(4, '0')}`,
+    firmId: o.firmId, id, kind: o.kind, series: 'invoice', number: o.number, reference: invoiceReference(o.prefix, o.number),
     customerId: o.customerId, siteId: o.siteId, jobId: o.jobId, vat: o.vat, cisRatePercent: o.cis,
     issuedOn: day(o.issued), dueOn: day(o.issued + o.termsDays), totals: { ...totals }, amountDuePence: totals.amountDuePence, createdBy: o.by,
   })

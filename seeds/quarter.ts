@@ -8,6 +8,7 @@ import { randomUUID } from 'node:crypto'
 import * as schema from '../server/db/schema'
 import { addDays, londonToday } from '../shared/utils/dates'
 import { cisTaxMonth, vatQuarter } from '../shared/utils/periods'
+import { invoiceReference, jobReference } from '../shared/utils/references'
 import { invoiceTotals } from '../shared/utils/tax'
 import type { Tx } from './visit'
 
@@ -76,11 +77,11 @@ export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, t
     const id = randomUUID()
     const n = ++invoiceNumber
     await tx.insert(schema.invoices).values({
-      firmId, id, kind: 'final', series: 'invoice', number: n, reference: `${o.prefix}${String(n).padStart(4, '0')}`, customerId: j.customerId, siteId: j.siteId, jobId,
+      firmId, id, kind: 'final', series: 'invoice', number: n, reference: invoiceReference(o.prefix, n), customerId: j.customerId, siteId: j.siteId, jobId,
       vat: j.vat, cisRatePercent: j.cis, issuedOn: on(j.issued), dueOn: on(j.issued + o.termsDays), totals: { ...totals }, amountDuePence: totals.amountDuePence, createdBy: people.officeId,
     })
     await tx.insert(schema.invoiceLines).values(j.lines.map((l, i) => ({ firmId, invoiceId: id, position: i, ...l })))
-    return { jobId, invoiceId: id, totals, reference: `J-${String(number).padStart(4, '0')}` }
+    return { jobId, invoiceId: id, totals, reference: jobReference(number) }
   }
   const labour = (description: string, pence: number): Line => ({ kind: 'labour', description, quantityX1000: 1000, unit: 'item', unitPence: pence, vatRatePercent: 20 })
   const materials = (description: string, pence: number): Line => ({ kind: 'materials', description, quantityX1000: 1000, unit: 'item', unitPence: pence, vatRatePercent: 20 })

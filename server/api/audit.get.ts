@@ -1,14 +1,11 @@
 import { desc, eq } from 'drizzle-orm'
-import { z } from 'zod'
 import { auditLog, users } from '../db/schema'
-import { queryWholeNumber } from '#shared/schemas/common'
-
-const query = z.object({ limit: queryWholeNumber('limit', 1, 500, 100) })
+import { auditQuery } from '#shared/schemas/firm'
 
 /** Who changed what in this firm, newest first. */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'audit:read')
-  const { limit } = await readQueryWith(event, query)
+  const { limit } = await readQueryWith(event, auditQuery)
   return withFirm(auth, f => f.tx.select({
     id: auditLog.id,
     at: auditLog.at,

@@ -1,11 +1,4 @@
-import { z } from 'zod'
-import { queryWholeNumber } from '#shared/schemas/common'
-
-const owedQuery = z.object({
-  page: queryWholeNumber('page', 1, 10_000, 1),
-  // customers a page; also how many of the longest overdue invoices come with it (the dashboard asks for 10)
-  pageSize: queryWholeNumber('pageSize', 1, 200, 50),
-})
+import { owedQuery } from '#shared/schemas/invoice'
 
 /**
  * What is owed: the totals in the age buckets (not yet due, 1-30, 31-60, 61-90, over 90 days

@@ -24,20 +24,23 @@ const dateParts = (iso: string): [number, number, number] => {
   return [y!, m!, d!]
 }
 
-/** The feed behind a token as iCalendar text; null for a token that is not (or no longer) a feed. */
-export async function calendarFor(token: string): Promise<string | null> {
+/** The feed behind a token as iCalendar text; 404 for a token that is not (or no longer) a feed. */
+export async function calendarFor(token: string): Promise<string> {
   return useDb().transaction(async (tx) => {
-    await tx.execute(sql`select set_config('app.calendar_token_hash', ${hashToken(token)}, true)`)
-    const [found] = await tx.select({ firmId: calendarFeeds.firmId }).from(calendarFeeds).where(eq(calendarFeeds.tokenHash, hashToken(token)))
-    if (!found) return null
-    await scopeTransaction(tx, found.firmId, null)
-    const f = new FirmScope(tx, found.firmId, null)
-    // A feed answers only while its person is a member, and only a feed made (or reset) since they
-    // joined: a removed member's link is dead, and stays dead if they are invited back later.
-    const [feed] = await tx.select({ firmId: calendarFeeds.firmId, userId: calendarFeeds.userId }).from(calendarFeeds)
-      .innerJoin(memberships, and(eq(memberships.firmId, calendarFeeds.firmId), eq(memberships.userId, calendarFeeds.userId)))
-      .where(and(f.where(calendarFeeds, eq(calendarFeeds.tokenHash, hashToken(token))), gte(calendarFeeds.updatedAt, memberships.createdAt)))
-    if (!feed) return null
+    const { f, feed } = await withSecretLink(tx, {
+      setting: 'app.calendar_token_hash',
+      secret: token,
+      find: async (tx, tokenHash) => (await tx.select({ firmId: calendarFeeds.firmId, tokenHash: calendarFeeds.tokenHash }).from(calendarFeeds).where(eq(calendarFeeds.tokenHash, tokenHash)))[0],
+      // A feed answers only while its person is a member, and only a feed made (or reset) since they
+      // joined: a removed member's link is dead, and stays dead if they are invited back later.
+      open: async (f, found) => {
+        const [feed] = await f.tx.select({ firmId: calendarFeeds.firmId, userId: calendarFeeds.userId }).from(calendarFeeds)
+          .innerJoin(memberships, and(eq(memberships.firmId, calendarFeeds.firmId), eq(memberships.userId, calendarFeeds.userId)))
+          .where(and(f.where(calendarFeeds, eq(calendarFeeds.tokenHash, found.tokenHash)), gte(calendarFeeds.updatedAt, memberships.createdAt)))
+        return feed && { f, feed }
+      },
+      gone: () => { throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This calendar link is not right or has been reset. Get the new one from Setwell, under Your account.' } }) },
+    })
     const [firm] = await tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, feed.firmId))
     const rows = await tx.select({
       id: jobDays.id, day: jobDays.day, portion: jobDays.portion, number: jobs.number, title: jobs.title, status: jobs.status,

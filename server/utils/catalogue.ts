@@ -1,6 +1,6 @@
 // The firm's materials catalogue: the rows it edits on the Materials screen, and the same rows in
 // the take-off's terms for estimates (shared/utils/materials.ts).
-import { asc, eq } from 'drizzle-orm'
+import { asc } from 'drizzle-orm'
 import { materials as materialsTable } from '../db/schema'
 import type { Material } from '#shared/utils/materials'
 
@@ -16,10 +16,4 @@ export async function catalogue(f: FirmScope): Promise<Material[]> {
     key: r.key, type: r.type, name: r.name, packLabel: r.packLabel, costPence: r.costPence, source: r.source,
     coverage: r.coverageMmPerPack ? { kind: 'length' as const, metresPerPack: r.coverageMmPerPack / 1000 } : { kind: 'area' as const, m2PerPack: (r.coverageCm2PerPack ?? 0) / 10_000, atThicknessMm: r.atThicknessMm ?? 2 },
   }))
-}
-
-export async function findMaterial(f: FirmScope, id: string) {
-  const [row] = await f.tx.select().from(materialsTable).where(f.where(materialsTable, eq(materialsTable.id, id))).for('update')
-  if (!row) notFound()
-  return row
 }

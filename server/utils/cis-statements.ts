@@ -4,13 +4,6 @@ import { and, asc, desc, eq, gte, lte } from 'drizzle-orm'
 import { cisStatements, customers } from '../db/schema'
 import type { FirmScope } from './db'
 
-export async function findCisStatement(f: FirmScope, id: string, lock = false) {
-  const q = f.tx.select().from(cisStatements).where(f.where(cisStatements, eq(cisStatements.id, id)))
-  const [row] = lock ? await q.for('update') : await q
-  if (!row) notFound()
-  return row
-}
-
 /** The contractor must be the firm's customer paying under CIS (another firm's id reads as missing). */
 export async function checkContractor(f: FirmScope, customerId: string) {
   const [c] = await f.tx.select({ id: customers.id, paysUnderCis: customers.paysUnderCis }).from(customers).where(f.where(customers, eq(customers.id, customerId)))
@@ -23,7 +16,7 @@ export function duplicateStatement(): never {
 }
 
 export async function cisStatementDetail(f: FirmScope, id: string) {
-  const s = await findCisStatement(f, id)
+  const s = await findOr404(f, cisStatements, id)
   const [c] = await f.tx.select({ name: customers.name }).from(customers).where(f.where(customers, eq(customers.id, s.customerId)))
   return { ...s, customerName: c?.name ?? '', documents: await documentsOf(f, { cisStatementId: id }) }
 }

@@ -1,20 +1,10 @@
 import { count, eq, ne, sql, type SQL } from 'drizzle-orm'
-import { cisStatements, customers, enquiries, invoices, jobs, quotes, sites, visits } from '../db/schema'
+import { cisStatements, enquiries, invoices, jobs, quotes, sites, visits } from '../db/schema'
 import { holdingWorkInWords, type HoldingWork } from '#shared/utils/ledger'
-
-/** The customer with this id in the current firm, or 404. */
-export async function findCustomer(f: FirmScope, id: string) {
-  const [c] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, id)))
-  if (!c) notFound()
-  return c
-}
 
 /** The site with this id in the current firm (and of this customer, when given), or 404. */
 export async function findSite(f: FirmScope, id: string, customerId?: string) {
-  const [s] = await f.tx.select().from(sites)
-    .where(f.where(sites, eq(sites.id, id), customerId ? eq(sites.customerId, customerId) : undefined))
-  if (!s) notFound()
-  return s
+  return findOr404(f, sites, id, { where: customerId ? eq(sites.customerId, customerId) : undefined })
 }
 
 /** A 400 naming one field, for a reference that does not point at a row of this firm. */

@@ -5,6 +5,7 @@ import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres'
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import pg from 'pg'
 import * as schema from '../db/schema'
+import { notFound } from './validate'
 
 export type Db = NodePgDatabase<typeof schema>
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
@@ -56,6 +57,20 @@ export class FirmScope {
   async audit(action: string, entity: string, entityId: string | null, detail: Record<string, unknown> = {}) {
     await this.tx.insert(schema.auditLog).values(this.values({ actorUserId: this.userId, action, entity, entityId, detail }))
   }
+}
+
+/** A firm table with a uuid `id`. */
+type FirmRowTable = FirmTable & { id: PgColumn, $inferSelect: object }
+
+/**
+ * The row with this id in the current firm, or 404 (another firm's id is the same 404 as a
+ * missing one). `lock` takes it FOR UPDATE; `where` adds conditions (crew only on their own jobs).
+ */
+export async function findOr404<T extends FirmRowTable>(f: FirmScope, table: T, id: string, opts: { lock?: boolean, where?: SQL } = {}): Promise<T['$inferSelect']> {
+  const q = f.tx.select().from(table as PgTable).where(f.where(table, eq(table.id, id), opts.where))
+  const [row] = opts.lock ? await q.for('update') : await q
+  if (!row) notFound()
+  return row as T['$inferSelect']
 }
 
 async function setScope(tx: Tx, firmId: string | null, userId: string | null) {

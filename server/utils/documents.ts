@@ -1,26 +1,15 @@
 // Documents: a purchase's receipt, or a contractor's CIS statement, as a photo or a PDF. They come
 // in through the same streamed, size-limited multipart reader as site photos
-// (server/utils/uploads.ts) and are sniffed by their bytes, never their name. Photos are re-encoded
+// (server/utils/multipart.ts) and are sniffed by their bytes, never their name. Photos are re-encoded
 // without metadata like site photos; a PDF is kept as sent (the accountant needs the original) and
 // only ever served as a download, sandboxed, never shown inline.
 import { asc, eq } from 'drizzle-orm'
 import { fileTypeFromBuffer } from 'file-type'
-import { z } from 'zod'
 import { cisStatements, documents, purchases } from '../db/schema'
 import type { FirmScope } from './db'
-import { PHOTO_TYPES, type PhotoType, type UploadedFile } from './uploads'
-
-export const DOCUMENT_TARGET_KEYS = ['purchaseId', 'cisStatementId'] as const
-export type DocumentTarget = Partial<Record<(typeof DOCUMENT_TARGET_KEYS)[number], string>>
-
-const optionalId = z.preprocess(v => (v === '' ? undefined : v), z.uuid({ error: 'That is not an id from Setwell.' }).optional())
-
-export const documentTargetSchema = z.object({ purchaseId: optionalId, cisStatementId: optionalId })
-  .superRefine((v, ctx) => {
-    if ([v.purchaseId, v.cisStatementId].filter(Boolean).length !== 1) {
-      ctx.addIssue({ code: 'custom', path: ['target'], message: 'Say what the file belongs to: one purchase or one CIS statement.' })
-    }
-  })
+import type { DocumentTarget } from '#shared/schemas/photo'
+import { PHOTO_TYPES, type PhotoType } from './images'
+import type { UploadedFile } from './multipart'
 
 export function notADocument(detail = 'That file is not a receipt Setwell can keep. Send a PDF, or a JPEG, PNG, WebP or HEIC photo.') {
   return fieldError({ file: detail }, 415, 'Unsupported file type')
@@ -71,12 +60,6 @@ export function documentJson(row: DocumentRow) {
   }
 }
 export type DocumentJson = ReturnType<typeof documentJson>
-
-export async function findDocument(f: FirmScope, id: string): Promise<DocumentRow> {
-  const [row] = await f.tx.select().from(documents).where(f.where(documents, eq(documents.id, id)))
-  if (!row) notFound()
-  return row
-}
 
 export async function documentsOf(f: FirmScope, target: { purchaseId?: string, cisStatementId?: string }) {
   const rows = await f.tx.select().from(documents).where(f.where(documents,

@@ -2,16 +2,9 @@ import { eq, sql } from 'drizzle-orm'
 import { enquiries, enquiryEvents } from '../db/schema'
 import type { EnquiryStatus } from '#shared/utils/ledger'
 
-export async function findEnquiry(f: FirmScope, id: string, lock = false) {
-  const q = f.tx.select().from(enquiries).where(f.where(enquiries, eq(enquiries.id, id)))
-  const [e] = lock ? await q.for('update') : await q
-  if (!e) notFound()
-  return e
-}
-
 /** Move an enquiry to a new status and record who moved it, when and why. 409 for a move the rules refuse. */
 export async function moveEnquiry(f: FirmScope, id: string, to: EnquiryStatus, reason: string | null) {
-  const e = await findEnquiry(f, id, true)
+  const e = await findOr404(f, enquiries, id, { lock: true })
   if (e.status === to) return e
   if (!canMoveEnquiry(e.status, to)) {
     throw createError({ statusCode: 409, statusMessage: 'Not a move it can make', data: { message: `An enquiry that is ${ENQUIRY_STATUS_LABELS[e.status].toLowerCase()} cannot become ${ENQUIRY_STATUS_LABELS[to].toLowerCase()}.` } })

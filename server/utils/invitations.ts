@@ -1,4 +1,4 @@
-import { and, eq, gt, isNull, sql } from 'drizzle-orm'
+import { and, eq, gt, isNull } from 'drizzle-orm'
 import { firms, invitations } from '../db/schema'
 
 /**
@@ -6,17 +6,20 @@ import { firms, invitations } from '../db/schema'
  * (app.invite_token_hash); then the transaction is scoped to its firm. 404 when the link is
  * unknown, used, withdrawn or expired: a stranger learns nothing.
  */
-export async function openInvitation(tx: Tx, token: string, lock = false) {
-  const tokenHash = hashToken(token)
-  await tx.execute(sql`select set_config('app.invite_token_hash', ${tokenHash}, true)`)
-  const open = and(eq(invitations.tokenHash, tokenHash), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date()))
-  let [inv] = await tx.select().from(invitations).where(open)
-  if (inv) {
-    await scopeTransaction(tx, inv.firmId, null)
-    // locking needs the firm's own policy (FOR UPDATE checks it), so lock once scoped; re-check it is still open
-    if (lock) [inv] = await tx.select().from(invitations).where(and(eq(invitations.firmId, inv.firmId), eq(invitations.id, inv.id), open)).for('update')
-  }
-  if (!inv) throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This invitation link has expired, was withdrawn or was already used. Ask for a new one.' } })
-  const [firm] = await tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, inv.firmId))
-  return { invitation: inv, firmName: firm?.tradingName ?? '' }
+export function openInvitation(tx: Tx, token: string, lock = false) {
+  const stillOpen = (tokenHash: string) => and(eq(invitations.tokenHash, tokenHash), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date()))
+  return withSecretLink(tx, {
+    setting: 'app.invite_token_hash',
+    secret: token,
+    find: async (tx, tokenHash) => (await tx.select().from(invitations).where(stillOpen(tokenHash)))[0],
+    open: async (f, found) => {
+      let inv: typeof found | undefined = found
+      // locking needs the firm's own policy (FOR UPDATE checks it), so lock once scoped; re-check it is still open
+      if (lock) [inv] = await f.tx.select().from(invitations).where(f.where(invitations, eq(invitations.id, found.id), stillOpen(found.tokenHash))).for('update')
+      if (!inv) return undefined
+      const [firm] = await f.tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, inv.firmId))
+      return { invitation: inv, firmName: firm?.tradingName ?? '' }
+    },
+    gone: () => { throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This invitation link has expired, was withdrawn or was already used. Ask for a new one.' } }) },
+  })
 }

@@ -1,7 +1,7 @@
 // Invoices on the server: finding, numbering under a lock, drafting from a job, issuing (frozen
 // after), credit notes, payments and the status that follows from them.
 import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
-import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, users, type InvoiceParties } from '../db/schema'
+import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, type InvoiceParties, users } from '../db/schema'
 import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
 import { londonToday } from '#shared/utils/dates'
 import { invoiceTotals, lineNetPence } from '#shared/utils/tax'
@@ -10,13 +10,6 @@ export type InvoiceRow = typeof invoices.$inferSelect
 
 /** Today in Britain (not UTC's day: half past midnight in summer is already the next day). */
 export const todayIso = (now = new Date()) => londonToday(now)
-
-export async function findInvoice(f: FirmScope, id: string, lock = false) {
-  const q = f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, id)))
-  const [row] = lock ? await q.for('update') : await q
-  if (!row) notFound()
-  return row
-}
 
 export async function linesOf(f: FirmScope, invoiceId: string) {
   return f.tx.select().from(invoiceLines).where(f.where(invoiceLines, eq(invoiceLines.invoiceId, invoiceId))).orderBy(asc(invoiceLines.position))
@@ -58,7 +51,7 @@ export function statusOf(row: Pick<InvoiceRow, 'id' | 'kind' | 'issuedOn' | 'due
 
 /** Everything about one invoice for the firm's screens. */
 export async function invoiceDetail(f: FirmScope, id: string) {
-  const inv = await findInvoice(f, id)
+  const inv = await findOr404(f, invoices, id)
   const lines = await linesOf(f, id)
   const [customer] = await f.tx.select({ id: customers.id, name: customers.name, email: customers.email, kind: customers.kind, billingLine1: customers.billingLine1, billingTown: customers.billingTown, billingPostcode: customers.billingPostcode })
     .from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
@@ -217,7 +210,7 @@ export async function partiesNow(f: FirmScope, inv: Pick<InvoiceRow, 'customerId
 
 /** Issue a draft: its number, dates and the customer's link; frozen from now on. Returns the link's token. */
 export async function issueInvoice(f: FirmScope, id: string) {
-  const inv = await findInvoice(f, id, true)
+  const inv = await findOr404(f, invoices, id, { lock: true })
   if (inv.issuedOn) throw createError({ statusCode: 409, statusMessage: 'Already issued', data: { message: 'This invoice has been issued; it stays as it is. Correct it with a credit note.' } })
   const lines = await linesOf(f, id)
   if (!lines.length) throw fieldError({ lines: 'Add at least one line before issuing.' })
@@ -230,7 +223,7 @@ export async function issueInvoice(f: FirmScope, id: string) {
   const series = inv.kind === 'credit-note' && firm!.creditNoteNumbering === 'own' ? 'credit-note' as const : 'invoice' as const
   const number = await nextInvoiceNumber(f, series)
   const prefix = series === 'credit-note' ? firm!.creditNotePrefix : firm!.invoicePrefix
-  const reference = `${prefix}${String(number).padStart(4, '0')}`
+  const reference = invoiceReference(prefix, number)
   const issuedOn = todayIso()
   const token = newToken()
   const parties = await partiesNow(f, inv)
@@ -267,8 +260,7 @@ function referenceClash(reference: string) {
  * after another.
  */
 export async function assertCreditFits(f: FirmScope, creditedId: string, noteId: string, noteGrossPence: number) {
-  const [credited] = await f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, creditedId))).for('update')
-  if (!credited) notFound()
+  const credited = await findOr404(f, invoices, creditedId, { lock: true })
   const [row] = await f.tx.select({ total: sql<number>`coalesce(sum((${invoices.totals}->>'grossPence')::bigint), 0)::bigint` }).from(invoices)
     .where(f.where(invoices, eq(invoices.creditsInvoiceId, creditedId), isNotNull(invoices.issuedOn), ne(invoices.id, noteId)))
   const already = Number(row?.total ?? 0)

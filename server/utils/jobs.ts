@@ -2,7 +2,7 @@
 // booked on), numbering, making one from an accepted quote, moving its status, and its set plan
 // worked out from the visit's rooms (shared/utils/set-plan.ts).
 import { and, asc, eq, exists, inArray, max, sql } from 'drizzle-orm'
-import { customers, firms, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, setLogs, sites, users } from '../db/schema'
+import { customers, firms, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, quotes, setLogs, sites, users } from '../db/schema'
 import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, READY_CAUTION, roomReadyToDecorate, safePlanOptions, skimCoverageM2, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
 import { londonDay } from '#shared/utils/dates'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
@@ -17,10 +17,7 @@ export type JobRow = typeof jobs.$inferSelect
 export async function findJob(f: FirmScope, auth: FirmContext, id: string, lock = false) {
   const crewOnly = !can(auth.role, 'jobs:read-all')
   const assigned = exists(f.tx.select({ one: sql`1` }).from(jobDays).where(and(eq(jobDays.firmId, jobs.firmId), eq(jobDays.jobId, jobs.id), eq(jobDays.userId, auth.userId))))
-  const q = f.tx.select().from(jobs).where(f.where(jobs, eq(jobs.id, id), crewOnly ? assigned : undefined))
-  const [row] = lock ? await q.for('update') : await q
-  if (!row) notFound()
-  return row
+  return findOr404(f, jobs, id, { lock, where: crewOnly ? assigned : undefined })
 }
 
 /** The condition for the jobs a person may list. */
@@ -34,8 +31,6 @@ export async function nextJobNumber(f: FirmScope) {
   const [row] = await f.tx.select({ n: max(jobs.number) }).from(jobs).where(f.where(jobs))
   return (row?.n ?? 0) + 1
 }
-
-export const jobReference = (n: number) => `J-${String(n).padStart(4, '0')}`
 
 export async function recordJobStatus(f: FirmScope, jobId: string, from: JobStatus | null, to: JobStatus, reason = '') {
   await f.tx.insert(jobStatusChanges).values(f.values({ jobId, fromStatus: from, toStatus: to, reason, changedBy: f.userId }))
@@ -55,7 +50,7 @@ export async function moveJob(f: FirmScope, job: JobRow, to: JobStatus, reason: 
 
 /** Make the job of an accepted quote, in one step. 409 if the quote is not accepted or already has its job. */
 export async function jobFromQuote(f: FirmScope, quoteId: string) {
-  const quote = await findQuote(f, quoteId, true)
+  const quote = await findOr404(f, quotes, quoteId, { lock: true })
   const version = await currentVersion(f, quote)
   if (version.status !== 'accepted') throw createError({ statusCode: 409, statusMessage: 'Not accepted', data: { message: 'Only an accepted quote becomes a job.' } })
   const [already] = await f.tx.select({ id: jobs.id }).from(jobs).where(f.where(jobs, eq(jobs.quoteId, quoteId)))
@@ -85,8 +80,6 @@ export async function jobFromQuote(f: FirmScope, quoteId: string) {
   await f.audit('job.created', 'job', job!.id, { fromQuote: quote.id })
   return job!
 }
-
-export const quoteReference = (n: number) => `Q-${String(n).padStart(4, '0')}`
 
 export async function defaultPlanOptions(f: FirmScope) {
   const book = await usePriceBook(f)

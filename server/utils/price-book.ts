@@ -1,4 +1,4 @@
-import { eq, getTableColumns, SQL } from 'drizzle-orm'
+import { getTableColumns, SQL } from 'drizzle-orm'
 import { priceBooks } from '../db/schema'
 
 type PriceBook = typeof priceBooks.$inferSelect
@@ -18,6 +18,6 @@ function emptyPriceBook(firmId: string): PriceBook {
  * one be missing, this answers the defaults without writing (a read writes nothing).
  */
 export async function usePriceBook(f: FirmScope): Promise<PriceBook> {
-  const [row] = await f.tx.select().from(priceBooks).where(eq(priceBooks.firmId, f.firmId))
+  const [row] = await f.tx.select().from(priceBooks).where(f.where(priceBooks))
   return row ?? emptyPriceBook(f.firmId)
 }

@@ -21,30 +21,13 @@
 //
 // Five grouped queries whatever the number of jobs; a request covers at most 366 days.
 import { and, asc, eq, inArray, isNotNull, ne, sql } from 'drizzle-orm'
-import { z } from 'zod'
 import { customers, firms, invoices, jobDays, jobs, materialUses, purchaseJobs, purchases } from '../db/schema'
-import { CUSTOMER_KIND_LABELS, CUSTOMER_KINDS, type CustomerKind } from '#shared/utils/ledger'
+import { CUSTOMER_KIND_LABELS, type CustomerKind } from '#shared/utils/ledger'
 import { jobProfit } from '#shared/utils/profit'
 import type { JobStatus } from '#shared/utils/jobs'
 import { poundsCell, toCsv, type CsvCell } from '#shared/utils/csv'
-import { isoDate } from '#shared/schemas/common'
-import { daysBetween } from '#shared/utils/dates'
 
-/** The longest period one request may ask for, counting both ends. */
-export const PROFIT_MAX_DAYS = 366
-
-/** The query of the profit table and its CSV: a period of at most 366 days, and optionally one kind of customer. */
-export const profitQuerySchema = z.object({
-  from: isoDate('Pick the first day of the period (YYYY-MM-DD).'),
-  to: isoDate('Pick the last day of the period (YYYY-MM-DD).'),
-  // '' is "every kind" (an empty choice in a form)
-  customerKind: z.enum(['', ...CUSTOMER_KINDS], { error: 'Choose homeowner, landlord, builder or business, or every kind.' })
-    .optional().transform(v => (v ? v as CustomerKind : undefined)),
-})
-  .refine(q => q.from <= q.to, { path: ['to'], error: 'The last day is before the first.' })
-  // counting both ends: 1 January to 31 December of a leap year is 366 days
-  .refine(q => q.from > q.to || !(daysBetween(q.from, q.to) + 1 > PROFIT_MAX_DAYS), { path: ['to'], error: `Ask for at most ${PROFIT_MAX_DAYS} days at a time.` })
-export type ProfitQuery = z.output<typeof profitQuerySchema>
+// The query's schema (at most PROFIT_MAX_DAYS days, one kind of customer) is shared/schemas/profit.ts.
 
 /** Shown wherever the figures are (shared/utils/profit.ts gives the basis). */
 export const PROFIT_CAUTION = 'A rule of thumb, not accounts or tax advice: these figures leave out your overheads (van, insurance, tools kept between jobs), VAT and tax, and your own time off site (quoting, buying, paperwork). Your accountant decides what your books say.'

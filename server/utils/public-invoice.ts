@@ -1,18 +1,16 @@
 // The customer's link to an invoice (/i/<token>): like the quote's, the token's hash makes that
 // one invoice visible under RLS (app.invoice_token_hash), then the transaction is scoped to its firm.
-import { eq, sql } from 'drizzle-orm'
-import { z } from 'zod'
+import { eq } from 'drizzle-orm'
 import { firms, invoices } from '../db/schema'
 
-export const invoiceTokenParam = z.object({ token: z.string().regex(/^[\w-]{40,60}$/, { error: 'Not found.' }) })
-
-export async function openInvoiceByToken(tx: Tx, token: string) {
-  const tokenHash = hashToken(token)
-  await tx.execute(sql`select set_config('app.invoice_token_hash', ${tokenHash}, true)`)
-  const [found] = await tx.select({ firmId: invoices.firmId, id: invoices.id }).from(invoices).where(eq(invoices.tokenHash, tokenHash))
-  if (!found) throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This invoice link is not right. Ask the firm to send it again.' } })
-  await scopeTransaction(tx, found.firmId, null)
-  return { f: new FirmScope(tx, found.firmId, null), invoiceId: found.id }
+export function openInvoiceByToken(tx: Tx, token: string) {
+  return withSecretLink(tx, {
+    setting: 'app.invoice_token_hash',
+    secret: token,
+    find: async (tx, tokenHash) => (await tx.select({ firmId: invoices.firmId, id: invoices.id }).from(invoices).where(eq(invoices.tokenHash, tokenHash)))[0],
+    open: async (f, found) => ({ f, invoiceId: found.id }),
+    gone: () => { throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This invoice link is not right. Ask the firm to send it again.' } }) },
+  })
 }
 
 /** What the customer sees: their invoice, what is still owed, and how to pay. */

@@ -1,8 +1,5 @@
-import { and, eq, gt, inArray, sql } from 'drizzle-orm'
-import { z } from 'zod'
+import { and, eq, gt, inArray } from 'drizzle-orm'
 import { customers, firms, quotes, quoteVersions, sites } from '../db/schema'
-
-export const quoteTokenParam = z.object({ token: z.string().regex(/^[\w-]{40,60}$/, { error: 'Not found.' }) })
 
 const GONE = 'This quote link has expired or is not right. Ask the firm to send it again.'
 
@@ -11,21 +8,21 @@ const GONE = 'This quote link has expired or is not right. Ask the firm to send 
  * visible (app.quote_token_hash), then the transaction is scoped to its firm. 404 with a clear
  * message for a wrong or expired link; nothing else about the firm is readable.
  */
-export async function openQuoteByToken(tx: Tx, token: string, lock = false) {
-  const tokenHash = hashToken(token)
-  await tx.execute(sql`select set_config('app.quote_token_hash', ${tokenHash}, true)`)
-  const [found] = await tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id, quoteId: quoteVersions.quoteId }).from(quoteVersions)
-    .where(and(eq(quoteVersions.tokenHash, tokenHash), inArray(quoteVersions.status, ['sent', 'accepted', 'declined', 'superseded']), gt(quoteVersions.tokenExpiresAt, new Date())))
-  if (!found) throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: GONE } })
-  await scopeTransaction(tx, found.firmId, null)
-  const f = new FirmScope(tx, found.firmId, null)
-  // an answer locks the quote, then the version, in the order the firm's own changes (revise, send)
-  // lock them: an answer and a revision at the same moment go one after the other
-  const qq = tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, found.quoteId)))
-  const [quote] = lock ? await qq.for('update') : await qq
-  const q = tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, found.id)))
-  const [version] = lock ? await q.for('update') : await q
-  return { f, version: version!, quote: quote! }
+export function openQuoteByToken(tx: Tx, token: string, lock = false) {
+  return withSecretLink(tx, {
+    setting: 'app.quote_token_hash',
+    secret: token,
+    find: async (tx, tokenHash) => (await tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id, quoteId: quoteVersions.quoteId }).from(quoteVersions)
+      .where(and(eq(quoteVersions.tokenHash, tokenHash), inArray(quoteVersions.status, ['sent', 'accepted', 'declined', 'superseded']), gt(quoteVersions.tokenExpiresAt, new Date()))))[0],
+    open: async (f, found) => {
+      // an answer locks the quote, then the version, in the order the firm's own changes (revise, send)
+      // lock them: an answer and a revision at the same moment go one after the other
+      const quote = await findOr404(f, quotes, found.quoteId, { lock })
+      const version = await findOr404(f, quoteVersions, found.id, { lock })
+      return { f, version, quote }
+    },
+    gone: () => { throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: GONE } }) },
+  })
 }
 
 /** What the customer sees: their quote and nothing else of the firm's. */

@@ -3,13 +3,6 @@
 import { and, asc, desc, eq, gte, inArray, lte } from 'drizzle-orm'
 import { jobs, purchaseJobs, purchases } from '../db/schema'
 
-export async function findPurchase(f: FirmScope, id: string, lock = false) {
-  const q = f.tx.select().from(purchases).where(f.where(purchases, eq(purchases.id, id)))
-  const [row] = lock ? await q.for('update') : await q
-  if (!row) notFound()
-  return row
-}
-
 /** The split's jobs must be the firm's own (another firm's job id is a field error, as if it did not exist). */
 export async function checkJobs(f: FirmScope, split: { jobId: string }[]) {
   if (!split.length) return
@@ -25,7 +18,7 @@ export async function saveSplit(f: FirmScope, purchaseId: string, split: { jobId
 }
 
 export async function purchaseDetail(f: FirmScope, id: string) {
-  const p = await findPurchase(f, id)
+  const p = await findOr404(f, purchases, id)
   const split = await f.tx.select({ jobId: purchaseJobs.jobId, netPence: purchaseJobs.netPence, number: jobs.number })
     .from(purchaseJobs).innerJoin(jobs, and(eq(jobs.firmId, purchaseJobs.firmId), eq(jobs.id, purchaseJobs.jobId)))
     .where(f.where(purchaseJobs, eq(purchaseJobs.purchaseId, id))).orderBy(asc(jobs.number))

@@ -2,10 +2,10 @@
 // download and the customer's download say the same thing; the pieces are server/pdf/document.ts
 // (the shipped fonts, no URL fetched, nothing outside the file).
 import type { H3Event } from 'h3'
-import type { quotes, quoteVersions } from '../db/schema'
+import { quotes, type quoteVersions } from '../db/schema'
 import { AMBER, GREEN, formatUkDate, makePdf, sendPdf } from '../pdf/document'
 import { publicQuoteView } from './public-quote'
-import { currentVersion, findQuote } from './quotes'
+import { currentVersion } from './quotes'
 
 export type QuotePdfView = Awaited<ReturnType<typeof publicQuoteView>> & { issuedAt: Date | string | null }
 
@@ -19,7 +19,7 @@ export async function quotePdfView(f: FirmScope, quote: typeof quotes.$inferSele
 
 /** The same view for the firm, of a quote's current version (404 for another firm's quote). */
 export async function quoteViewForFirm(f: FirmScope, quoteId: string) {
-  const quote = await findQuote(f, quoteId)
+  const quote = await findOr404(f, quotes, quoteId)
   const version = await currentVersion(f, quote)
   return quotePdfView(f, quote, version)
 }

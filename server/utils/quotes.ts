@@ -15,13 +15,6 @@ export function taxLines(lines: Pick<QuoteLineRow, 'kind' | 'quantityX1000' | 'u
 
 // suggestedVat (the VAT treatment a quote or invoice starts with) is in shared/utils/vat-treatment.ts.
 
-export async function findQuote(f: FirmScope, id: string, lock = false) {
-  const q = f.tx.select().from(quotes).where(f.where(quotes, eq(quotes.id, id)))
-  const [row] = lock ? await q.for('update') : await q
-  if (!row) notFound()
-  return row
-}
-
 export async function currentVersion(f: FirmScope, quote: { id: string, currentVersion: number }, lock = false) {
   const q = f.tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.quoteId, quote.id), eq(quoteVersions.version, quote.currentVersion)))
   const [row] = lock ? await q.for('update') : await q
@@ -47,7 +40,7 @@ export async function nextQuoteNumber(f: FirmScope) {
 
 /** Everything about one quote for the firm's screens. */
 export async function quoteDetail(f: FirmScope, id: string) {
-  const quote = await findQuote(f, id)
+  const quote = await findOr404(f, quotes, id)
   const [customer] = await f.tx.select({ id: customers.id, name: customers.name, email: customers.email, kind: customers.kind }).from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
   const versions = await f.tx.select({ id: quoteVersions.id, version: quoteVersions.version, status: quoteVersions.status, sentAt: quoteVersions.sentAt, respondedAt: quoteVersions.respondedAt, totals: quoteVersions.totals })
     .from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.quoteId, id))).orderBy(desc(quoteVersions.version))

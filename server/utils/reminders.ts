@@ -3,7 +3,7 @@
 // reminder key is unique, written before the e-mail goes). The background job (server/plugins/
 // jobs.ts) and "send a reminder now" both come here.
 import { asc, eq, isNull } from 'drizzle-orm'
-import { chaseNotes, customers, firms, reminderRules } from '../db/schema'
+import { chaseNotes, customers, firms, invoices, reminderRules } from '../db/schema'
 import { DEFAULT_REMINDERS, fillTemplate, reminderDue, reminderKey } from '#shared/utils/reminders'
 
 /**
@@ -37,7 +37,7 @@ export async function dueReminders(f: FirmScope, today = todayIso()) {
 export async function sendReminder(scope: { firmId: string, userId: string | null }, invoiceId: string, offsetDays: number | null): Promise<'sent' | 'already sent' | 'nothing owed'> {
   const key = offsetDays === null ? `${invoiceId}:now:${crypto.randomUUID()}` : reminderKey(invoiceId, offsetDays)
   const prepared = await withFirm(scope, async (f) => {
-    const inv = await findInvoice(f, invoiceId, true)
+    const inv = await findOr404(f, invoices, invoiceId, { lock: true })
     const money = await moneyAgainst(f, [inv.id])
     const { outstandingPence: owed } = statusOf(inv, money)
     if (!inv.issuedOn || inv.kind === 'credit-note' || owed <= 0) return null

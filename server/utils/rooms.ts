@@ -1,13 +1,10 @@
 // What the room routes share: reading rooms whole (surfaces with their openings and conditions,
 // and the corners), in the shape roomSchema takes, plus the running totals. The leading '-' keeps
 // Nitro from serving this file as a route (Nuxt's ignorePrefix).
-import { and, asc, eq, inArray } from 'drizzle-orm'
-import { z } from 'zod'
+import { asc, eq, inArray } from 'drizzle-orm'
 import { conditions, corners, openings, rooms, surfaces } from '../db/schema'
 import type { Room } from '#shared/schemas/room'
 import { roomTotals, type RoomTotals } from '#shared/utils/room-area'
-
-export const roomParams = z.object({ id: z.uuid(), roomId: z.uuid() })
 
 /** A room as saved: what roomSchema takes, with its ids, its revision and its totals (cm²). */
 export type SavedRoom = Room & { id: string, visitId: string, updatedAt: Date, totals: RoomTotals }
@@ -141,5 +138,5 @@ export function duplicateIds(body: Room): Record<string, string> {
 
 /** `surface_id in (the surfaces of this room)`, for scoping openings and conditions to the room. */
 export function inRoom(f: FirmScope, column: typeof openings.surfaceId | typeof conditions.surfaceId, roomId: string) {
-  return inArray(column, f.tx.select({ id: surfaces.id }).from(surfaces).where(and(eq(surfaces.firmId, f.firmId), eq(surfaces.roomId, roomId))))
+  return inArray(column, f.tx.select({ id: surfaces.id }).from(surfaces).where(f.where(surfaces, eq(surfaces.roomId, roomId))))
 }

@@ -1,4 +1,4 @@
-import { and, count, eq, isNull, ne, sql } from 'drizzle-orm'
+import { count, eq, isNull, ne, sql } from 'drizzle-orm'
 import { calendarFeeds, firms, memberships, sessions } from '../db/schema'
 
 /**
@@ -20,13 +20,6 @@ export async function assertAnotherOwner(f: FirmScope, membershipId: string) {
   }
 }
 
-/** The membership with this id in the current firm, or 404 (the same for another firm's id as for none). */
-export async function findMembership(f: FirmScope, id: string) {
-  const [m] = await f.tx.select().from(memberships).where(f.where(memberships, eq(memberships.id, id))).for('update')
-  if (!m) notFound()
-  return m
-}
-
 /**
  * Everything that lets a removed person in, gone in the removal's own transaction: their calendar
  * feeds for this firm are deleted and their sessions in this firm revoked. (The feed also needs a
@@ -35,5 +28,5 @@ export async function findMembership(f: FirmScope, id: string) {
 export async function endAccessToFirm(f: FirmScope, userId: string) {
   await f.tx.delete(calendarFeeds).where(f.where(calendarFeeds, eq(calendarFeeds.userId, userId)))
   await f.tx.update(sessions).set({ revokedAt: sql`now()` })
-    .where(and(eq(sessions.userId, userId), eq(sessions.firmId, f.firmId), isNull(sessions.revokedAt)))
+    .where(f.where(sessions, eq(sessions.userId, userId), isNull(sessions.revokedAt)))
 }

@@ -8,11 +8,7 @@ import { visits } from '../db/schema'
  */
 export async function findVisit(f: FirmScope, auth: FirmContext, visitId: string, opts: { lock?: boolean } = {}) {
   const crewOnly = !can(auth.role, 'jobs:read-all')
-  const where = f.where(visits, eq(visits.id, visitId), crewOnly ? eq(visits.visitorUserId, auth.userId) : undefined)
-  const q = f.tx.select().from(visits).where(where)
-  const [visit] = opts.lock ? await q.for('update') : await q
-  if (!visit) notFound()
-  return visit
+  return findOr404(f, visits, visitId, { lock: opts.lock, where: crewOnly ? eq(visits.visitorUserId, auth.userId) : undefined })
 }
 
 /** May this person change what was measured on a visit? (Owner, office; crew on their own visits.) */

@@ -64,3 +64,6 @@ export const customerListQuery = z.object({
   /** Only contractors that pay the firm under CIS (the CIS statements form). */
   cis: z.enum(['yes'], { error: 'Use cis=yes or leave it out.' }).optional(),
 })
+
+/** A new customer, with their first site when given. */
+export const newCustomerSchema = z.object({ customer: customerSchema, site: siteSchema.nullable().default(null) })

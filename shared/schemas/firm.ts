@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { nameField, text, whenObject } from './common'
+import { isoDate, nameField, queryWholeNumber, text, whenObject } from './common'
 
 const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
 
@@ -37,3 +37,35 @@ export const firmSettingsSchema = z.object({
   .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: whenObject })
   .refine(v => !(v.cisStatus !== 'not-registered' && !v.utr), { path: ['utr'], message: 'CIS registration needs the firm\'s UTR.', when: whenObject })
 export type FirmSettingsInput = z.infer<typeof firmSettingsSchema>
+
+/** The firm's Bank Rate table, replaced whole (the owner keeps it up to date from the Bank of England's figures). */
+export const bankRatesSchema = z.object({
+  rates: z.array(z.object({
+    fromDate: isoDate('Pick the date the rate took effect.'),
+    rateBp: z.int({ error: 'Enter the rate in hundredths of a percent (4.25% is 425).' }).min(0).max(2500, { error: 'Over 25%? Check the figure.' }),
+  })).min(1, { error: 'Keep at least one rate.' }).max(200),
+}).superRefine((v, ctx) => {
+  const seen = new Set<string>()
+  v.rates.forEach((r, i) => {
+    if (seen.has(r.fromDate)) ctx.addIssue({ code: 'custom', path: ['rates', i, 'fromDate'], message: 'Two rates from the same day.' })
+    seen.add(r.fromDate)
+  })
+})
+
+/** The reminder schedule and its words, replaced whole (an empty list stops reminders). */
+export const reminderRulesSchema = z.object({
+  rules: z.array(z.object({
+    offsetDays: z.int({ error: 'Enter whole days.' }).min(-60, { error: 'At most 60 days before.' }).max(365, { error: 'At most a year after.' }),
+    subject: text().trim().min(1, { error: 'Write the subject.' }).max(200),
+    body: text().trim().min(1, { error: 'Write the message.' }).max(4000),
+  })).max(10, { error: 'At most 10 reminders.' }),
+}).superRefine((v, ctx) => {
+  const seen = new Set<number>()
+  v.rules.forEach((r, i) => {
+    if (seen.has(r.offsetDays)) ctx.addIssue({ code: 'custom', path: ['rules', i, 'offsetDays'], message: 'Two reminders on the same day.' })
+    seen.add(r.offsetDays)
+  })
+})
+
+/** The audit log's query: how many of the newest entries. */
+export const auditQuery = z.object({ limit: queryWholeNumber('limit', 1, 500, 100) })

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { isoDate, text, whenObject } from './common'
+import { isoDate, queryWholeNumber, text, whenObject } from './common'
 import { PAYMENT_METHODS } from '../utils/invoices'
 import { formatPence } from '../utils/money'
 import { invoiceTotals } from '../utils/tax'
@@ -90,3 +90,26 @@ export const chaseNoteSchema = z.object({
 }).refine(v => v.kind !== 'promise' || v.promisedOn !== null, { path: ['promisedOn'], error: 'Pick the date they promised to pay by.', when: whenObject })
 
 export { PAYMENT_METHODS }
+
+/** The invoices list's query: the newest `pageSize`. */
+export const invoiceListQuery = z.object({
+  pageSize: queryWholeNumber('A page size', 1, 200, 50),
+})
+
+/** Who owes what: customers a page; pageSize is also how many of the longest overdue invoices come with it (the dashboard asks for 10). */
+export const owedQuery = z.object({
+  page: queryWholeNumber('page', 1, 10_000, 1),
+  pageSize: queryWholeNumber('pageSize', 1, 200, 50),
+})
+
+/** A refund of (part of) a card payment. */
+export const refundSchema = z.object({
+  paymentId: z.uuid({ error: 'Choose the payment to refund.' }),
+  amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount to refund.' }).max(1_000_000_00),
+  reference: text().trim().max(200).default(''),
+  /** One per refund the person means to make (the form makes it): a repeat of the same request is one refund. */
+  requestId: z.uuid({ error: 'That is not a request id.' }).optional(),
+})
+
+/** What Setwell puts in a card payment's metadata at Stripe, read back from its webhook. */
+export const stripePaymentMetadataSchema = z.object({ firmId: z.uuid(), invoiceId: z.uuid() })

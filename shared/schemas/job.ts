@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { isoDate, isoDateTime, text, whenObject } from './common'
+import { isoDate, isoDateTime, queryWholeNumber, text, whenObject } from './common'
 import { daysBetween } from '../utils/dates'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 
@@ -101,3 +101,10 @@ export const diaryQuery = z.object({
   to: pickDate,
 }).refine(v => v.from <= v.to, { path: ['to'], error: 'The end is before the start.' })
   .refine(v => !(daysBetween(v.from, v.to) > 62), { path: ['to'], error: 'Ask for at most two months at a time.' })
+
+/** The jobs list's query: one status, or every one, a page at a time. */
+export const jobListQuery = z.object({
+  status: z.enum(JOB_STATUSES, { error: 'Choose one of the job statuses.' }).optional(),
+  page: queryWholeNumber('A page', 1, 10_000, 1),
+  pageSize: queryWholeNumber('A page size', 1, 200, 50),
+})

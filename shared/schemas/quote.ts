@@ -80,3 +80,9 @@ export const newQuoteSchema = z.object({
   enquiryId: z.uuid().nullable().default(null),
   visitId: z.uuid().nullable().default(null),
 })
+
+/** The customer accepts a quote at its link, typing their name. */
+export const acceptQuoteSchema = z.object({ name: text({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
+
+/** The customer declines a quote at its link, with a reason. */
+export const declineQuoteSchema = z.object({ reason: text({ error: 'Tell the firm why, so they can do better.' }).trim().min(2, { error: 'Tell the firm why (a few words is fine).' }).max(1000) })

@@ -80,3 +80,6 @@ export const roomSchema = z.object({
 })
 export type RoomInput = z.input<typeof roomSchema>
 export type Room = z.output<typeof roomSchema>
+
+/** A room's route: the visit's id and the room's. */
+export const roomParams = z.object({ id: z.uuid(), roomId: z.uuid() })

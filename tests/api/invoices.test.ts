@@ -101,7 +101,7 @@ describe('drafting and issuing', () => {
     expect(Object.keys(again.body.data.fields)).toEqual(['vatReason'])
     expect((await owner.put(`/api/invoices/${draft.id}/draft`, { vat: 'not-registered', lines: [] })).status).toBe(200)
     expect((await owner.post(`/api/invoices/${draft.id}/issue`)).status).toBe(400)
-    expect((await owner.delete(`/api/invoices/${draft.id}`)).status).toBe(200)
+    expect((await owner.delete(`/api/invoices/${draft.id}`)).status).toBe(204)
     expect((await owner.get(`/api/invoices/${draft.id}`)).status).toBe(404)
   })
 

@@ -15,7 +15,7 @@ import { startFakeS3, type FakeS3 } from '../support/s3'
 import { inviteAndJoin } from './support'
 
 const MiB = 1024 * 1024
-// the server's default limit (server/utils/uploads.ts)
+// the server's default limit (server/utils/multipart.ts)
 const LIMIT = 15 * MiB
 
 let app: TestApp

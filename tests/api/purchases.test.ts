@@ -37,7 +37,7 @@ describe('purchases', () => {
     expect(changed.status).toBe(200)
     expect(changed.body.jobs).toEqual([expect.objectContaining({ jobId: a.id, netPence: 120_00 })])
     expect((await owner.get(`/api/purchases?jobId=${b.id}`)).body).toEqual([])
-    expect((await owner.delete(`/api/purchases/${made.body.id}`)).status).toBe(200)
+    expect((await owner.delete(`/api/purchases/${made.body.id}`)).status).toBe(204)
     expect((await owner.get(`/api/purchases/${made.body.id}`)).status).toBe(404)
   })
 

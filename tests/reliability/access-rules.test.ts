@@ -225,7 +225,10 @@ describe('the last owner cannot vanish (issue 13, case 3)', () => {
       const [ra, rb] = round % 2 ? [sent[1], sent[0]] : [sent[0], sent[1]]
       const pair = [ra!, rb!]
       const done = pair.filter(r => r.status === 200 || r.status === 204)
-      const no = pair.filter(r => r.status === 409 || r.status === 403)
+      // refused: 409 (the last owner), or 403 when the loser was demoted first, or 401 when the loser
+      // was removed first (their session ended with their membership) — on a busy machine either
+      // can come first
+      const no = pair.filter(r => r.status === 409 || r.status === 403 || (removing && r.status === 401))
       expect(await owners(), `round ${round}: ${pair.map(r => r.status)}`).toBeGreaterThanOrEqual(1)
       expect(done.length, `round ${round}: ${pair.map(r => r.status)}`).toBe(1)
       expect(no.length).toBe(1)

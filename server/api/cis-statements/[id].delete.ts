@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
   const keys = await withFirm(auth, async (f) => {
-    await findCisStatement(f, id, true)
+    await findOr404(f, cisStatements, id, { lock: true })
     const docs = await f.tx.select({ storageKey: documents.storageKey }).from(documents).where(f.where(documents, eq(documents.cisStatementId, id)))
     await f.tx.delete(cisStatements).where(f.where(cisStatements, eq(cisStatements.id, id)))
     await f.audit('cis-statement.removed', 'cis-statement', id, {})

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, cisStatementSchema)
   return withFirm(auth, async (f) => {
-    await findCisStatement(f, id, true)
+    await findOr404(f, cisStatements, id, { lock: true })
     await checkContractor(f, input.customerId)
     const [clash] = await f.tx.select({ id: cisStatements.id }).from(cisStatements)
       .where(f.where(cisStatements, and(eq(cisStatements.customerId, input.customerId), eq(cisStatements.taxMonthStart, input.taxMonthStart), ne(cisStatements.id, id))))

@@ -1,5 +1,5 @@
 import { asc, desc, eq } from 'drizzle-orm'
-import { enquiries, sites, visits } from '../../db/schema'
+import { customers, enquiries, sites, visits } from '../../db/schema'
 import { idParam } from '#shared/schemas/common'
 
 /** One customer with their sites, enquiries and visits. */
@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'customers:read')
   const { id } = await readParamsWith(event, idParam)
   return withFirm(auth, async (f) => {
-    const customer = await findCustomer(f, id)
+    const customer = await findOr404(f, customers, id)
     const customerSites = await f.tx.select().from(sites).where(f.where(sites, eq(sites.customerId, id))).orderBy(asc(sites.createdAt))
     const customerEnquiries = await f.tx.select({ id: enquiries.id, status: enquiries.status, source: enquiries.source, description: enquiries.description, createdAt: enquiries.createdAt })
       .from(enquiries).where(f.where(enquiries, eq(enquiries.customerId, id))).orderBy(desc(enquiries.createdAt))

@@ -1,13 +1,10 @@
-import { z } from 'zod'
 import { customers, sites } from '../../db/schema'
-import { customerSchema, siteSchema } from '#shared/schemas/customer'
-
-const body = z.object({ customer: customerSchema, site: siteSchema.nullable().default(null) })
+import { newCustomerSchema } from '#shared/schemas/customer'
 
 /** A new customer, with their first site when given (often the billing address is where the work is). */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
-  const input = await readBodyWith(event, body)
+  const input = await readBodyWith(event, newCustomerSchema)
   const created = await withFirm(auth, async (f) => {
     const [c] = await f.tx.insert(customers).values(f.values(input.customer)).returning()
     let site = null

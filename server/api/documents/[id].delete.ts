@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
   const row = await withFirm(auth, async (f) => {
-    const doc = await findDocument(f, id)
+    const doc = await findOr404(f, documents, id)
     await f.tx.delete(documents).where(f.where(documents, eq(documents.id, id)))
     await f.audit('document.removed', doc.purchaseId ? 'purchase' : 'cis-statement', (doc.purchaseId ?? doc.cisStatementId)!, { documentId: id })
     return doc

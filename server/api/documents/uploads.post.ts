@@ -1,5 +1,5 @@
 import { documents } from '../../db/schema'
-import { DOCUMENT_TARGET_KEYS, documentTargetSchema } from '../../utils/documents'
+import { DOCUMENT_TARGET_KEYS, documentTargetSchema } from '#shared/schemas/photo'
 import { fieldErrors } from '#shared/schemas/common'
 
 /**

@@ -1,5 +1,5 @@
 import { asc, desc, eq } from 'drizzle-orm'
-import { enquiryEvents, users, visits } from '../../db/schema'
+import { customers, enquiries, enquiryEvents, users, visits } from '../../db/schema'
 import { idParam } from '#shared/schemas/common'
 
 /** One enquiry with its customer, site, history (who moved it, when) and visits. */
@@ -7,8 +7,8 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
   const { id } = await readParamsWith(event, idParam)
   return withFirm(auth, async (f) => {
-    const e = await findEnquiry(f, id)
-    const customer = await findCustomer(f, e.customerId)
+    const e = await findOr404(f, enquiries, id)
+    const customer = await findOr404(f, customers, e.customerId)
     const site = e.siteId ? await findSite(f, e.siteId) : null
     const history = await f.tx.select({ id: enquiryEvents.id, from: enquiryEvents.fromStatus, to: enquiryEvents.toStatus, reason: enquiryEvents.reason, at: enquiryEvents.at, by: users.name })
       .from(enquiryEvents).leftJoin(users, eq(users.id, enquiryEvents.byUserId))

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, enquiryUpdateSchema)
   return withFirm(auth, async (f) => {
-    const e = await findEnquiry(f, id, true)
+    const e = await findOr404(f, enquiries, id, { lock: true })
     if (input.siteId) await findSite(f, input.siteId, e.customerId).catch(() => badReference('siteId', 'Choose one of this customer\'s sites.'))
     const [updated] = await f.tx.update(enquiries).set({ ...input, updatedAt: sql`now()` }).where(f.where(enquiries, eq(enquiries.id, id))).returning()
     await f.audit('enquiry.updated', 'enquiry', id)

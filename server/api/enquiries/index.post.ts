@@ -1,4 +1,4 @@
-import { enquiries } from '../../db/schema'
+import { customers, enquiries } from '../../db/schema'
 import { enquirySchema } from '#shared/schemas/enquiry'
 
 /** Record an enquiry for a customer (and one of their sites). */
@@ -6,7 +6,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
   const input = await readBodyWith(event, enquirySchema)
   const created = await withFirm(auth, async (f) => {
-    await findCustomer(f, input.customerId).catch(() => badReference('customerId', 'Choose a customer of this firm.'))
+    await findOr404(f, customers, input.customerId).catch(() => badReference('customerId', 'Choose a customer of this firm.'))
     if (input.siteId) await findSite(f, input.siteId, input.customerId).catch(() => badReference('siteId', 'Choose one of this customer\'s sites.'))
     const [e] = await f.tx.insert(enquiries).values(f.values(input)).returning()
     await recordNewEnquiry(f, e!.id)

@@ -6,11 +6,12 @@ import { idParam } from '#shared/schemas/common'
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
-  return withFirm(auth, async (f) => {
-    const inv = await findInvoice(f, id, true)
+  await withFirm(auth, async (f) => {
+    const inv = await findOr404(f, invoices, id, { lock: true })
     if (inv.issuedOn) throw createError({ statusCode: 409, statusMessage: 'Issued', data: { message: 'An issued invoice is never deleted: correct it with a credit note.' } })
     await f.tx.delete(invoices).where(f.where(invoices, eq(invoices.id, id)))
     await f.audit('invoice.deleted', 'invoice', id, {})
-    return { deleted: true }
   })
+  setResponseStatus(event, 204)
+  return null
 })

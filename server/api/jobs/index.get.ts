@@ -1,14 +1,6 @@
 import { and, desc, eq, sql } from 'drizzle-orm'
-import { z } from 'zod'
 import { customers, jobs, sites } from '../../db/schema'
-import { JOB_STATUSES } from '#shared/utils/jobs'
-import { queryWholeNumber } from '#shared/schemas/common'
-
-const query = z.object({
-  status: z.enum(JOB_STATUSES, { error: 'Choose one of the job statuses.' }).optional(),
-  page: queryWholeNumber('A page', 1, 10_000, 1),
-  pageSize: queryWholeNumber('A page size', 1, 200, 50),
-})
+import { jobListQuery } from '#shared/schemas/job'
 
 /**
  * Jobs, newest first, a page at a time (a busy firm has tens of thousands), each with its first
@@ -16,7 +8,7 @@ const query = z.object({
  */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'jobs:read-assigned')
-  const { status, page, pageSize } = await readQueryWith(event, query)
+  const { status, page, pageSize } = await readQueryWith(event, jobListQuery)
   const money = can(auth.role, 'money:read')
   return withFirm(auth, async (f) => {
     // the first booked day of each job on the page only (job_days_person_unique answers it)

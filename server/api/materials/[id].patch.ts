@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, materialSchema)
   return withFirm(auth, async (f) => {
-    const before = await findMaterial(f, id)
+    const before = await findOr404(f, materials, id, { lock: true })
     const coverageChanged = before.coverageCm2PerPack !== input.coverageCm2PerPack || before.atThicknessMm !== input.atThicknessMm || before.coverageMmPerPack !== input.coverageMmPerPack
     const [row] = await f.tx.update(materials).set({ ...input, ...(coverageChanged ? { source: 'Coverage entered by the firm.' } : {}), updatedAt: sql`now()` })
       .where(f.where(materials, eq(materials.id, id))).returning()

@@ -1,3 +1,4 @@
+import { photoListQuery } from '#shared/schemas/photo'
 /** The photos of one enquiry, visit (with its surfaces' and conditions'), surface or condition. Any member of the firm. */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event)

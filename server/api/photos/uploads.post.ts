@@ -1,4 +1,5 @@
 import { photos, setLogPhotos } from '../../db/schema'
+import { PHOTO_TARGET_KEYS, photoListQuery } from '#shared/schemas/photo'
 
 /**
  * Upload one photo: multipart/form-data with the picture in `file`, what it belongs to in exactly
@@ -9,7 +10,7 @@ import { photos, setLogPhotos } from '../../db/schema'
  * 201 { id, width, height, url, thumbUrl }. 401, 403 (accountant), 404 (no such target in this
  * firm), 400 (no file, no or two targets), 413 (over the size limit, with or without
  * Content-Length), 415 (not multipart, or not a JPEG/PNG/WebP/HEIC photo), 422 (over 40
- * megapixels, or unreadable). Limits and reasons: server/utils/uploads.ts.
+ * megapixels, or unreadable). Limits and reasons: server/utils/multipart.ts and images.ts.
  */
 export default defineEventHandler(async (event) => {
   const maxFileBytes = uploadMaxBytes()

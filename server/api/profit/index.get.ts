@@ -1,3 +1,4 @@
+import { profitQuerySchema } from '#shared/schemas/profit'
 /**
  * Is the work paying? Each job whose last worked day falls in the period (at most 366 days),
  * optionally for one kind of customer: its price against its costs and the days it took, with the

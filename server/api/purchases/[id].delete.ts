@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
   const keys = await withFirm(auth, async (f) => {
-    await findPurchase(f, id, true)
+    await findOr404(f, purchases, id, { lock: true })
     const docs = await f.tx.select({ storageKey: documents.storageKey }).from(documents).where(f.where(documents, eq(documents.purchaseId, id)))
     await f.tx.delete(purchases).where(f.where(purchases, eq(purchases.id, id)))
     await f.audit('purchase.deleted', 'purchase', id, {})
@@ -15,5 +15,6 @@ export default defineEventHandler(async (event) => {
   })
   const store = useObjectStore()
   await Promise.allSettled(keys.map(k => store.remove(k)))
-  return { deleted: true }
+  setResponseStatus(event, 204)
+  return null
 })

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const { jobs: split, ...input } = await readBodyWith(event, purchaseSchema)
   return withFirm(auth, async (f) => {
-    await findPurchase(f, id, true)
+    await findOr404(f, purchases, id, { lock: true })
     await checkJobs(f, split)
     await f.tx.update(purchases).set({ ...input, updatedAt: sql`now()` }).where(f.where(purchases, eq(purchases.id, id)))
     await saveSplit(f, id, split)

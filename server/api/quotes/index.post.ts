@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm'
-import { firms, quotes, quoteVersions } from '../../db/schema'
+import { customers, enquiries, firms, quotes, quoteVersions } from '../../db/schema'
 import { newQuoteSchema } from '#shared/schemas/quote'
 import { addDays, londonToday } from '#shared/utils/dates'
 
@@ -12,10 +12,10 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
   const input = await readBodyWith(event, newQuoteSchema)
   const created = await withFirm(auth, async (f) => {
-    const customer = await findCustomer(f, input.customerId).catch(() => badReference('customerId', 'Choose a customer of this firm.'))
+    const customer = await findOr404(f, customers, input.customerId).catch(() => badReference('customerId', 'Choose a customer of this firm.'))
     if (input.siteId) await findSite(f, input.siteId, customer.id).catch(() => badReference('siteId', 'Choose one of this customer\'s sites.'))
     if (input.enquiryId) {
-      const e = await findEnquiry(f, input.enquiryId).catch(() => badReference('enquiryId', 'That enquiry is not in this firm.'))
+      const e = await findOr404(f, enquiries, input.enquiryId).catch(() => badReference('enquiryId', 'That enquiry is not in this firm.'))
       if (e.customerId !== customer.id) badReference('enquiryId', 'That enquiry is for another customer.')
     }
     if (input.visitId) {

@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   await withFirm(auth, async (f) => {
     await lockTeam(f)
-    const m = await findMembership(f, id)
+    const m = await findOr404(f, memberships, id, { lock: true })
     if (m.role === 'owner') await assertAnotherOwner(f, id)
     await f.tx.delete(memberships).where(f.where(memberships, eq(memberships.id, id)))
     await endAccessToFirm(f, m.userId)

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const { role } = await readBodyWith(event, changeRoleSchema)
   return withFirm(auth, async (f) => {
     await lockTeam(f)
-    const m = await findMembership(f, id)
+    const m = await findOr404(f, memberships, id, { lock: true })
     if (m.role === role) return { id, role }
     if (m.role === 'owner') await assertAnotherOwner(f, id)
     await f.tx.update(memberships).set({ role, updatedAt: sql`now()` }).where(f.where(memberships, eq(memberships.id, id)))

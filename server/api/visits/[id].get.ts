@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm'
-import { users } from '../../db/schema'
+import { customers, users } from '../../db/schema'
 import { idParam } from '#shared/schemas/common'
 
 /** One visit with its customer, site and visitor. Crew: their own visits only, and no billing details. */
@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   return withFirm(auth, async (f) => {
     const v = await findVisit(f, auth, id)
-    const customer = await findCustomer(f, v.customerId)
+    const customer = await findOr404(f, customers, v.customerId)
     const site = await findSite(f, v.siteId)
     const [visitor] = v.visitorUserId ? await f.tx.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, v.visitorUserId)) : []
     const seesBilling = can(auth.role, 'customers:read')

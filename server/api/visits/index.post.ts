@@ -1,4 +1,4 @@
-import { visits } from '../../db/schema'
+import { customers, enquiries, visits } from '../../db/schema'
 import { visitSchema } from '#shared/schemas/visit'
 
 /** Book a site visit. Booking one for a new enquiry moves it to "visit booked". */
@@ -6,11 +6,11 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
   const input = await readBodyWith(event, visitSchema)
   const visit = await withFirm(auth, async (f) => {
-    await findCustomer(f, input.customerId).catch(() => badReference('customerId', 'Choose a customer of this firm.'))
+    await findOr404(f, customers, input.customerId).catch(() => badReference('customerId', 'Choose a customer of this firm.'))
     await findSite(f, input.siteId, input.customerId).catch(() => badReference('siteId', 'Choose one of this customer\'s sites.'))
     if (input.visitorUserId && !(await isMember(f, input.visitorUserId))) badReference('visitorUserId', 'Choose someone in the firm.')
     if (input.enquiryId) {
-      const e = await findEnquiry(f, input.enquiryId).catch(() => badReference('enquiryId', 'That enquiry is not in this firm.'))
+      const e = await findOr404(f, enquiries, input.enquiryId).catch(() => badReference('enquiryId', 'That enquiry is not in this firm.'))
       if (e.customerId !== input.customerId) badReference('enquiryId', 'That enquiry is for another customer.')
       if (e.status === 'new') await moveEnquiry(f, e.id, 'visit-booked', null)
     }

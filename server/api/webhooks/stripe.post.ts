@@ -1,9 +1,7 @@
 import type Stripe from 'stripe'
-import { and, eq, lt, sql } from 'drizzle-orm'
-import { z } from 'zod'
+import { eq, lt, sql } from 'drizzle-orm'
 import { customers, firms, invoices, payments, stripeEvents } from '../../db/schema'
-
-const metadataSchema = z.object({ firmId: z.uuid(), invoiceId: z.uuid() })
+import { stripePaymentMetadataSchema } from '#shared/schemas/invoice'
 
 /**
  * Stripe's webhook. The raw body is checked against the Stripe-Signature header (400 otherwise,
@@ -25,7 +23,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 400, statusMessage: 'Bad signature' })
   }
   const obj = evt.data.object as unknown as { metadata?: Record<string, string> }
-  const meta = metadataSchema.safeParse(obj.metadata ?? {})
+  const meta = stripePaymentMetadataSchema.safeParse(obj.metadata ?? {})
   if (!meta.success) return { received: true, outcome: 'not ours' }
   const { firmId, invoiceId } = meta.data
 
@@ -35,7 +33,7 @@ export default defineEventHandler(async (event) => {
     if (!firm) return 'not ours'
     const [fresh] = await f.tx.insert(stripeEvents).values({ firmId, eventId: evt.id, type: evt.type }).onConflictDoNothing().returning()
     if (!fresh) return 'duplicate'
-    const done = (o: string) => f.tx.update(stripeEvents).set({ outcome: o }).where(and(eq(stripeEvents.firmId, firmId), eq(stripeEvents.eventId, evt.id))).then(() => o)
+    const done = (o: string) => f.tx.update(stripeEvents).set({ outcome: o }).where(f.where(stripeEvents, eq(stripeEvents.eventId, evt.id))).then(() => o)
     const [inv] = await f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, invoiceId))).for('update')
     if (!inv || !inv.issuedOn) return done('no such invoice')
 

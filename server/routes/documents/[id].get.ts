@@ -1,3 +1,4 @@
+import { documents } from '../../db/schema'
 import { idParam } from '#shared/schemas/common'
 
 /**
@@ -8,7 +9,7 @@ import { idParam } from '#shared/schemas/common'
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:read')
   const { id } = await readParamsWith(event, idParam)
-  const row = await withFirm(auth, f => findDocument(f, id))
+  const row = await withFirm(auth, f => findOr404(f, documents, id))
   const data = await useObjectStore().get(row.storageKey)
   if (!data) {
     console.error('[documents] stored object missing for document', id)

@@ -1,4 +1,5 @@
 import { UTF8_BOM } from '#shared/utils/csv'
+import { profitQuerySchema } from '#shared/schemas/profit'
 
 /**
  * The profit table as a CSV download for the accountant: the same rows as GET /api/profit (at /exports/profit.csv), amounts

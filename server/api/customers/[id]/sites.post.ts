@@ -1,4 +1,4 @@
-import { sites } from '../../../db/schema'
+import { customers, sites } from '../../../db/schema'
 import { siteSchema } from '#shared/schemas/customer'
 import { idParam } from '#shared/schemas/common'
 
@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, siteSchema)
   const site = await withFirm(auth, async (f) => {
-    await findCustomer(f, id)
+    await findOr404(f, customers, id)
     const [s] = await f.tx.insert(sites).values(f.values({ ...input, customerId: id })).returning()
     await f.audit('site.created', 'site', s!.id, { customerId: id })
     return s!

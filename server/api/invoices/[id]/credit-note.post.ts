@@ -6,7 +6,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
   return withFirm(auth, async (f) => {
-    const inv = await findInvoice(f, id, true)
+    const inv = await findOr404(f, invoices, id, { lock: true })
     if (!inv.issuedOn || inv.kind === 'credit-note') throw createError({ statusCode: 409, statusMessage: 'Not creditable', data: { message: inv.kind === 'credit-note' ? 'A credit note is not credited: issue an invoice instead.' : 'A draft is changed or deleted, not credited.' } })
     const lines = await linesOf(f, id)
     const [note] = await f.tx.insert(invoices).values(f.values({

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, invoiceDraftSchema)
   return withFirm(auth, async (f) => {
-    const inv = await findInvoice(f, id, true)
+    const inv = await findOr404(f, invoices, id, { lock: true })
     if (inv.issuedOn) throw createError({ statusCode: 409, statusMessage: 'Issued', data: { message: 'This invoice has been issued; it stays as it is. Correct it with a credit note.' } })
     // any treatment other than the one suggested for this firm and customer needs its reason, every save
     const suggested = await suggestedVatFor(f, inv.customerId)

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm'
-import { customers, firms } from '../../../db/schema'
+import { customers, firms, invoices } from '../../../db/schema'
 import { idParam } from '#shared/schemas/common'
 
 /**
@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
   const issued = await withFirm(auth, async (f) => {
-    const inv = await findInvoice(f, id)
+    const inv = await findOr404(f, invoices, id)
     const [customer] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
     if (inv.kind !== 'credit-note' && !customer!.email) throw fieldError({ email: `${customer!.name} has no e-mail address: add one on their page first.` })
     const { token } = await issueInvoice(f, id)

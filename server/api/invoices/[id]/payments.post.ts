@@ -1,3 +1,4 @@
+import { invoices } from '../../../db/schema'
 import { idParam } from '#shared/schemas/common'
 import { paymentSchema } from '#shared/schemas/invoice'
 
@@ -12,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, paymentSchema)
   return withFirm(auth, async (f) => {
-    const inv = await findInvoice(f, id, true)
+    const inv = await findOr404(f, invoices, id, { lock: true })
     const repeat = await paymentByRequest(f, input.requestId)
     if (repeat) {
       if (repeat.invoiceId !== id) throw createError({ statusCode: 409, statusMessage: 'Already recorded', data: { message: 'That payment was already recorded against another invoice.' } })

@@ -1,15 +1,7 @@
 import { eq } from 'drizzle-orm'
-import { z } from 'zod'
-import { payments } from '../../../db/schema'
-import { idParam, text } from '#shared/schemas/common'
-
-const schema = z.object({
-  paymentId: z.uuid({ error: 'Choose the payment to refund.' }),
-  amountPence: z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter the amount to refund.' }).max(1_000_000_00),
-  reference: text().trim().max(200).default(''),
-  /** One per refund the person means to make (the form makes it): a repeat of the same request is one refund. */
-  requestId: z.uuid({ error: 'That is not a request id.' }).optional(),
-})
+import { invoices, payments } from '../../../db/schema'
+import { idParam } from '#shared/schemas/common'
+import { refundSchema } from '#shared/schemas/invoice'
 
 /**
  * Refund a payment, in part or in full. A card payment is refunded through Stripe and recorded
@@ -19,9 +11,9 @@ const schema = z.object({
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
-  const input = await readBodyWith(event, schema)
+  const input = await readBodyWith(event, refundSchema)
   const card = await withFirm(auth, async (f) => {
-    await findInvoice(f, id, true)
+    await findOr404(f, invoices, id, { lock: true })
     const [p] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.id, input.paymentId), eq(payments.invoiceId, id)))
     if (!p || p.amountPence <= 0) throw fieldError({ paymentId: 'Choose one of this invoice\'s payments.' })
     const refunded = (await f.tx.select().from(payments).where(f.where(payments, eq(payments.invoiceId, id))))

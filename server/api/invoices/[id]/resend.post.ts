@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:write')
   const { id } = await readParamsWith(event, idParam)
   return withFirm(auth, async (f) => {
-    const inv = await findInvoice(f, id, true)
+    const inv = await findOr404(f, invoices, id, { lock: true })
     if (!inv.issuedOn || inv.kind === 'credit-note') {
       throw createError({ statusCode: 409, statusMessage: 'Not sent', data: { message: inv.issuedOn ? 'A credit note has no payment link to send.' : 'This invoice is a draft: issue it to send it.' } })
     }

@@ -1,3 +1,4 @@
+import { formKeyParam } from '#shared/schemas/links'
 /** Public: the firm's name for its enquiry form page. */
 export default defineEventHandler(async (event) => {
   const { key } = await readParamsWith(event, formKeyParam)

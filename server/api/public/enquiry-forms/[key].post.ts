@@ -1,6 +1,7 @@
 import { eq, sql } from 'drizzle-orm'
 import { customers, enquiries, sites } from '../../../db/schema'
 import { publicEnquirySchema } from '#shared/schemas/enquiry'
+import { formKeyParam } from '#shared/schemas/links'
 
 /**
  * Public: someone asks the firm for work. No sign-in. Validated like any input, a honeypot

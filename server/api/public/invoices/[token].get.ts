@@ -1,3 +1,4 @@
+import { invoiceTokenParam } from '#shared/schemas/links'
 /** Public: the invoice behind a customer's link, and nothing else of the firm's. */
 export default defineEventHandler(async (event) => {
   const { token } = await readParamsWith(event, invoiceTokenParam)

@@ -1,5 +1,5 @@
 import { eq, sql } from 'drizzle-orm'
-import { customers, firms, quoteVersions } from '../../../db/schema'
+import { customers, firms, quotes, quoteVersions } from '../../../db/schema'
 import { quoteVersionSchema } from '#shared/schemas/quote'
 import { idParam } from '#shared/schemas/common'
 
@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const input = await readBodyWith(event, quoteVersionSchema)
   return withFirm(auth, async (f) => {
-    const quote = await findQuote(f, id, true)
+    const quote = await findOr404(f, quotes, id, { lock: true })
     const version = await currentVersion(f, quote, true)
     if (version.status !== 'draft') {
       throw createError({ statusCode: 409, statusMessage: 'Quote already sent', data: { message: 'This version has been sent, so it stays as it is. Make a revision to change it.' } })

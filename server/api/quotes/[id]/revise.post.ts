@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
   const { id } = await readParamsWith(event, idParam)
   return withFirm(auth, async (f) => {
-    const quote = await findQuote(f, id, true)
+    const quote = await findOr404(f, quotes, id, { lock: true })
     const version = await currentVersion(f, quote, true)
     if (version.status === 'draft') throw createError({ statusCode: 409, statusMessage: 'Already a draft', data: { message: 'The current version is still a draft: change it directly.' } })
     if (version.status === 'accepted' || await anyAccepted(f, id)) throw createError({ statusCode: 409, statusMessage: 'Already accepted', data: { message: 'The customer accepted this quote; it is not revised. For more work, make a new quote.' } })

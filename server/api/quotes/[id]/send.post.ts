@@ -1,5 +1,5 @@
 import { and, eq, ne, sql } from 'drizzle-orm'
-import { customers, enquiries, quoteVersions } from '../../../db/schema'
+import { customers, enquiries, quotes, quoteVersions } from '../../../db/schema'
 import { idParam } from '#shared/schemas/common'
 
 /**
@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await readParamsWith(event, idParam)
   const token = newToken()
   const sent = await withFirm(auth, async (f) => {
-    const quote = await findQuote(f, id, true)
+    const quote = await findOr404(f, quotes, id, { lock: true })
     const version = await currentVersion(f, quote, true)
     if (version.status !== 'draft') throw createError({ statusCode: 409, statusMessage: 'Already sent', data: { message: 'This version has already been sent.' } })
     if (await anyAccepted(f, id)) throw createError({ statusCode: 409, statusMessage: 'Already accepted', data: { message: 'The customer has accepted an earlier version of this quote, so this one is not sent. For more work, make a new quote.' } })

@@ -1,3 +1,4 @@
+import { invoiceTokenParam } from '#shared/schemas/links'
 /** Public: the customer's PDF of their invoice, by the link they were sent (`/i/<token>/pdf`). */
 export default defineEventHandler(async (event) => {
   const { token } = await readParamsWith(event, invoiceTokenParam)

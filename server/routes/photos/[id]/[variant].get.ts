@@ -1,6 +1,4 @@
-import { z } from 'zod'
-
-const params = z.object({ id: z.uuid(), variant: z.enum(['full', 'thumb']) })
+import { photoVariantParams } from '#shared/schemas/photo'
 
 /**
  * The bytes of a photo (`full`) or its thumbnail (`thumb`), to a signed-in member of its firm
@@ -9,7 +7,7 @@ const params = z.object({ id: z.uuid(), variant: z.enum(['full', 'thumb']) })
  */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event)
-  const { id, variant } = await readParamsWith(event, params)
+  const { id, variant } = await readParamsWith(event, photoVariantParams)
   const row = await withFirm(auth, f => findPhoto(f, auth, id))
   const data = await useObjectStore().get(variant === 'thumb' ? row.thumbKey : row.storageKey)
   if (!data) {

@@ -1,3 +1,4 @@
+import { quoteTokenParam } from '#shared/schemas/links'
 /**
  * Public: the customer's PDF of their quote, by the link they were sent (`/q/<token>/pdf`);
  * a wrong or expired link is the same 404 as the JSON view's.

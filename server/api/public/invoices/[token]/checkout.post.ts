@@ -1,5 +1,6 @@
 import { count, eq } from 'drizzle-orm'
 import { payments } from '../../../../db/schema'
+import { invoiceTokenParam } from '#shared/schemas/links'
 
 /** Stripe's smallest card charge in pounds sterling (Stripe's "minimum and maximum charge amounts", from memory). */
 const MIN_CARD_PENCE = 30

@@ -1,16 +1,14 @@
 import { eq, sql } from 'drizzle-orm'
-import { z } from 'zod'
-import { quoteVersions } from '../../../../db/schema'
-import { text } from '#shared/schemas/common'
-
-const body = z.object({ name: text({ error: 'Type your name to accept.' }).trim().min(2, { error: 'Type your full name to accept.' }).max(120) })
+import { enquiries, quoteVersions } from '../../../../db/schema'
+import { acceptQuoteSchema } from '#shared/schemas/quote'
+import { quoteTokenParam } from '#shared/schemas/links'
 
 const REVISED = 'The firm has revised this quote since it was sent, so this version can no longer be accepted. They will send you the new version; if it has not arrived, give them a ring.'
 
 /** Public: the customer accepts, typing their name; the time and address are kept. Once only (409 after). */
 export default defineEventHandler(async (event) => {
   const { token } = await readParamsWith(event, quoteTokenParam)
-  const { name } = await readBodyWith(event, body)
+  const { name } = await readBodyWith(event, acceptQuoteSchema)
   const ip = getRequestIP(event) ?? ''
   const result = await useDb().transaction(async (tx) => {
     const { f, quote, version } = await openQuoteByToken(tx, token, true)
@@ -28,7 +26,7 @@ export default defineEventHandler(async (event) => {
     }
     if (quote.enquiryId) {
       // the enquiry follows: quoted (if it was not yet), then won
-      let status = (await findEnquiry(f, quote.enquiryId, true)).status
+      let status = (await findOr404(f, enquiries, quote.enquiryId, { lock: true })).status
       if (status !== 'quoted' && canMoveEnquiry(status, 'quoted')) {
         await moveEnquiry(f, quote.enquiryId, 'quoted', null)
         status = 'quoted'

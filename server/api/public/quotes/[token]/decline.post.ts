@@ -1,21 +1,19 @@
 import { eq, sql } from 'drizzle-orm'
-import { z } from 'zod'
-import { quoteVersions } from '../../../../db/schema'
-import { text } from '#shared/schemas/common'
-
-const body = z.object({ reason: text({ error: 'Tell the firm why, so they can do better.' }).trim().min(2, { error: 'Tell the firm why (a few words is fine).' }).max(1000) })
+import { enquiries, quoteVersions } from '../../../../db/schema'
+import { declineQuoteSchema } from '#shared/schemas/quote'
+import { quoteTokenParam } from '#shared/schemas/links'
 
 /** Public: the customer declines with a reason. Once only (409 after). */
 export default defineEventHandler(async (event) => {
   const { token } = await readParamsWith(event, quoteTokenParam)
-  const { reason } = await readBodyWith(event, body)
+  const { reason } = await readBodyWith(event, declineQuoteSchema)
   const result = await useDb().transaction(async (tx) => {
     const { f, quote, version } = await openQuoteByToken(tx, token, true)
     if (version.status !== 'sent') throw createError({ statusCode: 409, statusMessage: 'Already answered', data: { message: 'This quote has already been answered.' } })
     await tx.update(quoteVersions).set({ status: 'declined', respondedAt: sql`now()`, declineReason: reason, respondedIp: getRequestIP(event) ?? '' })
       .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
     if (quote.enquiryId) {
-      const e = await findEnquiry(f, quote.enquiryId, true)
+      const e = await findOr404(f, enquiries, quote.enquiryId, { lock: true })
       if (canMoveEnquiry(e.status, 'lost')) await moveEnquiry(f, quote.enquiryId, 'lost', `Quote declined: ${reason}`)
     }
     await f.audit('quote.declined', 'quote', quote.id, { version: version.version })

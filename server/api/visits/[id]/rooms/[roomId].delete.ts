@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { rooms } from '../../../../db/schema'
+import { roomParams } from '#shared/schemas/room'
 
 /** Delete a room and everything measured in it. Owner, office, and crew on their own visits. */
 export default defineEventHandler(async (event) => {

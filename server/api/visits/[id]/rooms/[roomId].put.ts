@@ -1,6 +1,6 @@
 import { eq, notInArray, sql } from 'drizzle-orm'
 import { conditions, corners, openings, rooms, surfaces } from '../../../../db/schema'
-import { roomSchema } from '#shared/schemas/room'
+import { roomParams, roomSchema } from '#shared/schemas/room'
 
 /**
  * Create or replace a room, whole: the phone made every id, so a draft kept offline saves to the
