@@ -218,8 +218,7 @@ export async function issueInvoice(f: FirmScope, id: string) {
   if (inv.kind === 'credit-note' && inv.creditsInvoiceId) await assertCreditFits(f, inv.creditsInvoiceId, id, totals.grossPence)
   if (inv.jobId && inv.kind !== 'credit-note') await assertWithinJobPrice(f, inv.jobId)
   // the firm's row is locked before its prefixes are read: numbering and prefixes change one at a time
-  await f.tx.execute(sql`select 1 from firms where id = ${f.firmId} for update`)
-  const [firm] = await f.tx.select().from(firms).where(eq(firms.id, f.firmId))
+  const [firm] = await f.tx.select().from(firms).where(eq(firms.id, f.firmId)).for('update')
   const series = inv.kind === 'credit-note' && firm!.creditNoteNumbering === 'own' ? 'credit-note' as const : 'invoice' as const
   const number = await nextInvoiceNumber(f, series)
   const prefix = series === 'credit-note' ? firm!.creditNotePrefix : firm!.invoicePrefix

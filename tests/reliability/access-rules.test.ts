@@ -11,6 +11,7 @@ import { startApp, type TestApp } from '../support/app'
 import { Client, GOOD_PASSWORD, signUpFirm, uniqueEmail, type ApiResponse } from '../support/client'
 import { invitationToken, inviteAndJoin } from '../api/support'
 import { firmRowCounts, ownerDb } from './support'
+import { statuses, together } from './race'
 
 let app: TestApp
 
@@ -57,22 +58,6 @@ function sendFrom(localAddress: string, method: string, path: string, body?: unk
     req.end()
   })
 }
-
-/** Start `n` calls at the same moment: each waits at the barrier until all are ready. */
-async function together<T>(n: number, fn: (i: number) => Promise<T>): Promise<T[]> {
-  let release!: () => void
-  const barrier = new Promise<void>((r) => {
-    release = r
-  })
-  const calls = Array.from({ length: n }, async (_, i) => {
-    await barrier
-    return fn(i)
-  })
-  release()
-  return Promise.all(calls)
-}
-
-const statuses = (rs: ApiResponse[]) => rs.reduce<Record<number, number>>((acc, r) => ({ ...acc, [r.status]: (acc[r.status] ?? 0) + 1 }), {})
 
 /** The newest mail to `to` whose subject matches (waitForMail gives the first). */
 async function latestMail(to: string, subject: RegExp, after: number) {

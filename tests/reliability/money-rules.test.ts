@@ -252,7 +252,7 @@ describe('payments', () => {
 
   it('never records a card refund larger than the payment it refunds', async () => {
     const { invoice } = await issuedInvoice(150_00)
-    const [{ token }] = [{ token: await linkToken(invoice.reference) }]
+    const token = await linkToken(invoice.reference)
     const checkout = await new Client(app.url).post(`/api/public/invoices/${token}/checkout`)
     expect(checkout.status, show(checkout)).toBe(200)
     const sessionId = new URL(checkout.body.url).pathname.split('/').pop()!

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { signUpFirm, uniqueEmail, type ApiResponse, type Client } from '../support/client'
 import { queryAsFirm } from '../support/db'
+import { together } from './race'
 
 // Removing a customer or a site while someone records work for it (issue 13, item 9). Each round
 // releases, together, the removal and requests that name the customer (enquiries, a job, an
@@ -37,19 +38,8 @@ async function customer(i: number) {
   return res.body as { id: string, sites: { id: string }[] }
 }
 
-/** Start every request at once: each is built first, then all are sent in one turn of the event loop. */
-async function together(requests: (() => Promise<ApiResponse>)[]) {
-  let open!: () => void
-  const barrier = new Promise<void>((resolve) => {
-    open = resolve
-  })
-  const running = requests.map(async (send) => {
-    await barrier
-    return send()
-  })
-  open()
-  return Promise.all(running)
-}
+/** Every request built first, then all released at once. */
+const togetherAll = (requests: (() => Promise<ApiResponse>)[]) => together(requests.length, i => requests[i]!())
 
 describe('removing a customer while work is recorded for them', () => {
   it(`never answers 5xx and never loses acknowledged work, over ${ROUNDS} rounds`, async () => {
@@ -58,7 +48,7 @@ describe('removing a customer while work is recorded for them', () => {
     for (let round = 0; round < ROUNDS; round++) {
       const c = await customer(round)
       const siteId = c.sites[0]!.id
-      const [removal, ...creations] = await together([
+      const [removal, ...creations] = await togetherAll([
         () => owner.delete(`/api/customers/${c.id}`),
         () => owner.post('/api/enquiries', { customerId: c.id, siteId, source: 'phone', description: `Round ${round}: skim the hall` }),
         () => owner.post('/api/enquiries', { customerId: c.id, source: 'message', description: `Round ${round}: patch a ceiling` }),
@@ -108,7 +98,7 @@ describe('removing a customer while work is recorded for them', () => {
       const spare = await owner.post(`/api/customers/${c.id}/sites`, { line1: `${round} Spare Row`, town: 'Kettlebury', postcode: 'KB7 7SS' })
       expect(spare.status, short(spare)).toBe(201)
       const siteId = spare.body.id as string
-      const [removal, job] = await together([
+      const [removal, job] = await togetherAll([
         () => owner.delete(`/api/sites/${siteId}`),
         () => owner.post('/api/jobs', { customerId: c.id, siteId, title: `Round ${round}: skim the box room` }),
       ])

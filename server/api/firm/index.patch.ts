@@ -1,4 +1,4 @@
-import { and, eq, ne, sql } from 'drizzle-orm'
+import { eq, ne, sql } from 'drizzle-orm'
 import { firms, invoices } from '../../db/schema'
 import { firmSettingsSchema } from '#shared/schemas/firm'
 import { prefixesClash } from '#shared/utils/invoices'
@@ -30,7 +30,7 @@ export default defineEventHandler(async (event) => {
         if (used) throw fieldError({ [field]: `${used.reference} is already ${series === 'invoice' ? 'a credit note' : 'an invoice'} reference: pick a prefix that is not used by the ${series === 'invoice' ? 'credit notes' : 'invoices'}.` })
       }
     }
-    const [firm] = await f.tx.update(firms).set(input).where(and(eq(firms.id, f.firmId))).returning()
+    const [firm] = await f.tx.update(firms).set(input).where(eq(firms.id, f.firmId)).returning()
     if (!firm) notFound()
     await f.audit('firm.updated', 'firm', f.firmId, { fields: Object.keys(input) })
     return firm
