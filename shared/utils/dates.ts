@@ -11,7 +11,7 @@
 //   every day is 24 hours long, and written back as YYYY-MM-DD (files, the database, URLs).
 // - A date that is not a real YYYY-MM-DD date is a RangeError (naming the field where one is given).
 import { addDays as dfAddDays, addMonths as dfAddMonths, differenceInCalendarDays, endOfMonth, format, getDaysInMonth, startOfISOWeek, startOfMonth } from 'date-fns'
-import { tz } from '@date-fns/tz'
+import { TZDate, tz } from '@date-fns/tz'
 
 /** Britain's time zone (GMT in winter, BST in summer). */
 export const LONDON_TZ = 'Europe/London'
@@ -204,4 +204,20 @@ export function shortDayTime(at: Date): string {
 /** "4 Dec, 14:22": the same without the weekday (a reminder sent, a log entry). */
 export function dayMonthTime(at: Date): string {
   return `${dayMonth(at)}, ${londonTime(at)}`
+}
+
+const HH_MM = /^([01]\d|2[0-3]):([0-5]\d)$/
+
+/**
+ * The instant London's clocks read `hhmm` ("08:30") on the ISO day: what a plasterer types on site.
+ * A time the clocks skip (01:30 on the last Sunday of March) is taken an hour on (02:30 BST); a time
+ * they show twice (01:30 on the last Sunday of October) is the second one (GMT). Null when the time
+ * is not HH:MM; a RangeError when the day is not an ISO date.
+ */
+export function londonInstant(isoDate: string, hhmm: string): Date | null {
+  const time = HH_MM.exec(hhmm)
+  if (!time) return null
+  const day = isoDay(isoDate)
+  const at = new TZDate(day.getUTCFullYear(), day.getUTCMonth(), day.getUTCDate(), Number(time[1]), Number(time[2]), 0, LONDON_TZ)
+  return new Date(at.getTime())
 }

@@ -116,7 +116,7 @@ describe('inviting a crew member', () => {
     await member.getByRole('button', { name: 'Remove' }).click()
     await ask.getByRole('button', { name: `Remove ${name}` }).click()
     await expectText(owner.getByRole('status').filter({ hasText: 'was removed' }), `${name} was removed.`)
-    expect(await owner.getByTestId('member').filter({ hasText: email }).count()).toBe(0)
+    await expectAbsent(owner.getByTestId('member').filter({ hasText: email }))
     await visit(invitee, `${e2e.url}/`)
     await expectPath(invitee, '/sign-in')
 

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import { addDays, addMonths, compareDays, dayAndMonth, dayMonth, dayMonthTime, daysBetween, daysBefore, daysInMonth, fullDate, isIsoDate, londonDay, londonTime, londonToday, longDate, longIsoDate, monthAndYear, monthBounds, shortDay, shortDayTime, weekBounds } from '../../shared/utils/dates'
+import { addDays, addMonths, compareDays, dayAndMonth, dayMonth, dayMonthTime, daysBetween, daysBefore, daysInMonth, fullDate, isIsoDate, londonDay, londonInstant, londonTime, londonToday, longDate, longIsoDate, monthAndYear, monthBounds, shortDay, shortDayTime, weekBounds } from '../../shared/utils/dates'
 import { todayIso } from '../../server/utils/invoices'
 
 // Sources, beside each case:
@@ -143,6 +143,24 @@ describe('calendar arithmetic on ISO dates (' + CALENDAR + ')', () => {
   })
 })
 
+describe('londonInstant: the instant London\'s clocks read a time on a day', () => {
+  it.each<[string, string, string, string | null]>([
+    ['a winter time is UTC', '2026-12-04', '08:30', '2026-12-04T08:30:00.000Z'],
+    ['a summer time is an hour behind in UTC', '2026-07-01', '23:10', '2026-07-01T22:10:00.000Z'],
+    ['00:30 on 29 March 2026 is still GMT', '2026-03-29', '00:30', '2026-03-29T00:30:00.000Z'],
+    ['01:30 on 29 March 2026 does not exist: taken as 02:30 BST', '2026-03-29', '01:30', '2026-03-29T01:30:00.000Z'],
+    ['02:30 on 29 March 2026 is BST', '2026-03-29', '02:30', '2026-03-29T01:30:00.000Z'],
+    ['00:30 on 25 October 2026 is still BST', '2026-10-25', '00:30', '2026-10-24T23:30:00.000Z'],
+    ['01:30 on 25 October 2026 happens twice: the second, GMT', '2026-10-25', '01:30', '2026-10-25T01:30:00.000Z'],
+    ['midnight on the leap day', '2028-02-29', '00:00', '2028-02-29T00:00:00.000Z'],
+    ['the last minute of the year', '2026-12-31', '23:59', '2026-12-31T23:59:00.000Z'],
+    ['not a time', '2026-12-04', '8.30', null],
+    ['not an hour of the day', '2026-12-04', '24:00', null],
+  ])('%s (' + CLOCKS + ')', (_what, day, time, want) => expect(londonInstant(day, time)?.toISOString() ?? null).toBe(want))
+
+  it('a day that is not a real date is a RangeError', () => expect(() => londonInstant('2027-02-29', '08:00')).toThrow(RangeError))
+})
+
 describe('words for people (en-GB)', () => {
   it.each<[string, string, string]>([
     ['shortDay', shortDay('2026-12-04'), 'Fri 4 Dec'],
@@ -160,5 +178,7 @@ describe('words for people (en-GB)', () => {
     ['shortDayTime in summer is BST, an hour on from UTC', shortDayTime(new Date('2026-07-01T23:30:00Z')), 'Thu 2 Jul, 00:30'],
     ['dayMonthTime the hour after the clocks go back', dayMonthTime(new Date('2026-10-25T01:30:00Z')), '25 Oct, 01:30'],
     ['dayMonthTime the hour before the clocks go back (BST)', dayMonthTime(new Date('2026-10-25T00:30:00Z')), '25 Oct, 01:30'],
+    ['dayMonthTime in winter', dayMonthTime(new Date('2026-12-04T14:22:00Z')), '4 Dec, 14:22'],
+    ['dayMonthTime after midnight BST', dayMonthTime(new Date('2026-07-01T23:30:00Z')), '2 Jul, 00:30'],
   ])('%s: %s', (_what, got, want) => expect(got).toBe(want))
 })

@@ -1,0 +1,81 @@
+// The set log form's state: what is typed (a set done or a problem found), the set's surfaces and
+// coat filled in from the plan, who was there, the bags mixed, and the send. Nothing typed is lost
+// on an error; once saved, back to the job.
+import { londonTime, londonToday } from '#shared/utils/dates'
+import type { LogCoat } from '#shared/utils/jobs'
+import { coatForSet, setLogTimes } from '#shared/utils/set-log'
+
+type Job = ApiResponse<'/api/jobs/:id'>
+
+export function setLogForm(job: Job | null | undefined, me: { id: string } | undefined) {
+  const logged = new Set((job?.logs ?? []).map(l => l.setNumber).filter(Boolean))
+  const firstOpen = job?.plan.plan.sets.find(s => !logged.has(s.number))?.number ?? 1
+  const now = new Date()
+  return {
+    kind: 'set' as 'set' | 'problem',
+    setNumber: String(firstOpen),
+    coat: 'first' as LogCoat,
+    surfaceIds: [] as string[],
+    // the times are London's, as the job page shows them; a set is taken to have started two hours ago
+    day: londonToday(now),
+    start: londonTime(new Date(now.getTime() - 2 * 3600_000)),
+    end: londonTime(now),
+    userIds: [me?.id ?? ''] as string[],
+    bags: {} as Record<string, string>,
+    coldOrDamp: false,
+    notes: '',
+  }
+}
+export type SetLogForm = ReturnType<typeof setLogForm>
+
+export function useSetLogForm(job: Ref<Job | null | undefined>) {
+  const shell = useShellStore()
+  const form = ref(setLogForm(job.value, shell.me?.user))
+  const logged = computed(() => new Set((job.value?.logs ?? []).map(l => l.setNumber).filter(Boolean)))
+
+  function fillFromSet() {
+    const set = job.value?.plan.plan.sets.find(s => String(s.number) === form.value.setNumber)
+    if (!set) return
+    form.value.surfaceIds = [...new Set(set.tasks.map(t => t.surfaceId))]
+    form.value.coat = coatForSet(set.tasks)
+  }
+  fillFromSet()
+  watch(() => form.value.setNumber, fillFromSet)
+
+  const people = computed(() => {
+    const seen = new Map<string, string>()
+    if (shell.me) seen.set(shell.me.user.id, shell.me.user.name)
+    for (const d of job.value?.days ?? []) seen.set(d.userId, d.name)
+    return [...seen].map(([value, label]) => ({ value, label }))
+  })
+  const surfaces = computed(() => (job.value?.plan.surfaces ?? []).map(s => ({ value: s.id, label: job.value?.plan.labels[s.id] ?? s.id })))
+  const mixable = computed(() => (job.value?.materials ?? []).filter(m => m.materialId))
+
+  let body: Record<string, unknown> = {}
+  const save = useSubmit(async () => {
+    await $fetch(`/api/jobs/${job.value!.id}/logs`, { method: 'POST', body })
+    await navigateTo(`/jobs/${job.value!.id}`)
+  })
+
+  async function submit() {
+    const f = form.value
+    const local: Record<string, string> = {}
+    const materials: { materialId: string, packsX1000: number }[] = []
+    for (const m of mixable.value) {
+      const typed = (f.bags[m.materialId!] ?? '').trim()
+      if (!typed) continue
+      const x = parseQuantity(typed)
+      if (x === null || x === 0) local[`bags.${m.materialId}`] = 'Enter the bags mixed, like 1.5.'
+      else materials.push({ materialId: m.materialId!, packsX1000: x })
+    }
+    const times = f.kind === 'set' ? setLogTimes(f.day, f.start, f.end) : { startedAt: null, endedAt: null, fields: {} }
+    Object.assign(local, times.fields)
+    if (Object.keys(local).length) return save.fail(local)
+    body = f.kind === 'problem'
+      ? { kind: 'problem', notes: f.notes, userIds: f.userIds, surfaceIds: f.surfaceIds }
+      : { kind: 'set', setNumber: Number(f.setNumber) || null, coat: f.coat, surfaceIds: f.surfaceIds, startedAt: times.startedAt, endedAt: times.endedAt, userIds: f.userIds, coldOrDamp: f.coldOrDamp, notes: f.notes, materials }
+    await save.submit()
+  }
+
+  return { form, logged, people, surfaces, mixable, save, submit, errs: computed(() => save.errors.value.fields) }
+}

@@ -1,0 +1,40 @@
+// The set log form's sums, kept out of the page so a table can check them: which coat a set on
+// the plan is logged as, and the two times typed on site as instants.
+import { addDays, londonInstant } from './dates'
+import type { LogCoat } from './jobs'
+
+/**
+ * The coat a set on the plan is logged as. A set is both coats laid on and trowelled up in one go,
+ * so a set with a skim is logged as its second (final) coat (the room's "ready to decorate" date
+ * waits for every surface's second coat); a set of fills is a fill; the rest a tight coat.
+ */
+export function coatForSet(tasks: readonly { action: 'fill' | 'tight-coat' | 'skim' }[]): LogCoat {
+  if (tasks.some(t => t.action === 'skim')) return 'second'
+  if (tasks.some(t => t.action === 'fill')) return 'fill'
+  return 'tight-coat'
+}
+
+export interface SetTimes {
+  startedAt: string | null
+  endedAt: string | null
+  /** startedAt / endedAt: the time typed is not a time of day. */
+  fields: Partial<Record<'startedAt' | 'endedAt', string>>
+}
+
+const isTime = (s: string) => /^\d{2}:\d{2}$/.test(s)
+
+/**
+ * A set's start and finish typed as London times ("08:30") on `day`, as ISO instants. An empty
+ * time is null (not given); one that is not a time is named in `fields`. A set that finishes
+ * earlier in the day than it started ran past midnight: it began the day before.
+ */
+export function setLogTimes(day: string, start: string, end: string): SetTimes {
+  const pastMidnight = isTime(start) && isTime(end) && end < start
+  const at = (d: string, time: string) => (isTime(time) ? londonInstant(d, time)?.toISOString() ?? null : null)
+  const startedAt = start ? at(pastMidnight ? addDays(day, -1) : day, start) : null
+  const endedAt = end ? at(day, end) : null
+  const fields: SetTimes['fields'] = {}
+  if (start && !startedAt) fields.startedAt = 'Enter the time like 08:30.'
+  if (end && !endedAt) fields.endedAt = 'Enter the time like 10:15.'
+  return { startedAt, endedAt, fields }
+}
