@@ -4,14 +4,14 @@
 import { londonToday } from '#shared/utils/dates'
 import { profitPeriodChoices } from '#shared/utils/period-choices'
 
-export interface ProfitQuery { from: string, to: string, customerKind?: string }
+export interface ProfitPeriodQuery { from: string, to: string, customerKind?: string }
 
 export function useProfitPeriod() {
   const route = useRoute()
   const today = useState('profit-today', () => londonToday())
   const choices = computed(() => profitPeriodChoices(today.value))
   const one = (v: unknown) => (typeof v === 'string' ? v : '')
-  const query = computed<ProfitQuery>(() => {
+  const query = computed<ProfitPeriodQuery>(() => {
     const kind = one(route.query.customerKind)
     return {
       from: one(route.query.from) || choices.value[0]!.from,
@@ -20,7 +20,7 @@ export function useProfitPeriod() {
     }
   })
   /** Show another period or kind of customer (the rest stays as it is). */
-  function apply(next: Partial<ProfitQuery>) {
+  function apply(next: Partial<ProfitPeriodQuery>) {
     const q = { ...query.value, ...next }
     return navigateTo({ query: { from: q.from, to: q.to, ...(q.customerKind ? { customerKind: q.customerKind } : {}) } }, { replace: true })
   }

@@ -20,7 +20,7 @@ export function useQuarterPeriod(stagger: Ref<1 | 2 | 3>) {
   const quarterOf = ref(asked('quarterOf') || (last?.start ?? todayIso))
   const from = ref(asked('from') || (last?.start ?? todayIso))
   const to = ref(asked('to') || (last?.end ?? todayIso))
-  const query = computed(() => (mode.value === 'quarter' ? { quarterOf: quarterOf.value } : { from: from.value, to: to.value }))
+  const query = computed((): Record<string, string> => (mode.value === 'quarter' ? { quarterOf: quarterOf.value } : { from: from.value, to: to.value }))
   watch(query, q => router.replace({ query: q }))
   onMounted(() => router.replace({ query: query.value }))
   return { quarters, mode, quarterOf, from, to, query }

@@ -4,49 +4,66 @@
 import { parsePounds, penceToDecimal } from './money'
 import { formatStockLength, parseStockLengths } from './takeoff'
 
-/** The labour rates, per m² or per metre, with their labels. */
+/** A figure of the book as a field: its key (as the API names it), label and hint. */
+export interface PriceBookField<K extends string = string> { key: K, label: string, hint: string }
+
+/** The labour rates in pounds, per m² or per metre. */
 export const PRICE_BOOK_RATES = [
-  ['skimWallsPerM2Pence', 'Skim walls, per m²'],
-  ['skimCeilingsPerM2Pence', 'Skim ceilings, per m²'],
-  ['undercoatPerM2Pence', 'Undercoat, per m²'],
-  ['revealsPerLmPence', 'Reveals and narrow strips, per metre'],
-  ['beadsPerLmPence', 'Beads, per metre'],
-  ['scrimPerLmPence', 'Scrim round frames, per metre'],
-] as const
-export type PriceBookRateKey = (typeof PRICE_BOOK_RATES)[number][0]
+  { key: 'skimWallsPerM2Pence', label: 'Skim walls, per m²', hint: '' },
+  { key: 'skimCeilingsPerM2Pence', label: 'Skim ceilings, per m²', hint: '' },
+  { key: 'undercoatPerM2Pence', label: 'Undercoat, per m²', hint: '' },
+  { key: 'revealsPerLmPence', label: 'Reveals and narrow strips, per metre', hint: '' },
+  { key: 'beadsPerLmPence', label: 'Beads, per metre', hint: '' },
+  { key: 'scrimPerLmPence', label: 'Scrim round frames, per metre', hint: '' },
+] as const satisfies readonly PriceBookField[]
 
-/** The site rules: label, and the hint that says where the figure comes from. */
+/** The whole numbers of the take-off: widths, pace, mark-up and waste. */
+export const PRICE_BOOK_TAKE_OFF = [
+  { key: 'narrowMaxMm', label: 'Reveals and strips up to this width go by the metre (mm)', hint: '' },
+  { key: 'm2PerDay', label: 'Square metres of skim in a day (for the days estimate)', hint: 'Rule of thumb: your own pace' },
+  { key: 'materialsMarkupPercent', label: 'Mark-up on materials (%)', hint: '' },
+  { key: 'materialsWastePercent', label: 'Waste on plaster and scrim (%)', hint: '' },
+  { key: 'beadWastePercent', label: 'Waste on beads (%)', hint: '' },
+] as const satisfies readonly PriceBookField[]
+
+/** The site rules, each hint saying where the figure comes from. */
 export const PRICE_BOOK_SITE_RULES = [
-  ['drySkimDays', 'Days after a skim before decorating', 'Common practice: about a week (7). A rule of thumb: drying varies'],
-  ['dryUndercoatDays', 'Days after undercoat or filling, when it is the last coat', 'Longer than a skim; 14 is from memory, not a published figure'],
-  ['dryColdOrDampExtraDays', 'Extra days when the room is cold or damp', 'More in cold or damp rooms (common practice); 7 is from memory'],
-  ['cornerTrowelMm', 'Your corner trowel\'s width (mm)', 'A return narrower than this makes a difficult corner'],
-  ['outOfTrueToleranceMm', 'Out of true by more than this makes a difficult corner (mm)', ''],
-  ['bagsPerPersonPerSet', 'Bags one person lays on and trowels up in a set', 'Starts each new job\'s plan'],
-] as const
-/** The whole numbers of the book (percentages, millimetres, days, bags). */
-const WHOLE_NUMBERS = ['materialsMarkupPercent', 'narrowMaxMm', 'beadWastePercent', 'materialsWastePercent', 'm2PerDay', ...PRICE_BOOK_SITE_RULES.map(r => r[0])] as const
-type WholeKey = (typeof WHOLE_NUMBERS)[number]
+  { key: 'drySkimDays', label: 'Days after a skim before decorating', hint: 'Common practice: about a week (7). A rule of thumb: drying varies' },
+  { key: 'dryUndercoatDays', label: 'Days after undercoat or filling, when it is the last coat', hint: 'Longer than a skim; 14 is from memory, not a published figure' },
+  { key: 'dryColdOrDampExtraDays', label: 'Extra days when the room is cold or damp', hint: 'More in cold or damp rooms (common practice); 7 is from memory' },
+  { key: 'cornerTrowelMm', label: 'Your corner trowel\'s width (mm)', hint: 'A return narrower than this makes a difficult corner' },
+  { key: 'outOfTrueToleranceMm', label: 'Out of true by more than this makes a difficult corner (mm)', hint: '' },
+  { key: 'bagsPerPersonPerSet', label: 'Bags one person lays on and trowels up in a set', hint: 'Starts each new job\'s plan' },
+] as const satisfies readonly PriceBookField[]
 
-export type PriceBook = Record<PriceBookRateKey | WholeKey, number> & {
+type RateKey = (typeof PRICE_BOOK_RATES)[number]['key']
+type TakeOffKey = (typeof PRICE_BOOK_TAKE_OFF)[number]['key']
+type SiteRuleKey = (typeof PRICE_BOOK_SITE_RULES)[number]['key']
+
+export type PriceBookFigures = Record<RateKey | TakeOffKey | SiteRuleKey, number> & {
   minDeductCm2: number
   beadStockLengthsMm: number[]
   makingGoodItems?: { name: string, unit: string, pricePence: number }[] | null
 }
 
-export type PriceBookForm = Record<WholeKey, string> & {
-  rates: Record<PriceBookRateKey, string>
+export interface PriceBookForm {
+  rates: Record<RateKey, string>
+  takeOff: Record<TakeOffKey, string>
+  site: Record<SiteRuleKey, string>
   minDeductCm2: 0 | 5000
   beadStockLengths: string
   makingGood: { name: string, unit: string, price: string }[]
 }
 
-export function priceBookFormFrom(b: PriceBook): PriceBookForm {
-  const rates = Object.fromEntries(PRICE_BOOK_RATES.map(([k]) => [k, penceToDecimal(b[k])])) as Record<PriceBookRateKey, string>
-  const whole = Object.fromEntries(WHOLE_NUMBERS.map(k => [k, String(b[k])])) as Record<WholeKey, string>
+function typed<K extends string>(fields: readonly { key: K }[], show: (key: K) => string): Record<K, string> {
+  return Object.fromEntries(fields.map(f => [f.key, show(f.key)])) as Record<K, string>
+}
+
+export function priceBookFormFrom(b: PriceBookFigures): PriceBookForm {
   return {
-    ...whole,
-    rates,
+    rates: typed(PRICE_BOOK_RATES, k => penceToDecimal(b[k])),
+    takeOff: typed(PRICE_BOOK_TAKE_OFF, k => String(b[k])),
+    site: typed(PRICE_BOOK_SITE_RULES, k => String(b[k])),
     minDeductCm2: b.minDeductCm2 === 5000 ? 5000 : 0,
     beadStockLengths: b.beadStockLengthsMm.map(formatStockLength).join(', '),
     makingGood: (b.makingGoodItems ?? []).map(m => ({ name: m.name, unit: m.unit, price: penceToDecimal(m.pricePence) })),
@@ -58,18 +75,15 @@ const whole = (s: string) => (/^\d+$/.test(s.trim()) ? Number(s.trim()) : null)
 /** The body for PUT /api/price-book, or the fields that are wrong (keyed as the server keys them). */
 export function priceBookBody(form: PriceBookForm): { body: Record<string, unknown> } | { errors: Record<string, string> } {
   const errors: Record<string, string> = {}
-  const rates: Record<string, number> = {}
-  for (const [key] of PRICE_BOOK_RATES) {
-    const p = parsePounds(form.rates[key] ?? '')
-    if (p === null) errors[key] = 'Enter a price in pounds, like 18.00.'
-    else rates[key] = p
+  const figures: Record<string, number> = {}
+  const read = (key: string, typedIn: string | undefined, parse: (s: string) => number | null, problem: string) => {
+    const n = parse(typedIn ?? '')
+    if (n === null) errors[key] = problem
+    else figures[key] = n
   }
-  const numbers: Record<string, number> = {}
-  for (const key of WHOLE_NUMBERS) {
-    const n = whole(form[key])
-    if (n === null) errors[key] = 'Enter a whole number.'
-    else numbers[key] = n
-  }
+  for (const { key } of PRICE_BOOK_RATES) read(key, form.rates[key], parsePounds, 'Enter a price in pounds, like 18.00.')
+  for (const { key } of PRICE_BOOK_TAKE_OFF) read(key, form.takeOff[key], whole, 'Enter a whole number.')
+  for (const { key } of PRICE_BOOK_SITE_RULES) read(key, form.site[key], whole, 'Enter a whole number.')
   const stock = parseStockLengths(form.beadStockLengths)
   if (!stock.ok) errors.beadStockLengthsMm = stock.message
   const makingGoodItems = form.makingGood.map((m, i) => {
@@ -78,5 +92,5 @@ export function priceBookBody(form: PriceBookForm): { body: Record<string, unkno
     return { name: m.name, unit: m.unit, pricePence: pricePence ?? 0 }
   })
   if (Object.keys(errors).length) return { errors }
-  return { body: { ...rates, ...numbers, minDeductCm2: form.minDeductCm2, beadStockLengthsMm: stock.ok ? stock.mm : [], makingGoodItems } }
+  return { body: { ...figures, minDeductCm2: form.minDeductCm2, beadStockLengthsMm: stock.ok ? stock.mm : [], makingGoodItems } }
 }

@@ -2,7 +2,7 @@
 // sent whole, and read back once saved. Every error stands beside its field; nothing typed is lost.
 import { priceBookBody, priceBookFormFrom, type PriceBookForm } from '#shared/utils/price-book-form'
 
-export async function usePriceBook() {
+export async function usePriceBookForm() {
   const { data: book, refresh } = await useFetch('/api/price-book')
   const form = ref<PriceBookForm | null>(book.value ? priceBookFormFrom(book.value) : null)
   const saved = ref(false)
@@ -21,5 +21,8 @@ export async function usePriceBook() {
     body = r.body
     await submit()
   }
-  return { form, saved, busy, errors, save }
+  /** The server's message for a bead length (on the list or on one of its entries). */
+  const stockLengthsError = computed(() => errors.value.fields.beadStockLengthsMm
+    ?? Object.entries(errors.value.fields).find(([k]) => k.startsWith('beadStockLengthsMm.'))?.[1] ?? '')
+  return { form, saved, busy, errors, save, stockLengthsError }
 }
