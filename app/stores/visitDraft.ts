@@ -1,4 +1,5 @@
 import { defineStore } from 'pinia'
+import { useEventListener, useIntervalFn } from '@vueuse/core'
 import type { FetchError } from 'ofetch'
 import { fieldErrors } from '#shared/schemas/common'
 import { roomSchema, type Room } from '#shared/schemas/room'
@@ -369,11 +370,11 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
   }
 
   if (import.meta.client) {
-    window.addEventListener('online', () => {
+    useEventListener(window, 'online', () => {
       void sendWaiting()
     })
     // a phone can claim to be online with no real signal, so waiting drafts are also retried now and then
-    setInterval(() => {
+    useIntervalFn(() => {
       if (Object.values(entries.value).some(e => e.state === 'waiting')) void sendWaiting()
     }, RETRY_MS)
   }

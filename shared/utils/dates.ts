@@ -195,3 +195,20 @@ export function fullDate(value: string | Date): string {
 export function londonTime(at: Date): string {
   return format(at, 'HH:mm', { in: inLondon })
 }
+
+const dayMonthIn = { UTC: new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' }), [LONDON_TZ]: new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', timeZone: LONDON_TZ }) }
+
+/** "4 Dec" (a diary week's bounds). */
+export function dayMonth(value: string | Date): string {
+  return dayMonthIn[intlZone(value)]!.format(dayOf(value))
+}
+
+/** "Fri 4 Dec, 14:22": when something happened, in London (an enquiry arriving, a visit booked). */
+export function shortDayTime(at: Date): string {
+  return `${shortDay(at)}, ${londonTime(at)}`
+}
+
+/** "4 Dec, 14:22": the same without the weekday (a reminder sent, a log entry). */
+export function dayMonthTime(at: Date): string {
+  return `${dayMonth(at)}, ${londonTime(at)}`
+}

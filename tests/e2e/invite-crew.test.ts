@@ -103,6 +103,23 @@ describe('inviting a crew member', () => {
     expect(await textOf(owner.getByTestId('member').filter({ hasText: OWNER.email }))).toContain('(you)')
     await screenshot(owner, 'owner-team-after-join')
 
+    // removing someone asks first, in a dialog: going back keeps them
+    await member.getByRole('button', { name: 'Remove' }).click()
+    const ask = owner.getByRole('alertdialog')
+    await expectText(ask, `Remove ${name} from the firm?`)
+    await expectText(ask, 'They are signed out at once')
+    await screenshot(owner, 'owner-team-remove-asks')
+    await ask.getByRole('button', { name: 'Go back' }).click()
+    await expectAbsent(ask)
+    await expectText(member, name)
+    // going ahead removes them, and their next page takes them to sign in
+    await member.getByRole('button', { name: 'Remove' }).click()
+    await ask.getByRole('button', { name: `Remove ${name}` }).click()
+    await expectText(owner.getByRole('status').filter({ hasText: 'was removed' }), `${name} was removed.`)
+    expect(await owner.getByTestId('member').filter({ hasText: email }).count()).toBe(0)
+    await visit(invitee, `${e2e.url}/`)
+    await expectPath(invitee, '/sign-in')
+
     expectCleanRun(jess)
     expectCleanRun(tamsin)
   })

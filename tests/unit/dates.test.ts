@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import { addDays, addMonths, compareDays, dayAndMonth, daysBetween, daysBefore, daysInMonth, fullDate, isIsoDate, londonDay, londonTime, londonToday, longDate, longIsoDate, monthAndYear, monthBounds, shortDay, weekBounds } from '../../shared/utils/dates'
+import { addDays, addMonths, compareDays, dayAndMonth, dayMonth, dayMonthTime, daysBetween, daysBefore, daysInMonth, fullDate, isIsoDate, londonDay, londonTime, londonToday, longDate, longIsoDate, monthAndYear, monthBounds, shortDay, shortDayTime, weekBounds } from '../../shared/utils/dates'
 import { todayIso } from '../../server/utils/invoices'
 
 // Sources, beside each case:
@@ -154,5 +154,11 @@ describe('words for people (en-GB)', () => {
     ['dayAndMonth', dayAndMonth('2026-03-29'), 'Sunday 29 March'],
     ['monthAndYear', monthAndYear('2028-02-29'), 'February 2028'],
     ['longIsoDate (as the tax pages have always shown it)', longIsoDate('2026-12-31'), '31 Dec 2026'],
+    ['dayMonth', dayMonth('2027-01-01'), '1 Jan'],
+    ['dayMonth of an instant after midnight BST', dayMonth(new Date('2026-07-31T23:30:00Z')), '1 Aug'],
+    ['shortDayTime in winter (GMT)', shortDayTime(new Date('2026-12-04T14:22:00Z')), 'Fri 4 Dec, 14:22'],
+    ['shortDayTime in summer is BST, an hour on from UTC', shortDayTime(new Date('2026-07-01T23:30:00Z')), 'Thu 2 Jul, 00:30'],
+    ['dayMonthTime the hour after the clocks go back', dayMonthTime(new Date('2026-10-25T01:30:00Z')), '25 Oct, 01:30'],
+    ['dayMonthTime the hour before the clocks go back (BST)', dayMonthTime(new Date('2026-10-25T00:30:00Z')), '25 Oct, 01:30'],
   ])('%s: %s', (_what, got, want) => expect(got).toBe(want))
 })
