@@ -159,6 +159,13 @@ export function shortDay(value: string | Date): string {
   return shortDayIn[intlZone(value)]!.format(dayOf(value))
 }
 
+const shortDayYear = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' })
+
+/** '2026-12-04' -> "Fri, 4 Dec 2026": a day in a list that spans years (the profit table). */
+export function shortDayWithYear(iso: string): string {
+  return shortDayYear.format(isoDay(iso))
+}
+
 /** '2026-09-30' -> '30 Sept 2026' (the tax periods' dates on the dashboard, the VAT quarter and CIS pages). */
 export function longIsoDate(iso: string): string {
   return shortMonthDate.format(isoDay(iso))

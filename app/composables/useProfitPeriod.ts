@@ -1,0 +1,29 @@
+// The profit table's period and kind of customer, kept in the address so they stay put on a
+// reload and the CSV download asks for the same table. Today is worked out once on the server
+// and carried to the browser (no mismatch at hydration).
+import { londonToday } from '#shared/utils/dates'
+import { profitPeriodChoices } from '#shared/utils/period-choices'
+
+export interface ProfitPeriodQuery { from: string, to: string, customerKind?: string }
+
+export function useProfitPeriod() {
+  const route = useRoute()
+  const today = useState('profit-today', () => londonToday())
+  const choices = computed(() => profitPeriodChoices(today.value))
+  const one = (v: unknown) => (typeof v === 'string' ? v : '')
+  const query = computed<ProfitPeriodQuery>(() => {
+    const kind = one(route.query.customerKind)
+    return {
+      from: one(route.query.from) || choices.value[0]!.from,
+      to: one(route.query.to) || choices.value[0]!.to,
+      ...(kind ? { customerKind: kind } : {}),
+    }
+  })
+  /** Show another period or kind of customer (the rest stays as it is). */
+  function apply(next: Partial<ProfitPeriodQuery>) {
+    const q = { ...query.value, ...next }
+    return navigateTo({ query: { from: q.from, to: q.to, ...(q.customerKind ? { customerKind: q.customerKind } : {}) } }, { replace: true })
+  }
+  const csvHref = computed(() => `/exports/profit.csv?${new URLSearchParams({ ...query.value }).toString()}`)
+  return { choices, query, apply, csvHref }
+}

@@ -1,0 +1,96 @@
+// Between the price book form (figures as typed) and the API (pence, whole numbers, bead lengths in
+// millimetres): read the book into the form, and the form back into a body, naming each figure that
+// is not right beside its field (the server checks again). Pure.
+import { parsePounds, penceToDecimal } from './money'
+import { formatStockLength, parseStockLengths } from './takeoff'
+
+/** A figure of the book as a field: its key (as the API names it), label and hint. */
+export interface PriceBookField<K extends string = string> { key: K, label: string, hint: string }
+
+/** The labour rates in pounds, per m² or per metre. */
+export const PRICE_BOOK_RATES = [
+  { key: 'skimWallsPerM2Pence', label: 'Skim walls, per m²', hint: '' },
+  { key: 'skimCeilingsPerM2Pence', label: 'Skim ceilings, per m²', hint: '' },
+  { key: 'undercoatPerM2Pence', label: 'Undercoat, per m²', hint: '' },
+  { key: 'revealsPerLmPence', label: 'Reveals and narrow strips, per metre', hint: '' },
+  { key: 'beadsPerLmPence', label: 'Beads, per metre', hint: '' },
+  { key: 'scrimPerLmPence', label: 'Scrim round frames, per metre', hint: '' },
+] as const satisfies readonly PriceBookField[]
+
+/** The whole numbers of the take-off: widths, pace, mark-up and waste. */
+export const PRICE_BOOK_TAKE_OFF = [
+  { key: 'narrowMaxMm', label: 'Reveals and strips up to this width go by the metre (mm)', hint: '' },
+  { key: 'm2PerDay', label: 'Square metres of skim in a day (for the days estimate)', hint: 'Rule of thumb: your own pace' },
+  { key: 'materialsMarkupPercent', label: 'Mark-up on materials (%)', hint: '' },
+  { key: 'materialsWastePercent', label: 'Waste on plaster and scrim (%)', hint: '' },
+  { key: 'beadWastePercent', label: 'Waste on beads (%)', hint: '' },
+] as const satisfies readonly PriceBookField[]
+
+/** The site rules, each hint saying where the figure comes from. */
+export const PRICE_BOOK_SITE_RULES = [
+  { key: 'drySkimDays', label: 'Days after a skim before decorating', hint: 'Common practice: about a week (7). A rule of thumb: drying varies' },
+  { key: 'dryUndercoatDays', label: 'Days after undercoat or filling, when it is the last coat', hint: 'Longer than a skim; 14 is from memory, not a published figure' },
+  { key: 'dryColdOrDampExtraDays', label: 'Extra days when the room is cold or damp', hint: 'More in cold or damp rooms (common practice); 7 is from memory' },
+  { key: 'cornerTrowelMm', label: 'Your corner trowel\'s width (mm)', hint: 'A return narrower than this makes a difficult corner' },
+  { key: 'outOfTrueToleranceMm', label: 'Out of true by more than this makes a difficult corner (mm)', hint: '' },
+  { key: 'bagsPerPersonPerSet', label: 'Bags one person lays on and trowels up in a set', hint: 'Starts each new job\'s plan' },
+] as const satisfies readonly PriceBookField[]
+
+type RateKey = (typeof PRICE_BOOK_RATES)[number]['key']
+type TakeOffKey = (typeof PRICE_BOOK_TAKE_OFF)[number]['key']
+type SiteRuleKey = (typeof PRICE_BOOK_SITE_RULES)[number]['key']
+
+export type PriceBookFigures = Record<RateKey | TakeOffKey | SiteRuleKey, number> & {
+  minDeductCm2: number
+  beadStockLengthsMm: number[]
+  makingGoodItems?: { name: string, unit: string, pricePence: number }[] | null
+}
+
+export interface PriceBookForm {
+  rates: Record<RateKey, string>
+  takeOff: Record<TakeOffKey, string>
+  site: Record<SiteRuleKey, string>
+  minDeductCm2: 0 | 5000
+  beadStockLengths: string
+  makingGood: { name: string, unit: string, price: string }[]
+}
+
+function typed<K extends string>(fields: readonly { key: K }[], show: (key: K) => string): Record<K, string> {
+  return Object.fromEntries(fields.map(f => [f.key, show(f.key)])) as Record<K, string>
+}
+
+export function priceBookFormFrom(b: PriceBookFigures): PriceBookForm {
+  return {
+    rates: typed(PRICE_BOOK_RATES, k => penceToDecimal(b[k])),
+    takeOff: typed(PRICE_BOOK_TAKE_OFF, k => String(b[k])),
+    site: typed(PRICE_BOOK_SITE_RULES, k => String(b[k])),
+    minDeductCm2: b.minDeductCm2 === 5000 ? 5000 : 0,
+    beadStockLengths: b.beadStockLengthsMm.map(formatStockLength).join(', '),
+    makingGood: (b.makingGoodItems ?? []).map(m => ({ name: m.name, unit: m.unit, price: penceToDecimal(m.pricePence) })),
+  }
+}
+
+const whole = (s: string) => (/^\d+$/.test(s.trim()) ? Number(s.trim()) : null)
+
+/** The body for PUT /api/price-book, or the fields that are wrong (keyed as the server keys them). */
+export function priceBookBody(form: PriceBookForm): { body: Record<string, unknown> } | { errors: Record<string, string> } {
+  const errors: Record<string, string> = {}
+  const figures: Record<string, number> = {}
+  const read = (key: string, typedIn: string | undefined, parse: (s: string) => number | null, problem: string) => {
+    const n = parse(typedIn ?? '')
+    if (n === null) errors[key] = problem
+    else figures[key] = n
+  }
+  for (const { key } of PRICE_BOOK_RATES) read(key, form.rates[key], parsePounds, 'Enter a price in pounds, like 18.00.')
+  for (const { key } of PRICE_BOOK_TAKE_OFF) read(key, form.takeOff[key], whole, 'Enter a whole number.')
+  for (const { key } of PRICE_BOOK_SITE_RULES) read(key, form.site[key], whole, 'Enter a whole number.')
+  const stock = parseStockLengths(form.beadStockLengths)
+  if (!stock.ok) errors.beadStockLengthsMm = stock.message
+  const makingGoodItems = form.makingGood.map((m, i) => {
+    const pricePence = parsePounds(m.price)
+    if (pricePence === null) errors[`makingGoodItems.${i}.pricePence`] = 'Enter a price in pounds, like 35.00.'
+    return { name: m.name, unit: m.unit, pricePence: pricePence ?? 0 }
+  })
+  if (Object.keys(errors).length) return { errors }
+  return { body: { ...figures, minDeductCm2: form.minDeductCm2, beadStockLengthsMm: stock.ok ? stock.mm : [], makingGoodItems } }
+}
