@@ -29,7 +29,6 @@ describe('money rules on screen', () => {
     const sam = await e2e.open({ desktop: true })
     const office = sam.page
     await office.setViewportSize(LAPTOP)
-    office.on('dialog', d => d.accept())
     await signInToDashboard(office, e2e.url, OFFICE.email, OFFICE.password)
     await visit(office, `${e2e.url}/jobs/${job.id}`)
     const invoicing = office.getByTestId('job-invoices')
