@@ -52,6 +52,11 @@ describe('money rules on screen', () => {
     await office.getByRole('button', { name: '+ Labour line' }).click()
     const extra = office.getByTestId('invoice-line').last()
     await extra.getByLabel(/description/).fill('Make good the chimney breast')
+    // a price that is not pounds is marked on its field, with the error beside it, before anything is sent
+    await extra.getByLabel('Price (£)').fill('two hundred')
+    await office.getByRole('button', { name: 'Save draft' }).click()
+    await expectText(extra.getByRole('alert'), 'Enter a price in pounds, like 18.00.')
+    expect(await extra.getByLabel('Price (£)').getAttribute('aria-invalid')).toBe('true')
     await extra.getByLabel('Price (£)').fill('200.00')
     await office.getByRole('button', { name: 'Save draft' }).click()
     await expectText(office.locator('body'), /more than its price of £800\.00/)
