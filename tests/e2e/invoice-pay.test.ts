@@ -44,6 +44,7 @@ describe('invoicing and being paid', () => {
     await expectVisible(owner.getByTestId('invoice-line').first())
     await owner.getByRole('button', { name: 'Issue and send' }).click()
     await expectText(owner.getByTestId('confirm-dialog'), /takes the next number/)
+    await screenshot(owner, 'invoice-issue-confirm')
     await owner.getByTestId('confirm-yes').click()
     await expectText(owner.getByTestId('invoice-status'), 'Issued')
     const issued = (await api.get(`/api/invoices/${invoiceId}`)).body

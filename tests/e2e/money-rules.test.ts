@@ -7,7 +7,7 @@
 // - the owner (1366 x 900) sets the credit-note prefix to the invoices' and is told why not.
 import { describe, expect, it } from 'vitest'
 import { Client, uniqueEmail } from '../support/client'
-import { expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { expectAbsent, expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
 import { OFFICE, OWNER } from './demo'
 
 const e2e = useE2E()
@@ -69,6 +69,13 @@ describe('money rules on screen', () => {
     const saved = (await api.get(`/api/invoices/${invoiceId}`)).body
     expect(saved.lines.map((l: any) => [l.description, l.extraWork])).toEqual([[expect.any(String), false], ['Make good the chimney breast', true]])
     await screenshot(office, 'money-rules-office-extra-work')
+    // deleting the draft asks first; going back keeps it
+    await office.getByRole('button', { name: 'Delete draft' }).click()
+    const ask = office.getByTestId('confirm-dialog')
+    await expectText(ask, /Delete this draft\?/)
+    await ask.getByRole('button', { name: 'Go back' }).click()
+    await expectAbsent(ask)
+    expect((await api.get(`/api/invoices/${invoiceId}`)).status).toBe(200)
     expectCleanRun(sam)
   })
 
