@@ -55,7 +55,7 @@ describe('money rules on screen', () => {
     // a price that is not pounds is marked on its field, with the error beside it, before anything is sent
     await extra.getByLabel('Price (£)').fill('two hundred')
     await office.getByRole('button', { name: 'Save draft' }).click()
-    await expectText(extra.getByRole('alert'), 'Enter a price in pounds, like 18.00.')
+    await expectText(extra.getByRole('alert'), /Enter a price in pounds/)
     expect(await extra.getByLabel('Price (£)').getAttribute('aria-invalid')).toBe('true')
     await extra.getByLabel('Price (£)').fill('200.00')
     await office.getByRole('button', { name: 'Save draft' }).click()
