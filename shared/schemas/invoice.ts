@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { isoDate, queryWholeNumber, text, whenObject } from './common'
+import { invoiceLineSchema } from './line'
 import { PAYMENT_METHODS } from '../utils/invoices'
 import { formatPence } from '../utils/money'
 import { invoiceTotals } from '../utils/tax'
@@ -24,16 +25,7 @@ export const newInvoiceSchema = z.object({
   .refine(v => v.kind === 'blank' || v.jobId !== null, { path: ['jobId'], error: 'Choose the job to invoice.', when: whenObject })
   .refine(v => v.kind !== 'blank' || v.customerId !== null, { path: ['customerId'], error: 'Choose the customer.', when: whenObject })
 
-export const invoiceLineSchema = z.object({
-  kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
-  description: text({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
-  quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
-  unit: text().trim().min(1).max(20).default('item'),
-  unitPence: pence('The unit price'),
-  vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
-  /** Work beyond the job's agreed price, confirmed by the person: not counted against the price. */
-  extraWork: z.boolean({ error: 'Say whether this line is extra work.' }).default(false),
-})
+export { invoiceLineSchema }
 
 export const invoiceDraftSchema = z.object({
   vat: z.enum(['standard', 'reverse-charge', 'not-registered']),

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { isoDate, text, whenObject } from './common'
+import { quoteLineSchema } from './line'
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(100_000_00, { error: `${what} looks too high.` })
 const percent = (max = 100) => z.int({ error: 'Enter a whole percentage.' }).min(0).max(max)
@@ -47,15 +48,7 @@ export const priceBookSchema = z.object({
 })
 export type PriceBookInput = z.infer<typeof priceBookSchema>
 
-export const quoteLineSchema = z.object({
-  kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
-  description: text({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
-  quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
-  unit: text().trim().min(1).max(20),
-  unitPence: pence('The unit price'),
-  vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
-  derivation: text().max(4000).default(''),
-})
+export { quoteLineSchema }
 
 export const quoteVersionSchema = z.object({
   pricing: z.enum(['measure', 'days', 'fixed'], { error: 'Choose how the quote is priced.' }),

@@ -34,7 +34,6 @@ describe('invoicing and being paid', () => {
 
     const jess = await e2e.open()
     const owner = jess.page
-    owner.on('dialog', d => d.accept())
     await signInToDashboard(owner, e2e.url, OWNER.email, OWNER.password)
     await visit(owner, `${e2e.url}/jobs/${jobId}`)
     const invoicing = owner.getByTestId('job-invoices')
@@ -44,6 +43,9 @@ describe('invoicing and being paid', () => {
     const invoiceId = new URL(owner.url()).pathname.split('/').pop()!
     await expectVisible(owner.getByTestId('invoice-line').first())
     await owner.getByRole('button', { name: 'Issue and send' }).click()
+    await expectText(owner.getByTestId('confirm-dialog'), /takes the next number/)
+    await screenshot(owner, 'invoice-issue-confirm')
+    await owner.getByTestId('confirm-yes').click()
     await expectText(owner.getByTestId('invoice-status'), 'Issued')
     const issued = (await api.get(`/api/invoices/${invoiceId}`)).body
     expect(issued.reference).toMatch(/^[A-Z]+-\d{4}$/)
@@ -83,6 +85,30 @@ describe('invoicing and being paid', () => {
     await expectAbsent(sam.page.getByText(issued.reference))
     await expectAbsent(sam.page.getByText('Mirren Okafor'))
     await screenshot(sam.page, 'owed-office')
+
+    // the owner refunds part of the card payment, its amount typed in a dialog
+    const before = e2e.app.stripe.state.deliveries.length
+    await owner.getByRole('button', { name: /^Refund the payment of/ }).click()
+    const refund = owner.getByTestId('form-dialog')
+    const amount = refund.getByLabel('Refund (£)')
+    expect(await amount.inputValue()).toBe((issued.amountDuePence / 100).toFixed(2))
+    await amount.fill('ten pounds')
+    await refund.getByRole('button', { name: 'Refund', exact: true }).click()
+    await expectText(refund, /Enter the refund in pounds, like 25\.00\./)
+    expect(await amount.getAttribute('aria-invalid')).toBe('true')
+    await amount.fill(((issued.amountDuePence + 100) / 100).toFixed(2))
+    await refund.getByRole('button', { name: /^Refund £/ }).click()
+    await expectText(refund, /more than the payment of/)
+    await amount.fill('10.00')
+    await screenshot(owner, 'invoice-refund-dialog')
+    await refund.getByRole('button', { name: 'Refund £10.00' }).click()
+    await expectAbsent(refund)
+    await expectVisible(owner.getByText(/card refund of £10\.00 is asked of the card company/))
+    // once the card company confirms it, the invoice shows it
+    await e2e.app.stripe.waitForDeliveries(d => d.slice(before).some(x => x.type === 'charge.refunded' && x.ok === true))
+    await reload(owner)
+    await expectText(owner.getByTestId('invoice-outstanding'), '£10.00')
+    expect((await api.get(`/api/invoices/${invoiceId}`)).body.payments.map((p: any) => p.amountPence).sort((a: number, b: number) => a - b)).toEqual([-10_00, issued.amountDuePence])
     expectCleanRun(jess)
     expectCleanRun(mirren)
     expectCleanRun(sam)

@@ -7,7 +7,7 @@
 // - the owner (1366 x 900) sets the credit-note prefix to the invoices' and is told why not.
 import { describe, expect, it } from 'vitest'
 import { Client, uniqueEmail } from '../support/client'
-import { expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { expectAbsent, expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
 import { OFFICE, OWNER } from './demo'
 
 const e2e = useE2E()
@@ -29,7 +29,6 @@ describe('money rules on screen', () => {
     const sam = await e2e.open({ desktop: true })
     const office = sam.page
     await office.setViewportSize(LAPTOP)
-    office.on('dialog', d => d.accept())
     await signInToDashboard(office, e2e.url, OFFICE.email, OFFICE.password)
     await visit(office, `${e2e.url}/jobs/${job.id}`)
     const invoicing = office.getByTestId('job-invoices')
@@ -53,6 +52,11 @@ describe('money rules on screen', () => {
     await office.getByRole('button', { name: '+ Labour line' }).click()
     const extra = office.getByTestId('invoice-line').last()
     await extra.getByLabel(/description/).fill('Make good the chimney breast')
+    // a price that is not pounds is marked on its field, with the error beside it, before anything is sent
+    await extra.getByLabel('Price (£)').fill('two hundred')
+    await office.getByRole('button', { name: 'Save draft' }).click()
+    await expectText(extra.getByRole('alert'), /Enter a price in pounds/)
+    expect(await extra.getByLabel('Price (£)').getAttribute('aria-invalid')).toBe('true')
     await extra.getByLabel('Price (£)').fill('200.00')
     await office.getByRole('button', { name: 'Save draft' }).click()
     await expectText(office.locator('body'), /more than its price of £800\.00/)
@@ -65,6 +69,13 @@ describe('money rules on screen', () => {
     const saved = (await api.get(`/api/invoices/${invoiceId}`)).body
     expect(saved.lines.map((l: any) => [l.description, l.extraWork])).toEqual([[expect.any(String), false], ['Make good the chimney breast', true]])
     await screenshot(office, 'money-rules-office-extra-work')
+    // deleting the draft asks first; going back keeps it
+    await office.getByRole('button', { name: 'Delete draft' }).click()
+    const ask = office.getByTestId('confirm-dialog')
+    await expectText(ask, /Delete this draft\?/)
+    await ask.getByRole('button', { name: 'Go back' }).click()
+    await expectAbsent(ask)
+    expect((await api.get(`/api/invoices/${invoiceId}`)).status).toBe(200)
     expectCleanRun(sam)
   })
 

@@ -18,7 +18,6 @@ describe('quoting from a measured visit', () => {
 
     const jess = await e2e.open()
     const owner = jess.page
-    owner.on('dialog', d => d.accept())
     await signInToDashboard(owner, e2e.url, OWNER.email, OWNER.password)
     await visit(owner, `${e2e.url}/visits/${measured.id}`)
     await owner.getByTestId('make-quote').click()
@@ -42,6 +41,10 @@ describe('quoting from a measured visit', () => {
     await screenshot(owner, 'quote-draft')
 
     await owner.getByRole('button', { name: 'Send quote' }).click()
+    // asked first, in the app's own dialog: it cannot be changed once sent
+    await expectText(owner.getByTestId('confirm-dialog'), /After sending it cannot be changed/)
+    await screenshot(owner, 'quote-send-confirm')
+    await owner.getByTestId('confirm-yes').click()
     await expectText(owner.getByTestId('quote-status'), 'Sent')
     const sent = (await api.get(`/api/quotes/${quoteId}`)).body
 

@@ -1,0 +1,36 @@
+import { z } from 'zod'
+import { text } from './common'
+
+/**
+ * The most one unit of a priced line may cost, £1,000,000.00. The invoice's own check keeps the
+ * line and the whole invoice within what an invoice can come to (shared/schemas/invoice.ts).
+ */
+export const MAX_UNIT_PENCE = 1_000_000_00
+
+/**
+ * One priced line of a quote or an invoice, as the line editor sends it (MoneyLineEditor and
+ * useLineForm): labour or materials, what it is, how many of what unit at what price, and its
+ * VAT rate. A quote's line also says how its quantity was worked out (derivation); an invoice's
+ * line says whether it is extra work beyond the job's agreed price. Each resource takes its own
+ * view of this one schema (quoteLineSchema, invoiceLineSchema), so the fields they share are
+ * checked, and worded, the same way.
+ */
+export const moneyLineSchema = z.object({
+  kind: z.enum(['labour', 'materials'], { error: 'Labour or materials?' }),
+  description: text({ error: 'Describe the line.' }).trim().min(1, { error: 'Describe the line.' }).max(500),
+  quantityX1000: z.int({ error: 'Enter the quantity.' }).min(1, { error: 'The quantity must be more than 0.' }).max(100_000_000),
+  unit: text().trim().min(1).max(20).default('item'),
+  unitPence: z.int({ error: 'Enter the unit price in pounds and pence.' }).min(0, { error: 'The unit price cannot be negative.' }).max(MAX_UNIT_PENCE, { error: 'The unit price looks too high.' }),
+  vatRatePercent: z.union([z.literal(0), z.literal(5), z.literal(20)]).default(20),
+  /** A quote's line: how the quantity was worked out ("3.20 m x 2.40 m = 7.68 m²"). */
+  derivation: text().max(4000).default(''),
+  /** An invoice's line: work beyond the job's agreed price, confirmed by the person: not counted against the price. */
+  extraWork: z.boolean({ error: 'Say whether this line is extra work.' }).default(false),
+})
+export type MoneyLineInput = z.input<typeof moneyLineSchema>
+
+/** A quote's line: the money line with how it was worked out, never extra work (a quote is the price). */
+export const quoteLineSchema = moneyLineSchema.omit({ extraWork: true })
+
+/** An invoice's line: the money line with its extra-work flag (an invoice keeps no working). */
+export const invoiceLineSchema = moneyLineSchema.omit({ derivation: true })
