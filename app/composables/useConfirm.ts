@@ -22,8 +22,8 @@ const pending = shallowRef<Pending | null>(null)
  * Ask the person before doing something that cannot be taken back. Resolves true when they
  * pick the `yes` button, false on the other one, Escape or a tap outside.
  *
- *   const confirm = useConfirm()
- *   if (!await confirm({ title: 'Delete this draft?', yes: 'Delete the draft', danger: true })) return
+ *   const ask = useConfirm()
+ *   if (!await ask({ title: 'Delete this draft?', yes: 'Delete the draft', danger: true })) return
  */
 export function useConfirm() {
   return (ask: ConfirmAsk) => new Promise<boolean>((resolve) => {
