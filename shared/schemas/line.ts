@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { text } from './common'
+import { formatPence } from '../utils/money'
 
 /**
  * The most one unit of a priced line may cost, £1,000,000.00. The invoice's own check keeps the
@@ -34,3 +35,33 @@ export const quoteLineSchema = moneyLineSchema.omit({ extraWork: true })
 
 /** An invoice's line: the money line with its extra-work flag (an invoice keeps no working). */
 export const invoiceLineSchema = moneyLineSchema.omit({ derivation: true })
+
+/** The most a quote may come to with its VAT, as an invoice may (MAX_INVOICE_PENCE): what a job's totals can hold. */
+export const MAX_QUOTE_PENCE = 20_000_000_00
+
+/**
+ * A quote's lines, each and all together with their VAT, within MAX_QUOTE_PENCE, so that accepting
+ * it can always make its job. Exact (BigInt), and run by zod even when a line has errors of its own,
+ * so lines that are not whole numbers are left to those.
+ */
+export function checkQuoteLinesFit(lines: unknown, ctx: z.RefinementCtx) {
+  const whole = (n: unknown) => Number.isSafeInteger(n) && (n as number) >= 0
+  type Line = { quantityX1000: number, unitPence: number, vatRatePercent?: number }
+  if (!Array.isArray(lines) || !lines.every((l: Line) => whole(l?.quantityX1000) && whole(l?.unitPence))) return
+  const max = BigInt(MAX_QUOTE_PENCE)
+  // within Number's exact range: 200 lines of at most 10^8 x 10^8 / 1000 pence
+  const words = (n: bigint) => formatPence(Number(n))
+  let gross = 0n
+  let tooBig = false
+  ;(lines as Line[]).forEach((l, i) => {
+    const net = (BigInt(l.quantityX1000) * BigInt(l.unitPence) + 500n) / 1000n
+    if (net > max) {
+      tooBig = true
+      ctx.addIssue({ code: 'custom', path: ['lines', i, 'unitPence'], message: `This line comes to more than ${words(max)}, the most a quote can be: check the quantity and the price.` })
+    }
+    gross += net + (net * BigInt(l.vatRatePercent ?? 20) + 50n) / 100n
+  })
+  if (!tooBig && gross > max) {
+    ctx.addIssue({ code: 'custom', path: ['lines'], message: `The quote comes to ${words(gross)} with VAT; one quote can be at most ${words(max)}. Split the work across quotes.` })
+  }
+}

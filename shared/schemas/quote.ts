@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { isoDate, text, whenObject } from './common'
-import { quoteLineSchema } from './line'
+import { checkQuoteLinesFit, quoteLineSchema } from './line'
 
 const pence = (what: string) => z.int({ error: `Enter ${what} in pounds and pence.` }).min(0, { error: `${what} cannot be negative.` }).max(100_000_00, { error: `${what} looks too high.` })
 const percent = (max = 100) => z.int({ error: 'Enter a whole percentage.' }).min(0).max(max)
@@ -65,6 +65,7 @@ export const quoteVersionSchema = z.object({
   .refine(v => v.pricing !== 'fixed' || v.fixedPricePence !== null, { path: ['fixedPricePence'], error: 'Enter the fixed price.', when: whenObject })
   .refine(v => v.vat !== 'reverse-charge' || v.cisRatePercent !== null, { path: ['cisRatePercent'], error: 'The reverse charge applies to work paid under CIS: choose the CIS rate.', when: whenObject })
   .refine(v => v.pricing !== 'days' || v.estimatedDaysX100 > 0, { path: ['estimatedDaysX100'], error: 'Enter the days it will take.', when: whenObject })
+  .superRefine((v, ctx) => checkQuoteLinesFit(v.lines, ctx))
 export type QuoteVersionInput = z.input<typeof quoteVersionSchema>
 
 export const newQuoteSchema = z.object({

@@ -130,6 +130,24 @@ describe('quotes', () => {
     expect((await owner.post(`/api/quotes/${id}/send`)).status).toBe(400)
   })
 
+  it('refuses lines that come to more than a job can be priced at, naming the line, and stores nothing (never a 500)', async () => {
+    const { customer } = await customerWithVisit()
+    const { id } = (await owner.post('/api/quotes', { customerId: customer.id })).body
+    const q = (await owner.get(`/api/quotes/${id}`)).body
+    const base = { pricing: 'measure', estimatedDaysX100: 0, vat: q.current.vat, validUntil: q.current.validUntil }
+    const line = (quantityX1000: number, unitPence: number) => ({ kind: 'labour', description: 'Skim the warehouse walls', quantityX1000, unit: 'm²', unitPence })
+    // one line of 100,000 m² at £1,000,000.00 (each within its own limit)
+    const one = await owner.put(`/api/quotes/${q.id}/draft`, { ...base, lines: [line(100_000_000, 1_000_000_00)] })
+    expect(one.status).toBe(400)
+    expect(Object.keys(one.body.data.fields)).toEqual(['lines.0.unitPence'])
+    // two lines of £15,000,000.00: each fits, together with VAT they do not
+    const two = await owner.put(`/api/quotes/${q.id}/draft`, { ...base, lines: [line(15_000, 1_000_000_00), line(15_000, 1_000_000_00)] })
+    expect(two.status).toBe(400)
+    expect(two.body.data.fields.lines).toMatch(/at most £20,000,000\.00/)
+    const stored = (await owner.get(`/api/quotes/${q.id}`)).body
+    expect(stored.current.lines).toEqual([])
+  })
+
   it('refuses a VAT treatment the firm\'s registration or the customer\'s flags rule out, naming vat', async () => {
     // this firm is not VAT-registered: standard rate is a 400 on vat, and nothing is saved
     const { customer } = await customerWithVisit()
