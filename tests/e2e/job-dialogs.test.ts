@@ -47,6 +47,8 @@ describe('dialogs on the job, visit and firm pages', () => {
     expect(await dialog.getByLabel('Reason').getAttribute('aria-invalid')).toBe('true')
     expect((await api.get(`/api/jobs/${job.id}`)).body.status).toBe('booked')
     await dialog.getByLabel('Reason').fill('Customer sold the house')
+    // typing the reason puts the error away; what was typed stays
+    await expectAbsent(dialog.getByRole('alert'))
     await screenshot(page, 'job-cancel-dialog')
     await dialog.getByRole('button', { name: 'Cancel the job' }).click()
 
