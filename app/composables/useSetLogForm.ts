@@ -3,7 +3,7 @@
 // on an error; once saved, back to the job.
 import { londonTime, londonToday } from '#shared/utils/dates'
 import type { LogCoat } from '#shared/utils/jobs'
-import { coatForSet, setLogTimes } from '#shared/utils/set-log'
+import { coatForSet, MAX_PACKS_X1000, setLogFieldErrors, setLogTimes, setTooLong } from '#shared/utils/set-log'
 
 type Job = ApiResponse<'/api/jobs/:id'>
 
@@ -66,15 +66,20 @@ export function useSetLogForm(job: Ref<Job | null | undefined>) {
       if (!typed) continue
       const x = parseQuantity(typed)
       if (x === null || x === 0) local[`bags.${m.materialId}`] = 'Enter the bags mixed, like 1.5.'
+      else if (x > MAX_PACKS_X1000) local[`bags.${m.materialId}`] = `More than ${MAX_PACKS_X1000 / 1000} in one set? Check the figure.`
       else materials.push({ materialId: m.materialId!, packsX1000: x })
     }
     const times = f.kind === 'set' ? setLogTimes(f.day, f.start, f.end) : { startedAt: null, endedAt: null, fields: {} }
     Object.assign(local, times.fields)
+    const tooLong = times.startedAt && times.endedAt ? setTooLong(times.startedAt, times.endedAt) : null
+    if (tooLong) local.endedAt = tooLong
     if (Object.keys(local).length) return save.fail(local)
     body = f.kind === 'problem'
       ? { kind: 'problem', notes: f.notes, userIds: f.userIds, surfaceIds: f.surfaceIds }
       : { kind: 'set', setNumber: Number(f.setNumber) || null, coat: f.coat, surfaceIds: f.surfaceIds, startedAt: times.startedAt, endedAt: times.endedAt, userIds: f.userIds, coldOrDamp: f.coldOrDamp, notes: f.notes, materials }
-    await save.submit()
+    if (await save.submit()) return
+    // the API names a material's bags by its place in what was sent; the page by the material
+    save.errors.value = { ...save.errors.value, fields: setLogFieldErrors(save.errors.value.fields, materials) }
   }
 
   return { form, logged, people, surfaces, mixable, save, submit, errs: computed(() => save.errors.value.fields) }

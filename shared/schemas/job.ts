@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { isoDate, isoDateTime, queryWholeNumber, text, whenObject } from './common'
 import { daysBetween } from '../utils/dates'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
+import { MAX_PACKS_X1000, setTooLong } from '../utils/set-log'
 
 const pickDate = isoDate('Pick a date.')
 const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
@@ -87,13 +88,18 @@ export const setLogSchema = z.object({
   notes: upTo(2000).default(''),
   materials: z.array(z.object({
     materialId: z.uuid({ error: 'Choose the material.' }),
-    packsX1000: z.int({ error: 'Enter the bags mixed.' }).min(1, { error: 'Enter the bags mixed, like 1.5.' }).max(1_000_000),
+    packsX1000: z.int({ error: 'Enter the bags mixed.' }).min(1, { error: 'Enter the bags mixed, like 1.5.' }).max(MAX_PACKS_X1000, { error: `More than ${MAX_PACKS_X1000 / 1000} in one set? Check the figure.` }),
   })).max(20).default([]),
 })
   .refine(v => v.kind !== 'set' || v.coat !== null, { path: ['coat'], error: 'Choose the coat: fill, tight coat, first or second.', when: whenObject })
   .refine(v => v.kind !== 'set' || !Array.isArray(v.surfaceIds) || v.surfaceIds.length > 0, { path: ['surfaceIds'], error: 'Tick the surfaces done in this set.', when: whenObject })
   .refine(v => v.kind !== 'problem' || typeof v.notes !== 'string' || v.notes.length > 0, { path: ['notes'], error: 'Say what the problem is.', when: whenObject })
   .refine(v => !(typeof v.startedAt === 'string' && typeof v.endedAt === 'string') || Date.parse(v.endedAt) >= Date.parse(v.startedAt), { path: ['endedAt'], error: 'The end is before the start.', when: whenObject })
+  .superRefine((v, ctx) => {
+    if (typeof v.startedAt !== 'string' || typeof v.endedAt !== 'string') return
+    const why = setTooLong(v.startedAt, v.endedAt)
+    if (why) ctx.addIssue({ code: 'custom', path: ['endedAt'], message: why })
+  }, { when: whenObject })
   .refine(v => !Array.isArray(v.materials) || new Set(v.materials.map(m => m?.materialId)).size === v.materials.length, { path: ['materials'], error: 'Each material once: add the bags together.', when: whenObject })
 
 export const diaryQuery = z.object({

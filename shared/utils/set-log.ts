@@ -1,6 +1,6 @@
 // The set log form's sums, kept out of the page so a table can check them: which coat a set on
 // the plan is logged as, and the two times typed on site as instants.
-import { addDays, londonInstant } from './dates'
+import { addDays, londonInstant, londonTime } from './dates'
 import type { LogCoat } from './jobs'
 
 /**
@@ -37,4 +37,36 @@ export function setLogTimes(day: string, start: string, end: string): SetTimes {
   if (start && !startedAt) fields.startedAt = 'Enter the time like 08:30.'
   if (end && !endedAt) fields.endedAt = 'Enter the time like 10:15.'
   return { startedAt, endedAt, fields }
+}
+
+/**
+ * The longest a set may run, start to finish: 12 hours. A set is mixed, laid on and trowelled up in
+ * a working day; a finish "before" the start is a set that ran past midnight only within that
+ * (common practice: a plasterer's day, even a long one, is not 12 hours on one set).
+ */
+export const MAX_SET_HOURS = 12
+
+/** The most of one material a set log may record, in thousandths of a pack: 100 bags (common practice; a room takes a handful). */
+export const MAX_PACKS_X1000 = 100_000
+
+/** Why a set's times cannot be right, or null: longer than MAX_SET_HOURS, in words with London's times. */
+export function setTooLong(startedAt: string, endedAt: string): string | null {
+  const ms = Date.parse(endedAt) - Date.parse(startedAt)
+  if (!(ms > MAX_SET_HOURS * 3_600_000)) return null
+  const hours = Math.round(ms / 3_600_000)
+  return `A set from ${londonTime(new Date(startedAt))} to ${londonTime(new Date(endedAt))} would run ${hours} hours: check the times.`
+}
+
+/**
+ * The set log form's errors from the API, on the fields the page shows: the bags of the
+ * n-th material sent are the bags box of that material (`bags.<materialId>`).
+ */
+export function setLogFieldErrors(fields: Record<string, string>, sent: readonly { materialId: string }[]): Record<string, string> {
+  const out: Record<string, string> = {}
+  for (const [key, message] of Object.entries(fields)) {
+    const m = /^materials\.(\d+)\.(packsX1000|materialId)$/.exec(key)
+    const material = m ? sent[Number(m[1])] : undefined
+    out[material ? `bags.${material.materialId}` : key] = message
+  }
+  return out
 }

@@ -185,6 +185,16 @@ describe('days, crew and the set log', () => {
     expect(missing.status).toBe(400)
     expect(Object.keys(missing.body.data.fields).sort()).toEqual(['coat', 'surfaceIds'])
     expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', coat: 'first', surfaceIds: [crypto.randomUUID()] })).status).toBe(400)
+    // a finish of 09:00 after a start of 14:00 is not a set that ran past midnight: 19 hours is no set
+    const allSet1 = set1.tasks.map((t: any) => t.surfaceId)
+    const long = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: allSet1, startedAt: '2026-12-06T14:00:00Z', endedAt: '2026-12-07T09:00:00Z' })
+    expect(long.status).toBe(400)
+    expect(long.body.data.fields.endedAt).toMatch(/19 hours/)
+    // 150 bags of finish in one set: named on the material's field, not stored
+    const heap = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: allSet1, materials: [{ materialId: finish.id, packsX1000: 150_000 }] })
+    expect(heap.status).toBe(400)
+    expect(heap.body.data.fields['materials.0.packsX1000']).toMatch(/Check the figure/)
+    expect((await owner.get(`/api/jobs/${id}`)).body.logs).toHaveLength(0)
     const logged = await crew.post(`/api/jobs/${id}/logs`, {
       kind: 'set', setNumber: 1, coat: 'first', surfaceIds: set1.tasks.map((t: any) => t.surfaceId),
       startedAt: '2026-12-07T08:30:00Z', endedAt: '2026-12-07T10:15:00Z', materials: [{ materialId: finish.id, packsX1000: 1500 }], notes: 'Good suction',

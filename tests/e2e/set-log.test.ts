@@ -107,7 +107,18 @@ describe('the set log', () => {
     await page.getByRole('button', { name: 'Save the set' }).click()
     await expectText(page.getByRole('alert').filter({ hasText: 'bags' }), 'Enter the bags mixed, like 1.5.')
     expect(await page.getByLabel('Notes (optional)').inputValue()).toBe('Patch dubbed out, good suction')
+    // 5,000 bags is named beside the bags, not only at the top of the form
+    await bags.fill('5000')
+    await page.getByRole('button', { name: 'Save the set' }).click()
+    await expectText(page.getByRole('alert').filter({ hasText: 'Check the figure' }), 'More than 100 in one set? Check the figure.')
+    expect(await bags.getAttribute('aria-invalid')).toBe('true')
     await bags.fill('1.5')
+    // a finish of 09:00 after a start of 14:00 would be a 19-hour set: named beside the finish
+    await page.getByLabel('Started').fill('14:00')
+    await page.getByLabel('Finished').fill('09:00')
+    await page.getByRole('button', { name: 'Save the set' }).click()
+    await expectText(page.getByRole('alert').filter({ hasText: 'hours' }), 'A set from 14:00 to 09:00 would run 19 hours: check the times.')
+    expect(await page.getByLabel('Finished').getAttribute('aria-invalid')).toBe('true')
     // a late set that ran past midnight: the finish is earlier in the day than the start, so it began the day before
     await page.getByLabel('Started').fill('23:10')
     await page.getByLabel('Finished').fill('00:40')

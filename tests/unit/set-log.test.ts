@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { coatForSet, setLogTimes } from '../../shared/utils/set-log'
+import { coatForSet, MAX_PACKS_X1000, MAX_SET_HOURS, setLogFieldErrors, setLogTimes, setTooLong } from '../../shared/utils/set-log'
 
 // Sources: the coat rule is the firm's own (DOMAIN.md "Planning the sets": a set is laid on and
 // trowelled up in one go); the clocks, The Summer Time Act 1972 / Summer Time Order 2002 (BST from
@@ -37,4 +37,31 @@ describe('setLogTimes: the times typed on site, London time, as instants', () =>
     })
     expect(setLogTimes('2026-12-04', '09:00', 'soon').fields).toEqual({ endedAt: 'Enter the time like 10:15.' })
   })
+})
+
+// The limits are common practice (a set is laid on and trowelled up within a working day; a room
+// takes a handful of bags), not a published figure.
+describe('setTooLong: a set runs at most MAX_SET_HOURS', () => {
+  it.each<[string, string, string, string | null]>([
+    ['08:30 to 10:15 (common practice)', '2026-12-07T08:30:00Z', '2026-12-07T10:15:00Z', null],
+    ['22:00 to 01:00, past midnight (common practice)', '2026-12-06T22:00:00Z', '2026-12-07T01:00:00Z', null],
+    ['exactly 12 hours (common practice)', '2026-12-07T07:00:00Z', '2026-12-07T19:00:00Z', null],
+    ['14:00 to 09:00 the next day is 19 hours (common practice)', '2026-12-06T14:00:00Z', '2026-12-07T09:00:00Z', 'A set from 14:00 to 09:00 would run 19 hours: check the times.'],
+    ['London\'s times in summer: 15:00 to 10:00 BST (The Summer Time Act 1972)', '2026-07-06T14:00:00Z', '2026-07-07T09:00:00Z', 'A set from 15:00 to 10:00 would run 19 hours: check the times.'],
+  ])('%s', (_what, start, end, want) => expect(setTooLong(start, end)).toBe(want))
+  it('is 12 hours and 100 packs (common practice)', () => {
+    expect(MAX_SET_HOURS).toBe(12)
+    expect(MAX_PACKS_X1000).toBe(100_000)
+  })
+})
+
+describe('setLogFieldErrors: the API\'s errors on the fields the set log page shows', () => {
+  const sent = [{ materialId: 'finish-id' }, { materialId: 'bonding-id' }]
+  it.each<[string, Record<string, string>, Record<string, string>]>([
+    ['the second material\'s bags are its bags box', { 'materials.1.packsX1000': 'Check the figure.' }, { 'bags.bonding-id': 'Check the figure.' }],
+    ['the first material itself', { 'materials.0.materialId': 'Choose one of the firm\'s materials.' }, { 'bags.finish-id': 'Choose one of the firm\'s materials.' }],
+    ['other fields as they are', { endedAt: 'The end is before the start.', coat: 'Choose the coat.' }, { endedAt: 'The end is before the start.', coat: 'Choose the coat.' }],
+    ['a place that was not sent stays as it is', { 'materials.5.packsX1000': 'x' }, { 'materials.5.packsX1000': 'x' }],
+    ['the list of materials as a whole', { materials: 'Each material once: add the bags together.' }, { materials: 'Each material once: add the bags together.' }],
+  ])('%s', (_what, fields, want) => expect(setLogFieldErrors(fields, sent)).toEqual(want))
 })
