@@ -3,17 +3,15 @@
 // on an error; once saved, back to the job.
 import { londonTime, londonToday } from '#shared/utils/dates'
 import type { LogCoat } from '#shared/utils/jobs'
-import { coatForSet, MAX_PACKS_X1000, setLogFieldErrors, setLogTimes, setTooLong } from '#shared/utils/set-log'
+import { coatForSet, MAX_PACKS_X1000, setLogFieldErrors, setLogTimes, setProgress, setToLog, setTooLong } from '#shared/utils/set-log'
 
 type Job = ApiResponse<'/api/jobs/:id'>
 
-export function setLogForm(job: Job | null | undefined, me: { id: string } | undefined) {
-  const logged = new Set((job?.logs ?? []).map(l => l.setNumber).filter(Boolean))
-  const firstOpen = job?.plan.plan.sets.find(s => !logged.has(s.number))?.number ?? 1
+export function setLogForm(job: Job | null | undefined, me: { id: string } | undefined, askedSet?: unknown) {
   const now = new Date()
   return {
     kind: 'set' as 'set' | 'problem',
-    setNumber: String(firstOpen),
+    setNumber: String(setToLog(job?.plan.plan.sets ?? [], job?.logs ?? [], askedSet)),
     coat: 'first' as LogCoat,
     surfaceIds: [] as string[],
     // the times are London's, as the job page shows them; a set is taken to have started two hours ago
@@ -30,8 +28,10 @@ export type SetLogForm = ReturnType<typeof setLogForm>
 
 export function useSetLogForm(job: Ref<Job | null | undefined>) {
   const shell = useShellStore()
-  const form = ref(setLogForm(job.value, shell.me?.user))
-  const logged = computed(() => new Set((job.value?.logs ?? []).map(l => l.setNumber).filter(Boolean)))
+  const route = useRoute()
+  const form = ref(setLogForm(job.value, shell.me?.user, route.query.set))
+  // each set's progress, for the Set box: done once its final coat is logged, part logged before
+  const logged = computed(() => new Map((job.value?.plan.plan.sets ?? []).map(s => [s.number, setProgress(s, job.value?.logs ?? [])])))
 
   function fillFromSet() {
     const set = job.value?.plan.plan.sets.find(s => String(s.number) === form.value.setNumber)

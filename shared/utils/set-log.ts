@@ -70,3 +70,29 @@ export function setLogFieldErrors(fields: Record<string, string>, sent: readonly
   }
   return out
 }
+
+type Action = 'fill' | 'tight-coat' | 'skim'
+interface PlannedSet { number: number, tasks: readonly { action: Action }[] }
+interface LoggedEntry { kind: string, setNumber: number | null, coat: LogCoat | null }
+
+/**
+ * How far a set on the plan has been logged: done once its final coat (coatForSet: the second
+ * coat of a set with a skim) is logged against it, partly once anything is (a fill or a first
+ * coat now, the second later), else to do.
+ */
+export function setProgress(set: PlannedSet, logs: readonly LoggedEntry[]): 'to-do' | 'partly' | 'done' {
+  const mine = logs.filter(l => l.kind === 'set' && l.setNumber === set.number)
+  if (mine.some(l => l.coat === coatForSet(set.tasks))) return 'done'
+  return mine.length ? 'partly' : 'to-do'
+}
+
+/**
+ * The set the log form opens on: the one asked for (the job page's "Log set 2", as ?set=2) when
+ * the plan has it, else the first not yet done. It never moves on because a set was logged in
+ * part: three coats of set 1 are all set 1.
+ */
+export function setToLog(sets: readonly PlannedSet[], logs: readonly LoggedEntry[], asked?: unknown): number {
+  const n = Number(asked)
+  if (typeof asked === 'string' && /^\d+$/.test(asked) && sets.some(s => s.number === n)) return n
+  return sets.find(s => setProgress(s, logs) !== 'done')?.number ?? sets[0]?.number ?? 1
+}

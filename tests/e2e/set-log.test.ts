@@ -132,6 +132,13 @@ describe('the set log', () => {
     // set 1 does not skim every surface, so the room is not ready yet
     await expectVisible(page.getByTestId('ready').getByText(/not finished/))
     await expectVisible(page.getByTestId('ready').getByText(/not a promise/))
+    // set 1 shows as logged on the plan, and "Log set 1" opens set 1 again: the Set box never moves on by itself
+    const set1 = page.getByTestId('set-1')
+    await expectText(set1, /Done|Part logged/)
+    await set1.getByRole('link', { name: 'Log set 1' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+    await expectVisible(page.getByRole('heading', { name: 'Log a set' }))
+    expect(await page.getByLabel('Set', { exact: true }).inputValue()).toBe('1')
     // the day sheet for today: who is on it and its sets, set 1 done
     await visit(page, `${e2e.url}/jobs/${jobId}/sheet?day=${bookedDay}`)
     const sheetDay = page.getByTestId(`sheet-day-${bookedDay}`)

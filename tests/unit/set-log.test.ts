@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { coatForSet, MAX_PACKS_X1000, MAX_SET_HOURS, setLogFieldErrors, setLogTimes, setTooLong } from '../../shared/utils/set-log'
+import { coatForSet, MAX_PACKS_X1000, MAX_SET_HOURS, setLogFieldErrors, setLogTimes, setProgress, setToLog, setTooLong } from '../../shared/utils/set-log'
 
 // Sources: the coat rule is the firm's own (DOMAIN.md "Planning the sets": a set is laid on and
 // trowelled up in one go); the clocks, The Summer Time Act 1972 / Summer Time Order 2002 (BST from
@@ -64,4 +64,32 @@ describe('setLogFieldErrors: the API\'s errors on the fields the set log page sh
     ['a place that was not sent stays as it is', { 'materials.5.packsX1000': 'x' }, { 'materials.5.packsX1000': 'x' }],
     ['the list of materials as a whole', { materials: 'Each material once: add the bags together.' }, { materials: 'Each material once: add the bags together.' }],
   ])('%s', (_what, fields, want) => expect(setLogFieldErrors(fields, sent)).toEqual(want))
+})
+
+describe('setProgress and setToLog: the set the log opens on never moves on by itself', () => {
+  // the firm's own rule (DOMAIN.md "Planning the sets"): a set with a skim is done at its second coat
+  const sets = [
+    { number: 1, tasks: [{ action: 'fill' as const }, { action: 'tight-coat' as const }, { action: 'skim' as const }] },
+    { number: 2, tasks: [{ action: 'skim' as const }] },
+    { number: 3, tasks: [{ action: 'fill' as const }] },
+  ]
+  const log = (setNumber: number | null, coat: 'fill' | 'tight-coat' | 'first' | 'second' | null, kind = 'set') => ({ kind, setNumber, coat })
+  it.each<[string, ReturnType<typeof log>[], string | undefined, number, string]>([
+    ['nothing logged: set 1', [], undefined, 1, 'to-do'],
+    ['set 1\'s fill and tight coat logged: still set 1 (the bug: it moved to set 2)', [log(1, 'fill'), log(1, 'tight-coat')], undefined, 1, 'partly'],
+    ['set 1\'s first coat: still set 1', [log(1, 'first')], undefined, 1, 'partly'],
+    ['set 1\'s second coat: set 1 done, set 2 next', [log(1, 'first'), log(1, 'second')], undefined, 2, 'done'],
+    ['a problem noted against set 1 does not count', [log(1, null, 'problem')], undefined, 1, 'to-do'],
+    ['asked for set 3 (the job page\'s "Log set 3")', [], '3', 3, 'to-do'],
+    ['asked for a set the plan does not have: the first not done', [], '9', 1, 'to-do'],
+    ['asked for something that is not a number', [], 'two', 1, 'to-do'],
+  ])('%s', (_what, logs, asked, opens, set1) => {
+    expect(setToLog(sets, logs, asked)).toBe(opens)
+    expect(setProgress(sets[0]!, logs)).toBe(set1)
+  })
+  it('every set done: the form opens on set 1 rather than nowhere', () => {
+    const all = [log(1, 'second'), log(2, 'second'), log(3, 'fill')]
+    expect(sets.map(s => setProgress(s, all))).toEqual(['done', 'done', 'done'])
+    expect(setToLog(sets, all)).toBe(1)
+  })
 })
