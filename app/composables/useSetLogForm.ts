@@ -41,6 +41,11 @@ export function useSetLogForm(job: Ref<Job | null | undefined>) {
   }
   fillFromSet()
   watch(() => form.value.setNumber, fillFromSet)
+  // a time changed after an error about the times puts that error away until the next save
+  watch(() => [form.value.day, form.value.start, form.value.end], () => {
+    const { startedAt: _s, endedAt: _e, ...rest } = save.errors.value.fields
+    if (_s || _e) save.errors.value = { ...save.errors.value, fields: rest }
+  })
 
   const people = computed(() => {
     const seen = new Map<string, string>()

@@ -3,7 +3,7 @@
 // then the owner sees the materials used against the estimate.
 import { describe, expect, it } from 'vitest'
 import { Client, uniqueEmail } from '../support/client'
-import { expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { expectAbsent, expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
 import { CREW, OWNER } from './demo'
 
 const e2e = useE2E()
@@ -122,6 +122,8 @@ describe('the set log', () => {
     // a late set that ran past midnight: the finish is earlier in the day than the start, so it began the day before
     await page.getByLabel('Started').fill('23:10')
     await page.getByLabel('Finished').fill('00:40')
+    // a change to the times puts their error away
+    await expectAbsent(page.getByRole('alert').filter({ hasText: 'hours' }))
     await screenshot(page, 'set-log-form')
     await page.getByRole('button', { name: 'Save the set' }).click()
     await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
