@@ -115,9 +115,14 @@ export const setLogs = pgTable('set_logs', {
   coldOrDamp: boolean().notNull().default(false),
   notes: text().notNull().default(''),
   loggedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  /** The plan's tasks this entry carries out (surface and action), ticked on the phone. */
+  tasks: jsonb().$type<{ surfaceId: string, action: 'fill' | 'tight-coat' | 'skim' }[]>().notNull().default([]),
+  /** Made on the phone when the entry was started: a resend of the same entry (after a lost answer or from the offline queue) is stored once. */
+  clientId: uuid(),
   ...timestamps,
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
+  unique('set_logs_client_unique').on(t.firmId, t.clientId),
   foreignKey({ name: 'set_logs_job_fk', columns: [t.firmId, t.jobId], foreignColumns: [jobs.firmId, jobs.id] }).onDelete('cascade'),
   index('set_logs_job_idx').on(t.firmId, t.jobId),
   firmPolicy('set_logs'),

@@ -28,6 +28,10 @@ export const visits = pgTable('visits', {
   visitorUserId: uuid().references(() => users.id, { onDelete: 'set null' }),
   status: visitStatus().notNull().default('booked'),
   notes: text().notNull().default(''),
+  /** When the visit was finished (status done). */
+  doneAt: timestamp({ withTimezone: true }),
+  /** Why it was cancelled (status cancelled). */
+  cancelReason: text().notNull().default(''),
   ...timestamps,
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
