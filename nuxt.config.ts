@@ -1,6 +1,6 @@
 // Setwell's Nuxt configuration. Everything runs on this machine: no telemetry, no font or CDN hosts.
 export default defineNuxtConfig({
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt'],
   devtools: { enabled: false },
   app: {
     head: {
@@ -11,10 +11,53 @@ export default defineNuxtConfig({
         { name: 'theme-color', content: '#26313B' },
         { name: 'description', content: 'Setwell: the back office for small plastering firms.' },
       ],
-      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+      link: [
+        { rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' },
+        { rel: 'apple-touch-icon', href: '/icons/apple-touch-180.png' },
+        { rel: 'manifest', href: '/manifest.webmanifest' },
+      ],
     },
   },
   css: ['~/assets/css/main.css'],
+  routeRules: {
+    // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
+    // app with no server-side data, which draws the page from what the phone kept
+    '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },
+  },
+  // Installable and usable with no signal (DEVELOPERS.md "Offline"). injectManifest: the service
+  // worker is our own file (app/service-worker/sw.ts) built with Workbox's parts.
+  pwa: {
+    strategies: 'injectManifest',
+    srcDir: 'service-worker',
+    filename: 'sw.ts',
+    registerType: 'autoUpdate',
+    injectRegister: false,
+    manifest: {
+      name: 'Setwell',
+      short_name: 'Setwell',
+      description: 'The back office for small plastering firms.',
+      lang: 'en-GB',
+      start_url: '/',
+      scope: '/',
+      display: 'standalone',
+      orientation: 'portrait',
+      theme_color: '#26313B',
+      background_color: '#FBF3F0',
+      icons: [
+        { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+        { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+        { src: '/icons/maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        { src: '/favicon.svg', sizes: 'any', type: 'image/svg+xml' },
+      ],
+    },
+    injectManifest: {
+      // the app's code, styles, fonts and icons; not the photos or documents (they are data)
+      globPatterns: ['_nuxt/**/*.{js,css,woff2}', 'icons/*.png', 'favicon.svg'],
+      maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
+    },
+    client: { installPrompt: false, registerPlugin: true },
+    devOptions: { enabled: false },
+  },
   runtimeConfig: {
     // Each of these is overridden at run time by NUXT_<NAME> (for example NUXT_DATABASE_URL).
     databaseUrl: '',

@@ -7,11 +7,14 @@ import type { Background, ConditionKind, CornerKind, OpeningKind, SurfaceKind } 
 import { formatSquareMetres, parseMetres, parseSquareMetres } from '#shared/utils/measure'
 import { roomTotals, type RoomTotals } from '#shared/utils/room-area'
 import { formErrors, type FormErrors } from '~/utils/errors'
+import { drop, dropAll, keep, readAll, roomStore } from '~/utils/idb'
+import { newId } from '~/utils/ids'
 
-// The rooms being measured on a visit, as typed: kept in localStorage on every change (one key
-// per visit and room), so nothing is lost when the signal drops, the phone locks or the page is
-// reloaded. "Save room" sends the room whole; with no signal it waits and goes by itself when the
-// phone is back online. A draft is cleared once the server has it.
+// The rooms being measured on a visit, as typed: kept in IndexedDB on every change (one key
+// per visit and room), so nothing is lost when the signal drops, the phone locks or is switched
+// off, or the page is reloaded (drafts an older Setwell kept in localStorage are moved over).
+// "Save room" sends the room whole; with no signal it waits and goes by itself when the phone is
+// back online. A draft is cleared once the server has it.
 
 /** A room as the server answers it (GET /api/visits/:id/rooms, PUT …/rooms/:roomId). */
 export type SavedRoom = Room & { id: string, visitId: string, updatedAt: string, totals: RoomTotals }
@@ -61,16 +64,6 @@ const SEND_TIMEOUT_MS = 20_000
 const noErrors = (): FormErrors => ({ message: '', fields: {} })
 
 export const draftKey = (visitId: string, roomId: string) => `${PREFIX}${visitId}:${roomId}`
-
-/** A v4 UUID. crypto.randomUUID only exists on https (or localhost); a phone testing over plain http on the LAN still needs ids. */
-export function newId(): string {
-  if (typeof crypto.randomUUID === 'function') return crypto.randomUUID()
-  const b = crypto.getRandomValues(new Uint8Array(16))
-  b[6] = (b[6]! & 0x0F) | 0x40
-  b[8] = (b[8]! & 0x3F) | 0x80
-  const h = [...b].map(x => x.toString(16).padStart(2, '0')).join('')
-  return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`
-}
 
 /** Millimetres as the metres a person would have typed: 2400 -> '2.40', 2405 -> '2.405'. Exact, unlike formatMetres. */
 export function metresInput(mm: number | null | undefined): string {
@@ -187,6 +180,14 @@ export function toBody(room: DraftRoom) {
   }
 }
 
+/** The same room, whatever the revision: what this draft would save is what is saved. */
+export function sameRoom(draft: DraftRoom, saved: SavedRoom): boolean {
+  const a = roomSchema.safeParse(toBody(draft))
+  const b = roomSchema.safeParse(toBody(fromSaved(saved)))
+  if (!a.success || !b.success) return false
+  return JSON.stringify({ ...a.data, revision: 0 }) === JSON.stringify({ ...b.data, revision: 0 })
+}
+
 /** The running total of a draft, as typed (figures not yet readable count as 0). */
 export function draftTotals(room: DraftRoom): RoomTotals {
   return roomTotals(room.surfaces.map(s => ({
@@ -206,15 +207,15 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
   const entries = ref<Record<string, DraftEntry>>({})
   /** The last room the server accepted, so a page can refresh its list (sends also happen on their own). */
   const lastSaved = ref<{ key: string, room: SavedRoom, at: number } | null>(null)
+  /** The phone's storage has been read (restore). */
+  const restored = ref(false)
 
   function write(e: DraftEntry) {
-    try {
-      localStorage.setItem(e.key, JSON.stringify(e))
-    }
-    catch { /* storage full or blocked: the draft still lives in memory */ }
+    // a plain copy: IndexedDB cannot store Vue's reactive proxies
+    void keep(roomStore(), e.key, JSON.parse(JSON.stringify(e)))
   }
 
-  // every change goes to localStorage at once
+  // every change goes to the phone's storage at once
   if (import.meta.client) {
     watch(entries, (all) => {
       for (const e of Object.values(all)) write(e)
@@ -225,30 +226,40 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
     return Object.values(entries.value).filter(e => e.room.visitId === visitId)
   }
 
+  /** Drafts an older Setwell kept in localStorage, moved to IndexedDB (once). */
+  async function moveFromLocalStorage() {
+    const keys = Array.from({ length: localStorage.length }, (_, i) => localStorage.key(i)).filter(k => k?.startsWith(PREFIX)) as string[]
+    for (const key of keys) {
+      try {
+        const e = JSON.parse(localStorage.getItem(key) ?? 'null') as unknown
+        if (isEntry(e) && e.key === key) await keep(roomStore(), key, e)
+      }
+      catch { /* damaged: leave it */ }
+      localStorage.removeItem(key)
+    }
+  }
+
   /**
    * Bring back what this phone kept for the visit (or for every visit, with no id: for an app-wide
    * plugin that sends waiting rooms whatever page is open). A send cut off by a closed page waits again.
    */
-  function restore(visitId?: string) {
+  async function restore(visitId?: string) {
     if (!import.meta.client) return
+    await moveFromLocalStorage()
     const prefix = visitId ? `${PREFIX}${visitId}:` : PREFIX
-    const keys = Array.from({ length: localStorage.length }, (_, i) => localStorage.key(i))
-    for (const key of keys) {
-      if (!key?.startsWith(prefix) || entries.value[key]) continue
-      try {
-        const e = JSON.parse(localStorage.getItem(key) ?? 'null') as unknown
-        if (!isEntry(e) || e.key !== key) continue
-        // an untouched copy of a saved room is worth nothing: the server's is newer or the same
-        if (!e.dirty && e.state === 'editing') {
-          localStorage.removeItem(key)
-          continue
-        }
-        if (e.state === 'sending') e.state = 'waiting'
-        e.errors ??= noErrors()
-        entries.value[key] = e
+    for (const [key, e] of await readAll<unknown>(roomStore())) {
+      if (!key.startsWith(prefix) || entries.value[key]) continue
+      if (!isEntry(e) || e.key !== key) continue
+      // an untouched copy of a saved room is worth nothing: the server's is newer or the same
+      if (!e.dirty && e.state === 'editing') {
+        void drop(roomStore(), key)
+        continue
       }
-      catch { /* not ours, or damaged: leave it */ }
+      if (e.state === 'sending') e.state = 'waiting'
+      e.errors ??= noErrors()
+      entries.value[key] = e
     }
+    restored.value = true
   }
 
   function add(room: DraftRoom, dirty: boolean): string {
@@ -282,8 +293,21 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
   function discard(key: string) {
     const { [key]: _gone, ...rest } = entries.value
     entries.value = rest
-    if (import.meta.client) localStorage.removeItem(key)
+    if (import.meta.client) void drop(roomStore(), key)
   }
+
+  /** Every draft on this phone, gone (signing out). */
+  async function forget() {
+    entries.value = {}
+    await dropAll(roomStore())
+  }
+
+  /** Rooms saved with no signal, not yet sent (counted in the shell with the outbox). */
+  const waiting = computed(() => Object.values(entries.value).filter(e => e.state === 'waiting' || e.state === 'sending'))
+  /** Rooms that need the person (changed elsewhere, or refused). */
+  const needsYou = computed(() => Object.values(entries.value).filter(e => e.state === 'conflict' || e.state === 'failed'))
+  /** Rooms typed on this phone and not sent, whatever their state (warned about at sign-out). */
+  const unsent = computed(() => Object.values(entries.value).filter(e => e.dirty || e.state !== 'editing'))
 
   /** Leaving the editor: a draft nobody changed is not worth keeping. */
   function close(key: string) {
@@ -332,6 +356,12 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
         return 'waiting'
       }
       const data = fe.data?.data
+      if (fe.statusCode === 409 && data?.current && now.version === version && sameRoom(now.room, data.current)) {
+        // our own earlier send got there and only its answer was lost: the room as saved is this draft
+        discard(key)
+        lastSaved.value = { key, room: data.current, at: Date.now() }
+        return 'sent'
+      }
       if (fe.statusCode === 409 && data && 'current' in data) {
         now.state = 'conflict'
         now.conflict = data.current ?? null
@@ -379,5 +409,5 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
     }, RETRY_MS)
   }
 
-  return { entries, lastSaved, forVisit, restore, create, open, touch, discard, close, send, sendWaiting, keepMine, takeTheirs }
+  return { entries, lastSaved, restored, waiting, needsYou, unsent, forVisit, restore, create, open, touch, discard, forget, close, send, sendWaiting, keepMine, takeTheirs }
 })

@@ -7,9 +7,10 @@
 import { fileTypeFromBuffer } from 'file-type'
 import sharp from 'sharp'
 import type { UploadedFile } from './multipart'
+import { PHOTO_FULL_EDGE_PX } from '#shared/schemas/photo'
 
 export const MAX_INPUT_PIXELS = 40_000_000
-export const FULL_EDGE_PX = 2560
+export const FULL_EDGE_PX = PHOTO_FULL_EDGE_PX
 export const THUMB_EDGE_PX = 400
 
 // Each upload is decoded once; libvips' operation cache would only keep pixels nobody asks for again.

@@ -9,7 +9,7 @@ import { PHOTO_TARGET_KEYS, photoUploadSchema, type PhotoTarget, type PhotoTarge
 /** The upload's inputs, query string and form fields together; the same name twice with two values is a 400. */
 export function mergeUploadInputs(query: Record<string, unknown>, fields: Record<string, string>) {
   const merged: Record<string, unknown> = {}
-  for (const key of [...PHOTO_TARGET_KEYS, 'caption']) {
+  for (const key of [...PHOTO_TARGET_KEYS, 'caption', 'clientId']) {
     const q = typeof query[key] === 'string' ? query[key] as string : undefined
     const b = fields[key]
     if (q !== undefined && b !== undefined && q !== b) throw fieldError({ [key]: 'Given twice with two values.' })
@@ -135,4 +135,11 @@ export async function listPhotos(f: FirmScope, filter: PhotoTarget): Promise<Pho
   return f.tx.select().from(photos)
     .where(f.where(photos, eq(photos[key], filter[key]!)))
     .orderBy(asc(photos.createdAt), asc(photos.id))
+}
+
+/** The photo already stored with this phone-made id, as the upload answers it (null if none). */
+export async function keptPhoto(f: FirmScope, clientId: string) {
+  const [row] = await f.tx.select({ id: photos.id, width: photos.width, height: photos.height }).from(photos)
+    .where(f.where(photos, eq(photos.clientId, clientId)))
+  return row ? { ...row, ...photoUrls(row.id) } : null
 }

@@ -1,6 +1,9 @@
 import { z } from 'zod'
 import { text } from './common'
 
+/** The longest edge of a photo as kept (server/utils/images.ts); a phone shrinks what it queues to this. */
+export const PHOTO_FULL_EDGE_PX = 2560
+
 export const PHOTO_TARGET_KEYS = ['enquiryId', 'visitId', 'surfaceId', 'conditionId', 'setLogId'] as const
 export type PhotoTargetKey = (typeof PHOTO_TARGET_KEYS)[number]
 export type PhotoTarget = Partial<Record<PhotoTargetKey, string>>
@@ -26,9 +29,11 @@ function exactlyOneTarget(value: PhotoTarget, ctx: z.RefinementCtx) {
   }
 }
 
-/** The target (exactly one id) and caption of an upload, from its query or form fields. */
+/** The target (exactly one id), caption and phone-made id of an upload, from its query or form fields. */
 export const photoUploadSchema = z.object({
   ...targetShape,
+  /** Made on the phone: the same photo sent twice (a lost answer, the offline queue) is stored once. */
+  clientId: optionalId,
   caption: text().trim().max(500, { error: 'Keep the caption under 500 characters.' }).default(''),
 }).superRefine(exactlyOneTarget)
 

@@ -228,3 +228,16 @@ export function londonInstant(isoDate: string, hhmm: string): Date | null {
   const at = new TZDate(day.getUTCFullYear(), day.getUTCMonth(), day.getUTCDate(), Number(time[1]), Number(time[2]), 0, LONDON_TZ)
   return new Date(at.getTime())
 }
+
+/**
+ * When something was kept or last seen, in London, in words for a phone's banner: "at 07:42 today",
+ * "at 16:10 yesterday", "at 07:42 on Thursday 3 December" (with the year when not this year's).
+ */
+export function whenSaid(at: Date, now: Date = new Date()): string {
+  const day = londonDay(at)
+  const today = londonDay(now)
+  const time = londonTime(at)
+  if (day === today) return `at ${time} today`
+  if (day === addDays(today, -1)) return `at ${time} yesterday`
+  return `at ${time} on ${day.slice(0, 4) === today.slice(0, 4) ? dayAndMonth(at) : fullDate(at)}`
+}

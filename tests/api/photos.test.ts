@@ -338,6 +338,53 @@ describe('uploading a photo', () => {
   })
 })
 
+describe('a photo sent again from the phone\'s queue (clientId)', () => {
+  it('stores it once: the resend answers 200 with the same photo, and nothing new is kept', async () => {
+    const { client: owner, firmId } = await signUpFirm(app.url)
+    const job = await makeJob(firmId)
+    const clientId = randomUUID()
+    const picture = { data: await jpeg(900, 600), name: 'IMG_0101.jpg' }
+    const first = await upload(app.url, owner, { visitId: job.visitId, clientId }, picture)
+    expect(first.status, JSON.stringify(first.body)).toBe(201)
+    const files = filesUnder(storageDir).length
+    const again = await upload(app.url, owner, { visitId: job.visitId, clientId }, picture)
+    expect(again.status).toBe(200)
+    expect(again.body).toEqual(first.body)
+    expect(await photoCount(firmId)).toBe(1)
+    expect(filesUnder(storageDir).length).toBe(files)
+    expect((await photoRow(firmId, first.body.id)).client_id).toBe(clientId)
+    // another firm's phone-made id is its own: the same id there is a new photo
+    const other = await signUpFirm(app.url)
+    const theirJob = await makeJob(other.firmId)
+    expect((await upload(app.url, other.client, { visitId: theirJob.visitId, clientId }, picture)).status).toBe(201)
+    // not an id: 400 on the field
+    const bad = await upload(app.url, owner, { visitId: job.visitId, clientId: 'photo-1' }, picture)
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields).toHaveProperty('clientId')
+  })
+
+  it('stores it once when the same photo arrives many times at once, and leaves no stray files', async () => {
+    const { client: owner, firmId } = await signUpFirm(app.url)
+    const job = await makeJob(firmId)
+    const clientId = randomUUID()
+    const picture = { data: await jpeg(1200, 900), name: 'IMG_0102.jpg' }
+    const before = filesUnder(storageDir).length
+    let open!: () => void
+    const gate = new Promise<void>((resolve) => {
+      open = resolve
+    })
+    const calls = Array.from({ length: 10 }, () => gate.then(() => upload(app.url, owner, { visitId: job.visitId, clientId }, picture)))
+    open()
+    const answers = await Promise.all(calls)
+    expect(answers.every(a => a.status === 200 || a.status === 201), JSON.stringify(answers.map(a => a.status))).toBe(true)
+    expect(answers.filter(a => a.status === 201)).toHaveLength(1)
+    expect(new Set(answers.map(a => a.body.id)).size).toBe(1)
+    expect(await photoCount(firmId)).toBe(1)
+    // the image and its thumbnail, once
+    expect(filesUnder(storageDir).length).toBe(before + 2)
+  })
+})
+
 describe('what is refused', () => {
   let owner: Client
   let firmId: string

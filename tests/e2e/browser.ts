@@ -259,3 +259,25 @@ export function useE2E() {
     },
   }
 }
+
+/**
+ * The keys the app keeps in one of its IndexedDB stores on the phone (app/utils/idb.ts): the
+ * outbox ('setwell-outbox', 'items') or room drafts ('setwell-rooms', 'drafts'). Opens the
+ * database as idb-keyval does (creating the store if it is new), so the app can still open it.
+ */
+export async function phoneKeys(page: Page, db: string, store: string): Promise<string[]> {
+  return page.evaluate(([dbName, storeName]) => new Promise<string[]>((resolve, reject) => {
+    const req = indexedDB.open(dbName!)
+    req.onupgradeneeded = () => req.result.createObjectStore(storeName!)
+    req.onerror = () => reject(req.error)
+    req.onsuccess = () => {
+      const d = req.result
+      const all = d.transaction(storeName!, 'readonly').objectStore(storeName!).getAllKeys()
+      all.onsuccess = () => {
+        d.close()
+        resolve(all.result.map(String))
+      }
+      all.onerror = () => reject(all.error)
+    }
+  }), [db, store])
+}

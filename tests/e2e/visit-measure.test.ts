@@ -11,7 +11,7 @@ import { ASBESTOS_CAUTION } from '../../shared/utils/ledger'
 import { requiredEnv } from '../support/app'
 import { Client } from '../support/client'
 import sharp from 'sharp'
-import { expectCleanRun, expectText, expectVisible, reload, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { expectCleanRun, expectText, expectVisible, phoneKeys, reload, screenshot, signInToDashboard, useE2E, visit } from './browser'
 import { OWNER } from './demo'
 
 const e2e = useE2E()
@@ -143,7 +143,7 @@ describe('measuring a room on a site visit', () => {
     // kept after a reload, from the server this time
     await reload(page)
     await expectText(page.getByTestId('room-card').filter({ hasText: 'Back bedroom' }).getByTestId('room-card-total'), '27.60 m²')
-    expect(await page.evaluate(() => Object.keys(localStorage).filter(k => k.startsWith('setwell:room-draft:')))).toEqual([])
+    await expect.poll(() => phoneKeys(page, 'setwell-rooms', 'drafts')).toEqual([])
     await screenshot(page, 'visit-rooms-saved-phone')
 
     // a photo of the visit, from the phone's saved pictures: it is stored and shown as a thumbnail
@@ -176,7 +176,7 @@ describe('measuring a room on a site visit', () => {
     expect(sent.totals.totalCm2).toBe(288_000)
     await expectText(page.getByRole('status').filter({ hasText: 'saved:' }), 'Back bedroom saved: 28.80 m².')
     await expectText(page.getByTestId('room-card').filter({ hasText: 'Back bedroom' }).getByTestId('draft-status'), 'Saved')
-    expect(await page.evaluate(() => Object.keys(localStorage).filter(k => k.startsWith('setwell:room-draft:')))).toEqual([])
+    await expect.poll(() => phoneKeys(page, 'setwell-rooms', 'drafts')).toEqual([])
     await screenshot(page, 'visit-room-sent-phone')
 
     expectCleanRun(jess)

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import { addDays, addMonths, compareDays, dayAndMonth, dayMonth, dayMonthTime, daysBetween, daysBefore, daysInMonth, fullDate, isIsoDate, londonDay, londonInstant, londonTime, londonToday, longDate, longIsoDate, monthAndYear, monthBounds, shortDay, shortDayTime, weekBounds } from '../../shared/utils/dates'
+import { addDays, addMonths, compareDays, dayAndMonth, dayMonth, dayMonthTime, daysBetween, daysBefore, daysInMonth, fullDate, isIsoDate, londonDay, londonInstant, londonTime, londonToday, longDate, longIsoDate, monthAndYear, monthBounds, shortDay, shortDayTime, weekBounds, whenSaid } from '../../shared/utils/dates'
 import { todayIso } from '../../server/utils/invoices'
 
 // Sources, beside each case:
@@ -181,4 +181,19 @@ describe('words for people (en-GB)', () => {
     ['dayMonthTime in winter', dayMonthTime(new Date('2026-12-04T14:22:00Z')), '4 Dec, 14:22'],
     ['dayMonthTime after midnight BST', dayMonthTime(new Date('2026-07-01T23:30:00Z')), '2 Jul, 00:30'],
   ])('%s: %s', (_what, got, want) => expect(got).toBe(want))
+})
+
+describe('whenSaid: when the phone kept a page, in words (London time)', () => {
+  // [kept at, now, words]: the clocks of the UK (GMT in winter, BST in summer: the Summer Time Act 1972)
+  const cases: [string, string, string][] = [
+    ['2026-12-05T07:42:00Z', '2026-12-05T09:00:00Z', 'at 07:42 today'],
+    ['2026-12-04T16:10:00Z', '2026-12-05T09:00:00Z', 'at 16:10 yesterday'],
+    // 23:30 UTC on 30 June is 00:30 BST on 1 July: London's day, not UTC's
+    ['2026-06-30T23:30:00Z', '2026-07-01T08:00:00Z', 'at 00:30 today'],
+    ['2026-12-03T07:42:00Z', '2026-12-05T09:00:00Z', 'at 07:42 on Thursday 3 December'],
+    ['2025-12-31T10:00:00Z', '2026-01-02T09:00:00Z', 'at 10:00 on Wednesday 31 December 2025'],
+  ]
+  it.each(cases)('kept %s, now %s: %s', (at, now, words) => {
+    expect(whenSaid(new Date(at), new Date(now))).toBe(words)
+  })
 })

@@ -7,6 +7,9 @@ import { PHOTO_TARGET_KEYS, photoListQuery } from '#shared/schemas/photo'
  * a form field or in the query string). At /api/photos/uploads because the request guard leaves
  * `/uploads` paths' bodies to the route (it still refuses cross-site requests).
  *
+ * An optional `clientId` (a uuid made on the phone) makes a resend harmless: a photo already stored
+ * with it is answered 200 with the same body, and nothing new is kept.
+ *
  * 201 { id, width, height, url, thumbUrl }. 401, 403 (accountant), 404 (no such target in this
  * firm), 400 (no file, no or two targets), 413 (over the size limit, with or without
  * Content-Length), 415 (not multipart, or not a JPEG/PNG/WebP/HEIC photo), 422 (over 40
@@ -32,12 +35,18 @@ export default defineEventHandler(async (event) => {
 
   const upload = await readMultipartUpload(event, {
     fileField: 'file',
-    fields: [...PHOTO_TARGET_KEYS, 'caption'],
+    fields: [...PHOTO_TARGET_KEYS, 'caption', 'clientId'],
     maxFileBytes,
     maxRequestBytes,
   })
   const input = mergeUploadInputs(query, upload.fields)
   if (!upload.file || upload.file.data.length === 0) throw fieldError({ file: 'Choose a photo to upload.' })
+
+  // sent again from the phone's queue (its first answer was lost): the photo it already is
+  if (input.clientId) {
+    const already = await withFirm(auth, f => keptPhoto(f, input.clientId!))
+    if (already) return already
+  }
 
   const type = await sniffPhoto(upload.file)
   const { full, thumb } = await encodePhoto(upload.file.data, type)
@@ -50,11 +59,12 @@ export default defineEventHandler(async (event) => {
   await store.put(storageKey, full.data)
   await store.put(thumbKey, thumb.data)
 
-  let row: PhotoRow
+  let row: PhotoRow | null
   try {
     row = await withFirm(auth, async (f) => {
       const { setLogId, ...target } = await resolvePhotoTarget(f, auth, input)
       const [inserted] = await f.tx.insert(photos).values(f.values({
+        clientId: input.clientId ?? null,
         storageKey,
         thumbKey,
         contentType: full.contentType,
@@ -65,7 +75,9 @@ export default defineEventHandler(async (event) => {
         caption: input.caption,
         ...target,
         uploadedBy: auth.userId,
-      })).returning()
+      })).onConflictDoNothing({ target: [photos.firmId, photos.clientId] }).returning()
+      // the same phone-made id arrived twice at once: the other one stored it
+      if (!inserted) return null
       if (setLogId) await f.tx.insert(setLogPhotos).values(f.values({ photoId: inserted!.id, setLogId }))
       await f.audit('photo.uploaded', 'photo', inserted!.id, {
         ...target,
@@ -84,6 +96,12 @@ export default defineEventHandler(async (event) => {
     throw err
   }
 
+  if (!row) {
+    await Promise.allSettled([store.remove(storageKey), store.remove(thumbKey)])
+    const already = await withFirm(auth, f => keptPhoto(f, input.clientId!))
+    if (already) return already
+    throw createError({ statusCode: 409, statusMessage: 'Sent twice', data: { message: 'This photo was sent twice at once. Try again.' } })
+  }
   setResponseStatus(event, 201)
   return { id: row.id, width: row.width, height: row.height, ...photoUrls(row.id) }
 })

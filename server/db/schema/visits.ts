@@ -1,7 +1,7 @@
 // Site visits and what was measured and found: rooms, their surfaces with openings and
 // conditions, the corners between surfaces, and photos. Lengths are whole millimetres and areas
 // whole square centimetres, so no float ever reaches the database (shown as metres, 2 decimals).
-import { boolean, foreignKey, index, integer, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { boolean, foreignKey, index, integer, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
 import { BACKGROUNDS, CONDITION_KINDS, CORNER_KINDS, OPENING_KINDS, SURFACE_KINDS, VISIT_STATUSES } from '../../../shared/utils/ledger'
 import { firmColumn, sameFirm, timestamps } from './common'
 import { customers, enquiries, sites } from './ledger'
@@ -160,9 +160,12 @@ export const photos = pgTable('photos', {
   surfaceId: uuid(),
   conditionId: uuid(),
   uploadedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  /** Made on the phone when the photo was taken: an upload sent again (from the offline queue) is stored once. */
+  clientId: uuid(),
   ...timestamps,
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
+  unique('photos_client_unique').on(t.firmId, t.clientId),
   foreignKey({ name: 'photos_enquiry_fk', columns: [t.firmId, t.enquiryId], foreignColumns: [enquiries.firmId, enquiries.id] }).onDelete('cascade'),
   foreignKey({ name: 'photos_visit_fk', columns: [t.firmId, t.visitId], foreignColumns: [visits.firmId, visits.id] }).onDelete('cascade'),
   index('photos_visit_idx').on(t.firmId, t.visitId),

@@ -1,0 +1,9 @@
+/** A v4 UUID. crypto.randomUUID only exists on https (or localhost); a phone testing over plain http on the LAN still needs ids. */
+export function newId(): string {
+  if (typeof crypto.randomUUID === 'function') return crypto.randomUUID()
+  const b = crypto.getRandomValues(new Uint8Array(16))
+  b[6] = (b[6]! & 0x0F) | 0x40
+  b[8] = (b[8]! & 0x3F) | 0x80
+  const h = [...b].map(x => x.toString(16).padStart(2, '0')).join('')
+  return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`
+}

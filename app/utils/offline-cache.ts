@@ -1,0 +1,55 @@
+// What the phone keeps for no signal, and forgetting it. The service worker does the keeping
+// (app/service-worker/sw.ts); the app chooses what: the signed-in person's jobs for the next 7
+// days (with their set plans, day sheets and set log page) and the visits booked for them.
+import type { Me } from '~/stores/shell'
+import { addDays, londonToday } from '#shared/utils/dates'
+import { DATA_CACHE, PAGES_CACHE } from '~/utils/offline-names'
+
+/** Days ahead kept for no signal (today and the next six). */
+export const KEEP_DAYS = 7
+
+interface DiaryDay { jobId: string, userId: string }
+interface VisitRow { id: string, status: string, startsAt: string, visitor: { id: string | null } | null }
+
+/** The pages and data to keep for this person (paths), found with a signal. */
+export async function urlsToKeep(me: Me, now = new Date()): Promise<string[]> {
+  const from = londonToday(now)
+  const to = addDays(from, KEEP_DAYS - 1)
+  const urls = ['/', '/api/me']
+  const allowed = new Set(me.permissions)
+  if (allowed.has('jobs:read-assigned')) {
+    const days = await $fetch<DiaryDay[]>('/api/diary', { query: { from, to } })
+    const jobIds = [...new Set(days.filter(d => d.userId === me.user.id).map(d => d.jobId))]
+    for (const id of jobIds) urls.push(`/jobs/${id}`, `/jobs/${id}/sheet`, `/api/jobs/${id}`)
+    if (allowed.has('work:log')) for (const id of jobIds) urls.push(`/jobs/${id}/log`)
+  }
+  if (allowed.has('ledger:write') || allowed.has('jobs:read-assigned')) {
+    const end = new Date(`${to}T23:59:59Z`).getTime()
+    const visits = await $fetch<VisitRow[]>('/api/visits', { query: { limit: 200 } })
+    const mine = visits.filter(v => v.status === 'booked' && v.visitor?.id === me.user.id && new Date(v.startsAt).getTime() <= end)
+    for (const v of mine) urls.push(`/visits/${v.id}`, `/api/visits/${v.id}`, `/api/visits/${v.id}/rooms`)
+  }
+  return urls
+}
+
+/** Ask the service worker to keep these; resolves with how many it kept (0 with no worker). */
+export async function keepUrls(urls: string[]): Promise<number> {
+  const reg = await navigator.serviceWorker?.ready
+  const worker = reg?.active
+  if (!worker) return 0
+  return new Promise<number>((resolve) => {
+    const channel = new MessageChannel()
+    const timer = setTimeout(() => resolve(0), 120_000)
+    channel.port1.onmessage = (e: MessageEvent<{ kept?: number }>) => {
+      clearTimeout(timer)
+      resolve(e.data?.kept ?? 0)
+    }
+    worker.postMessage({ type: 'keep', urls }, [channel.port2])
+  })
+}
+
+/** Drop every page and answer kept on this phone (signing out, or another firm chosen). */
+export async function forgetKept() {
+  if (typeof caches === 'undefined') return
+  await Promise.all([caches.delete(DATA_CACHE), caches.delete(PAGES_CACHE)])
+}
