@@ -12,6 +12,9 @@
 //    server's peak memory during it against its memory at rest.
 // 5. The set planner on 30, 300 and 2,000 surfaces.
 // 6. Gzipped JavaScript loaded by the sign-in page, the dashboard and an invoice page on a phone.
+// 7. Working with no signal: what the service worker precaches (files, bytes, gzipped), and how
+//    long Today takes to open on a throttled phone (4x slower CPU, a slow 3G line) from what the
+//    phone kept, against the same phone opening it with that line.
 //
 // Budgets are printed beside each figure, met or missed; missing one is reported, not hidden, and
 // does not fail the command (it is a measurement, not a test).
@@ -354,6 +357,55 @@ async function main() {
   }
   finally {
     await browser.close()
+  }
+
+  // 7: no signal. The precache list is in the built service worker; each entry is a file under public/.
+  const publicDir = join(outputDir, 'public')
+  const sw = readFileSync(join(publicDir, 'sw.js'), 'utf8')
+  const precached = [...sw.matchAll(/\{url:"([^"]+)",revision:/g)].map(m => m[1]!)
+  let rawBytes = 0
+  let gzBytes = 0
+  for (const file of precached) {
+    const body = readFileSync(join(publicDir, file))
+    rawBytes += body.length
+    gzBytes += gzipSync(body).length
+  }
+  add({ group: 'offline', name: `precache, ${precached.length} files`, value: rawBytes / 1024, unit: 'KB', budget: '< 2048 KB', met: rawBytes < 2048 * 1024, note: `${(gzBytes / 1024).toFixed(0)} KB gzipped: fetched once, at install` })
+  const phone = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] })
+  try {
+    const context = await phone.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true })
+    await context.addCookies(cookie.split('; ').map(c => ({ name: c.slice(0, c.indexOf('=')), value: c.slice(c.indexOf('=') + 1), url })))
+    const page = await context.newPage()
+    await page.goto(`${url}/`, { waitUntil: 'networkidle' })
+    await page.waitForFunction(() => navigator.serviceWorker?.controller !== null, undefined, { timeout: 60_000 })
+    await page.waitForFunction(() => Object.keys(localStorage).some(k => k.startsWith('setwell:kept:')), undefined, { timeout: 120_000 })
+    const cdp = await context.newCDPSession(page)
+    await cdp.send('Emulation.setCPUThrottlingRate', { rate: 4 })
+    // a slow 3G line: 400 ms round trip, 400 kbit/s down
+    await cdp.send('Network.enable')
+    const open = async () => {
+      const t = performance.now()
+      await page.goto(`${url}/`)
+      await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached', timeout: 120_000 })
+      return performance.now() - t
+    }
+    const runs = 3
+    const online: number[] = []
+    const offline: number[] = []
+    for (let i = 0; i < runs; i++) {
+      await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 400, downloadThroughput: 50_000, uploadThroughput: 50_000 })
+      online.push(await open())
+      await cdp.send('Network.emulateNetworkConditions', { offline: true, latency: 0, downloadThroughput: -1, uploadThroughput: -1 })
+      offline.push(await open())
+    }
+    const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!
+    const on = median(online)
+    const off = median(offline)
+    add({ group: 'offline', name: 'Today, opened with no signal (throttled phone)', value: off, unit: 'ms', ratio: off / on, budget: '<= 1x the same phone on slow 3G', met: off <= on, note: `median of ${runs}; on slow 3G ${on.toFixed(0)} ms; CPU 4x slower` })
+    await context.close()
+  }
+  finally {
+    await phone.close()
   }
 
   const out = join(env.root, 'tests/bench')

@@ -61,7 +61,13 @@ export default defineNuxtPlugin((nuxtApp) => {
     rooms.restore()
     void keep()
   })
+  // is the server there? (an answer from it, not from the phone, puts "No signal" away)
+  const probe = () => $fetch('/api/health').catch(() => null)
+  useIntervalFn(() => {
+    if (offline.unreachable && navigator.onLine) void probe()
+  }, 20_000)
   useEventListener(window, 'online', () => {
+    void probe()
     void outbox.flush()
     void rooms.sendWaiting()
     void keep(true)

@@ -1,23 +1,188 @@
-// With no signal on site (390 x 844): Setwell opened once with a signal opens again with none.
+// On site with no signal, on a phone (390 x 844). Opened once with a signal, Setwell opens again
+// with none: Today, the person's job with its plan and day sheet, the visit booked for them. What
+// is saved meanwhile waits on the phone (through a reload), goes once the signal is back, and
+// arrives once. A room the office changed meanwhile shows both versions. Signing out leaves
+// nothing of the firm's on the phone.
 import { describe, expect, it } from 'vitest'
-import { expectVisible, screenshot, signInToDashboard, useE2E } from './browser'
-import { CREW } from './demo'
+import type { Page } from 'playwright-core'
+import { Client } from '../support/client'
+import { expectCleanRun, expectText, expectVisible, phoneKeys, screenshot, signInToDashboard, useE2E, type Person } from './browser'
+import { CREW, OFFICE, OWNER } from './demo'
+import { jobBookedToday, visitBookedFor } from './work'
 
 const e2e = useE2E()
 
-describe('offline', () => {
-  it('Today opens again with no signal after one visit with a signal', async () => {
+async function ownerApi() {
+  const api = new Client(e2e.url)
+  expect((await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })).status).toBe(200)
+  return api
+}
+
+/** Signed in with a signal, and the phone has kept this person's work (the service worker is in charge of the page). */
+async function signedInAndKept(person: Person, who: { email: string, password: string }) {
+  const { page } = person
+  await signInToDashboard(page, e2e.url, who.email, who.password)
+  await page.waitForFunction(() => navigator.serviceWorker?.controller !== null, undefined, { timeout: 30_000 })
+  await page.waitForFunction(() => Object.keys(localStorage).some(k => k.startsWith('setwell:kept:')), undefined, { timeout: 30_000 })
+}
+
+/** A full reload with no signal: the page comes from the phone. */
+async function reloadOffline(page: Page) {
+  await page.reload()
+  await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+}
+
+describe('working with no signal', () => {
+  it('the crew open Today, their job, its plan and day sheet with no signal; the plasterer measures a room with none, and it arrives once', async () => {
+    const api = await ownerApi()
+    const { jobId, reference } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name, 'Ingrid Tallow')
+    const { visitId } = await visitBookedFor(api, OWNER.name, 'Tegan Ashdown')
+
+    // the crew member: one visit with a signal, then none
     const kieran = await e2e.open()
     const page = kieran.page
-    await signInToDashboard(page, e2e.url, CREW.email, CREW.password)
-    await page.waitForFunction(() => navigator.serviceWorker?.controller !== null, undefined, { timeout: 30_000 })
-    await page.waitForFunction(() => Object.keys(localStorage).some(k => k.startsWith('setwell:kept:')), undefined, { timeout: 30_000 })
+    await signedInAndKept(kieran, CREW)
     await kieran.context.setOffline(true)
-    await page.reload()
-    await page.waitForTimeout(3000)
-    await screenshot(page, 'offline-today')
-    console.log(await page.evaluate(() => navigator.onLine))
-    await expectVisible(page.getByTestId('dashboard-jobs'))
-    expect(1).toBe(1)
+    await reloadOffline(page)
+    const today = page.getByTestId('dashboard-jobs')
+    await expectVisible(today.getByText('Ingrid Tallow'))
+    await expectText(page.getByTestId('signal'), /No signal\..*Showing this page as it was at \d\d:\d\d today\./s)
+    await screenshot(page, 'offline-today-crew')
+
+    // the job (never opened with a signal: kept for them), its plan, its day sheet
+    await today.getByRole('link', { name: /Ingrid Tallow/ }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+    await expectText(page.getByText(`Job ${reference}`), new RegExp(`job ${reference}`, 'i'))
+    await expectVisible(page.getByTestId('set-plan').getByTestId('set-1'))
+    await expectText(page.getByTestId('kept-at'), /Showing this page as it was at \d\d:\d\d today\./)
+    await reloadOffline(page)
+    await expectVisible(page.getByTestId('set-plan').getByTestId('set-1'))
+    await screenshot(page, 'offline-job-plan-crew')
+    await page.goto(`${e2e.url}/jobs/${jobId}/sheet`)
+    await expectVisible(page.getByTestId('sheet-cautions'))
+    await screenshot(page, 'offline-day-sheet-crew')
+    expectCleanRunOffline(kieran)
+
+    // the plasterer, at the visit booked for them: a room measured and saved with no signal
+    const jess = await e2e.open()
+    const owner = jess.page
+    await signedInAndKept(jess, OWNER)
+    await jess.context.setOffline(true)
+    await owner.goto(`${e2e.url}/visits/${visitId}`)
+    await owner.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await expectText(owner.getByTestId('visit-header'), 'Tegan Ashdown')
+    await owner.getByRole('button', { name: 'Add a room' }).click()
+    const editor = owner.getByTestId('room-editor')
+    await editor.getByLabel('Room name').fill('Front room')
+    await editor.getByRole('button', { name: 'Add wall' }).click()
+    const wall = editor.getByTestId('surface-card').nth(0)
+    // 4.00 x 2.40 = 9.60 m²
+    await wall.getByLabel('Length (m)').fill('4.00')
+    await wall.getByLabel('Height (m)').fill('2.40')
+    await expectText(owner.getByTestId('room-total'), 'Room 9.60 m²')
+    await owner.getByRole('button', { name: 'Save room' }).click()
+    await expectText(editor.getByTestId('draft-status'), 'Waiting to send')
+    await expectText(owner.getByTestId('waiting-count'), '1 waiting to send')
+    await screenshot(owner, 'offline-room-waiting-owner')
+
+    // the phone is switched off and on: still waiting, still counted
+    await reloadOffline(owner)
+    await expectText(owner.getByTestId('waiting-count'), '1 waiting to send')
+    expect(await phoneKeys(owner, 'setwell-rooms', 'drafts')).toHaveLength(1)
+    expect((await api.get(`/api/visits/${visitId}/rooms`)).body.rooms).toEqual([])
+
+    // the signal is back: it goes by itself, once
+    await jess.context.setOffline(false)
+    await owner.evaluate(() => window.dispatchEvent(new Event('online')))
+    await expect.poll(async () => (await api.get(`/api/visits/${visitId}/rooms`)).body.rooms.length, { timeout: 30_000 }).toBe(1)
+    const [room] = (await api.get(`/api/visits/${visitId}/rooms`)).body.rooms
+    expect(room).toMatchObject({ name: 'Front room', revision: 1, totals: { totalCm2: 96_000 } })
+    await expect.poll(() => phoneKeys(owner, 'setwell-rooms', 'drafts')).toEqual([])
+    await expectVisible(owner.getByTestId('room-card').filter({ hasText: 'Front room' }))
+    expectCleanRunOffline(jess)
+  })
+
+  it('a room the office changed while the phone had no signal shows both versions; keep mine saves mine over theirs', async () => {
+    const api = await ownerApi()
+    const { visitId } = await visitBookedFor(api, OWNER.name, 'Morwenna Quill')
+    const roomId = crypto.randomUUID()
+    const wallId = crypto.randomUUID()
+    // 3.00 x 2.40 = 7.20 m²
+    expect((await api.put(`/api/visits/${visitId}/rooms/${roomId}`, { revision: 0, name: 'Kitchen', surfaces: [{ id: wallId, kind: 'wall', lengthMm: 3000, secondMm: 2400 }] })).status).toBe(200)
+
+    const jess = await e2e.open()
+    const page = jess.page
+    await signedInAndKept(jess, OWNER)
+    await jess.context.setOffline(true)
+    await page.goto(`${e2e.url}/visits/${visitId}`)
+    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await page.getByTestId('room-card').filter({ hasText: 'Kitchen' }).getByRole('button', { name: /Open/ }).click()
+    // the phone makes the wall 3.20 (7.68 m²) with no signal
+    await page.getByTestId('surface-card').nth(0).getByLabel('Length (m)').fill('3.20')
+    await page.getByRole('button', { name: 'Save room' }).click()
+    await expectText(page.getByTestId('room-editor').getByTestId('draft-status'), 'Waiting to send')
+
+    // meanwhile the office makes it 3.50 (8.40 m²) and renames it
+    const office = new Client(e2e.url)
+    expect((await office.post('/api/auth/sign-in', { email: OFFICE.email, password: OFFICE.password })).status).toBe(200)
+    expect((await office.put(`/api/visits/${visitId}/rooms/${roomId}`, { revision: 1, name: 'Kitchen (office)', surfaces: [{ id: wallId, kind: 'wall', lengthMm: 3500, secondMm: 2400 }] })).status).toBe(200)
+
+    // the signal is back: neither is lost; both are shown
+    await jess.context.setOffline(false)
+    await page.evaluate(() => window.dispatchEvent(new Event('online')))
+    const conflict = page.getByTestId('room-conflict')
+    await expectText(conflict, 'Changed elsewhere')
+    await expectText(conflict, '7.68 m²')
+    await expectText(conflict, '8.40 m²')
+    await expectText(page.getByTestId('waiting-count'), '1 needs you')
+    expect((await api.get(`/api/visits/${visitId}/rooms`)).body.rooms[0]).toMatchObject({ revision: 2, name: 'Kitchen (office)' })
+    await screenshot(page, 'offline-room-conflict-owner')
+
+    await conflict.getByRole('button', { name: 'Keep mine and send it' }).click()
+    await expectText(page.getByRole('status').filter({ hasText: 'saved:' }), 'Kitchen saved: 7.68 m².')
+    expect((await api.get(`/api/visits/${visitId}/rooms`)).body.rooms[0]).toMatchObject({ revision: 3, name: 'Kitchen', surfaces: [{ lengthMm: 3200 }] })
+    expectCleanRunOffline(jess)
+  })
+
+  it('signing out warns about what is not sent, then leaves nothing of the firm\'s on the phone', async () => {
+    const api = await ownerApi()
+    const { visitId } = await visitBookedFor(api, OWNER.name, 'Perpetua Lamb')
+    const jess = await e2e.open()
+    const page = jess.page
+    await signedInAndKept(jess, OWNER)
+    await jess.context.setOffline(true)
+    await page.goto(`${e2e.url}/visits/${visitId}`)
+    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await page.getByRole('button', { name: 'Add a room' }).click()
+    await page.getByTestId('room-editor').getByLabel('Room name').fill('Hall')
+    await jess.context.setOffline(false)
+
+    // the warning names what would be lost; "no" keeps everything
+    await page.getByRole('button', { name: 'Sign out' }).click()
+    const dialog = page.getByRole('alertdialog')
+    await expectText(dialog, /not reached Setwell yet/)
+    await screenshot(page, 'sign-out-unsent-warning-owner')
+    await dialog.getByRole('button', { name: 'Keep them and stay' }).click()
+    expect(await phoneKeys(page, 'setwell-rooms', 'drafts')).toHaveLength(1)
+
+    await page.getByRole('button', { name: 'Sign out' }).click()
+    await page.getByTestId('confirm-yes').click()
+    await page.waitForURL(u => u.pathname === '/sign-in')
+    expect(await phoneKeys(page, 'setwell-rooms', 'drafts')).toEqual([])
+    expect(await page.evaluate(async () => (await caches.keys()).filter(k => k === 'setwell-data' || k === 'setwell-pages'))).toEqual([])
+
+    // with no signal, a signed-out phone shows nothing from before
+    await jess.context.setOffline(true)
+    await page.goto(`${e2e.url}/visits/${visitId}`)
+    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
+    expect(await page.locator('body').textContent()).not.toContain('Perpetua Lamb')
+    await screenshot(page, 'offline-signed-out')
   })
 })
+
+/** Page errors and off-host requests are never acceptable; with no signal, failed loads are expected and logged by the browser. */
+function expectCleanRunOffline(person: Person) {
+  person.consoleErrors.splice(0, person.consoleErrors.length, ...person.consoleErrors.filter(m => !/ERR_INTERNET_DISCONNECTED|Failed to fetch|ERR_FAILED/.test(m)))
+  expectCleanRun(person)
+}
