@@ -182,6 +182,16 @@ export const useOutboxStore = defineStore('outbox', () => {
     }
   }
 
+  /** Keep a write to go in its turn (a photo after its set log); never throws: a refusal is kept, to show on /waiting. */
+  async function enqueue(input: Parameters<typeof make>[0]): Promise<OutboxItem> {
+    await load()
+    const item = make(input)
+    items.value.push(item)
+    await save(item)
+    void flush()
+    return item
+  }
+
   /** Send what is waiting, in order. Stops at the first write with no answer (the signal went again). */
   async function flush() {
     if (!import.meta.client || running.value || !navigator.onLine || !owner.value) return
@@ -240,5 +250,5 @@ export const useOutboxStore = defineStore('outbox', () => {
     }, RETRY_MS)
   }
 
-  return { items, mine, waiting, needsYou, load, send, flush, retry, letGo, forget }
+  return { items, mine, waiting, needsYou, load, send, enqueue, flush, retry, letGo, forget }
 })
