@@ -9,6 +9,9 @@ export default defineNuxtConfig({
       meta: [
         { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
         { name: 'theme-color', content: '#26313B' },
+        // opened from the home screen, full screen like the installed app it is
+        { name: 'mobile-web-app-capable', content: 'yes' },
+        { name: 'apple-mobile-web-app-title', content: 'Setwell' },
         { name: 'description', content: 'Setwell: the back office for small plastering firms.' },
       ],
       link: [
@@ -19,45 +22,6 @@ export default defineNuxtConfig({
     },
   },
   css: ['~/assets/css/main.css'],
-  routeRules: {
-    // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
-    // app with no server-side data, which draws the page from what the phone kept
-    '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },
-  },
-  // Installable and usable with no signal (DEVELOPERS.md "Offline"). injectManifest: the service
-  // worker is our own file (app/service-worker/sw.ts) built with Workbox's parts.
-  pwa: {
-    strategies: 'injectManifest',
-    srcDir: 'service-worker',
-    filename: 'sw.ts',
-    registerType: 'autoUpdate',
-    injectRegister: false,
-    manifest: {
-      name: 'Setwell',
-      short_name: 'Setwell',
-      description: 'The back office for small plastering firms.',
-      lang: 'en-GB',
-      start_url: '/',
-      scope: '/',
-      display: 'standalone',
-      orientation: 'portrait',
-      theme_color: '#26313B',
-      background_color: '#FBF3F0',
-      icons: [
-        { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
-        { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
-        { src: '/icons/maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
-        { src: '/favicon.svg', sizes: 'any', type: 'image/svg+xml' },
-      ],
-    },
-    injectManifest: {
-      // the app's code, styles, fonts and icons; not the photos or documents (they are data)
-      globPatterns: ['_nuxt/**/*.{js,css,woff2}', 'icons/*.png', 'favicon.svg'],
-      maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
-    },
-    client: { installPrompt: false, registerPlugin: true },
-    devOptions: { enabled: false },
-  },
   runtimeConfig: {
     // Each of these is overridden at run time by NUXT_<NAME> (for example NUXT_DATABASE_URL).
     databaseUrl: '',
@@ -89,6 +53,11 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax' },
     },
   },
+  routeRules: {
+    // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
+    // app with no server-side data, which draws the page from what the phone kept
+    '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },
+  },
   experimental: {
     // links fetch their page's code when touched or hovered, not whenever they scroll into view: on
     // a phone the menu alone would otherwise pull in every linked page's script (npm run bench)
@@ -99,6 +68,42 @@ export default defineNuxtConfig({
   },
   compatibilityDate: '2026-07-01',
   telemetry: false,
+  // Installable and usable with no signal (DEVELOPERS.md "Offline"). injectManifest: the service
+  // worker is our own file (app/service-worker/sw.ts) built with Workbox's parts.
+  pwa: {
+    strategies: 'injectManifest',
+    srcDir: 'service-worker',
+    filename: 'sw.ts',
+    registerType: 'autoUpdate',
+    injectRegister: false,
+    manifest: {
+      name: 'Setwell',
+      short_name: 'Setwell',
+      description: 'The back office for small plastering firms.',
+      lang: 'en-GB',
+      start_url: '/',
+      scope: '/',
+      display: 'standalone',
+      orientation: 'portrait',
+      theme_color: '#26313B',
+      background_color: '#FBF3F0',
+      icons: [
+        { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+        { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+        { src: '/icons/maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        { src: '/favicon.svg', sizes: 'any', type: 'image/svg+xml' },
+      ],
+    },
+    injectManifest: {
+      // the app's code, styles, fonts and icons; not the photos or documents (they are data)
+      globPatterns: ['_nuxt/**/*.{js,css,woff2}', 'icons/*.png', 'favicon.svg'],
+      maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
+    },
+    // registered by app/plugins/offline.client.ts once someone signs in: a customer opening a
+    // quote link never gets the firm's app on their phone
+    client: { installPrompt: false, registerPlugin: false },
+    devOptions: { enabled: false },
+  },
   tailwindcss: {
     // our own file holds the @tailwind directives; without cssPath the base styles ship twice
     cssPath: '~/assets/css/main.css',

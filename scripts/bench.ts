@@ -362,7 +362,7 @@ async function main() {
   // 7: no signal. The precache list is in the built service worker; each entry is a file under public/.
   const publicDir = join(outputDir, 'public')
   const sw = readFileSync(join(publicDir, 'sw.js'), 'utf8')
-  const precached = [...sw.matchAll(/\{url:"([^"]+)",revision:/g)].map(m => m[1]!)
+  const precached = [...sw.matchAll(/"url":"([^"]+)"/g)].map(m => m[1]!)
   let rawBytes = 0
   let gzBytes = 0
   for (const file of precached) {

@@ -1,20 +1,15 @@
 // The phone side of working with no signal (DEVELOPERS.md "Offline"):
 // - every answer the service worker hands back from what the phone kept carries when it was kept;
 //   the shell says so (ShellOffline);
-// - with a signal, this person's jobs for the next 7 days and the visits booked for them are kept,
-//   at start, when the signal returns and every 15 minutes;
-// - writes waiting in the outbox and rooms waiting on the phone go when the signal returns.
-import { useEventListener, useIntervalFn } from '@vueuse/core'
-import { keepUrls, urlsToKeep } from '~/utils/offline-cache'
+// - once someone of a firm is signed in: the service worker is registered, their jobs for the next
+//   7 days and the visits booked for them are kept (at start, when the signal returns and every 15
+//   minutes), and writes waiting in the outbox and rooms waiting on the phone go when the signal
+//   returns. That part is loaded only then: the sign-in page and customers' pages do without it.
 import { SAVED_AT_HEADER } from '~/utils/offline-names'
-
-const KEEP_EVERY_MS = 15 * 60_000
 
 export default defineNuxtPlugin((nuxtApp) => {
   const offline = useOfflineStore()
   const shell = useShellStore()
-  const outbox = useOutboxStore()
-  const rooms = useVisitDraftStore()
 
   const base = globalThis.$fetch
   globalThis.$fetch = base.create({
@@ -34,47 +29,13 @@ export default defineNuxtPlugin((nuxtApp) => {
     if (to.path !== from.path) offline.pageSavedAt = null
   })
 
-  let keeping = false
-  async function keep(force = false) {
-    const me = shell.me
-    if (!me || !navigator.onLine || keeping || !('serviceWorker' in navigator)) return
-    const key = `setwell:kept:${me.user.id}:${me.firm.id}`
-    const last = Number(localStorage.getItem(key) ?? 0)
-    offline.keptAt = last || null
-    if (!force && Date.now() - last < KEEP_EVERY_MS) return
-    keeping = true
-    try {
-      const urls = await urlsToKeep(me)
-      if (await keepUrls(urls) === urls.length) {
-        localStorage.setItem(key, String(Date.now()))
-        offline.keptAt = Date.now()
-      }
-    }
-    catch { /* no signal after all: next time */ }
-    finally {
-      keeping = false
-    }
+  let started = false
+  async function start() {
+    if (started || !shell.me) return
+    started = true
+    const { startOffline } = await import('~/utils/offline-start')
+    startOffline()
   }
-
-  nuxtApp.hook('app:mounted', () => {
-    void outbox.load().then(() => outbox.flush())
-    rooms.restore()
-    void keep()
-  })
-  // is the server there? (an answer from it, not from the phone, puts "No signal" away)
-  const probe = () => $fetch('/api/health').catch(() => null)
-  useIntervalFn(() => {
-    if (offline.unreachable && navigator.onLine) void probe()
-  }, 20_000)
-  useEventListener(window, 'online', () => {
-    void probe()
-    void outbox.flush()
-    void rooms.sendWaiting()
-    void keep(true)
-  })
-  useIntervalFn(() => void keep(), KEEP_EVERY_MS)
-  // signed in (or into another firm): keep that person's work
-  watch(() => shell.me && `${shell.me.user.id}:${shell.me.firm.id}`, (now, before) => {
-    if (now && now !== before) void keep(true)
-  })
+  nuxtApp.hook('app:mounted', () => void start())
+  watch(() => shell.me?.user.id, () => void start())
 })

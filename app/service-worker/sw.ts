@@ -42,7 +42,7 @@ self.addEventListener('activate', (event) => {
 // page as kept, else the app shell, which draws the page from kept data.
 registerRoute(
   ({ request, url }) => request.mode === 'navigate' && url.origin === self.location.origin && !url.pathname.startsWith('/api/'),
-  async ({ request }) => {
+  async ({ request, event }) => {
     let res: Response
     try {
       res = await fetchWithin(request, NETWORK_WAIT_SECONDS * 1000)
@@ -52,7 +52,8 @@ registerRoute(
       const shell = kept ?? await caches.match(APP_SHELL_URL, { cacheName: SHELL_CACHE })
       return shell ?? Response.error()
     }
-    await keepPage(request.url, res)
+    // kept while the page is already on its way to the screen
+    ;(event as ExtendableEvent).waitUntil(keepPage(request.url, res.clone()))
     return res
   },
 )
@@ -63,7 +64,7 @@ async function keepPage(url: string, res: Response) {
   // sent to sign in: the session is over, and nothing kept may be shown again
   if (res.redirected && new URL(res.url).pathname === '/sign-in') return forgetData()
   if (res.status !== 200 || res.redirected || PUBLIC_PAGES.some(p => path.startsWith(p)) || !(res.headers.get('content-type') ?? '').includes('text/html')) return
-  const html = await res.clone().text()
+  const html = await res.text()
   const stamped = html.replace('<head>', `<head><meta name="${SAVED_AT_META}" content="${new Date().toISOString()}">`)
   const cache = await caches.open(PAGES_CACHE)
   await cache.put(url, new Response(stamped, { status: 200, headers: { 'content-type': 'text/html;charset=utf-8' } }))
@@ -100,11 +101,11 @@ const stampAndGuard: WorkboxPlugin = {
   },
 }
 
-// Data: network first, the kept answer when there is no signal. Not the session routes, exports or
-// downloads (large, and never needed on site).
+// Data: network first, the kept answer when there is no signal. Not the session routes, customers'
+// pages' data, exports or downloads (large, and never needed on site).
 registerRoute(
   ({ request, url }) => request.method === 'GET' && url.origin === self.location.origin && url.pathname.startsWith('/api/')
-    && !url.pathname.startsWith('/api/auth/') && !url.pathname.startsWith('/api/_auth/') && !url.pathname.includes('/export'),
+    && !['/api/auth/', '/api/_auth/', '/api/public/'].some(p => url.pathname.startsWith(p)) && !url.pathname.includes('/export'),
   new NetworkFirst({ cacheName: DATA_CACHE, networkTimeoutSeconds: NETWORK_WAIT_SECONDS, plugins: [stampAndGuard] }),
 )
 

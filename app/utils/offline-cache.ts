@@ -3,33 +3,17 @@
 // days (with their set plans, day sheets and set log page) and the visits booked for them.
 import type { Me } from '~/stores/shell'
 import { addDays, londonToday } from '#shared/utils/dates'
+import { KEEP_DAYS, pathsToKeep, type KeepDay, type KeepVisit } from '#shared/utils/offline-plan'
 import { DATA_CACHE, PAGES_CACHE } from '~/utils/offline-names'
-
-/** Days ahead kept for no signal (today and the next six). */
-export const KEEP_DAYS = 7
-
-interface DiaryDay { jobId: string, userId: string }
-interface VisitRow { id: string, status: string, startsAt: string, visitor: { id: string | null } | null }
 
 /** The pages and data to keep for this person (paths), found with a signal. */
 export async function urlsToKeep(me: Me, now = new Date()): Promise<string[]> {
   const from = londonToday(now)
   const to = addDays(from, KEEP_DAYS - 1)
-  const urls = ['/', '/api/me']
   const allowed = new Set(me.permissions)
-  if (allowed.has('jobs:read-assigned')) {
-    const days = await $fetch<DiaryDay[]>('/api/diary', { query: { from, to } })
-    const jobIds = [...new Set(days.filter(d => d.userId === me.user.id).map(d => d.jobId))]
-    for (const id of jobIds) urls.push(`/jobs/${id}`, `/jobs/${id}/sheet`, `/api/jobs/${id}`)
-    if (allowed.has('work:log')) for (const id of jobIds) urls.push(`/jobs/${id}/log`)
-  }
-  if (allowed.has('ledger:write') || allowed.has('jobs:read-assigned')) {
-    const end = new Date(`${to}T23:59:59Z`).getTime()
-    const visits = await $fetch<VisitRow[]>('/api/visits', { query: { limit: 200 } })
-    const mine = visits.filter(v => v.status === 'booked' && v.visitor?.id === me.user.id && new Date(v.startsAt).getTime() <= end)
-    for (const v of mine) urls.push(`/visits/${v.id}`, `/api/visits/${v.id}`, `/api/visits/${v.id}/rooms`)
-  }
-  return urls
+  const days = allowed.has('jobs:read-assigned') ? await $fetch<KeepDay[]>('/api/diary', { query: { from, to } }) : []
+  const visits = allowed.has('ledger:write') || allowed.has('jobs:read-assigned') ? await $fetch<KeepVisit[]>('/api/visits', { query: { limit: 200 } }) : []
+  return pathsToKeep({ userId: me.user.id, canLog: allowed.has('work:log') }, days, visits, from, to)
 }
 
 /** Ask the service worker to keep these; resolves with how many it kept (0 with no worker). */

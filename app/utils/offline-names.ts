@@ -9,7 +9,7 @@ export const DATA_CACHE = 'setwell-data'
 /** Set on every kept answer: when it was kept (ISO time). An answer that carries it came from the phone, not the server. */
 export const SAVED_AT_HEADER = 'x-setwell-saved-at'
 /** How long to wait for the network before using what was kept (a phone with one bar can hang for a minute). */
-export const NETWORK_WAIT_SECONDS = 6
+export const NETWORK_WAIT_SECONDS = 10
 /** Pages as the server drew them, kept for use with no signal. Emptied on sign-out, on being sent to sign in, and by a new build. */
 export const PAGES_CACHE = 'setwell-pages'
 /** Put in a kept page's head: when it was kept (ISO time). */
