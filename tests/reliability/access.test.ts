@@ -83,6 +83,9 @@ const TABLE: Record<string, [Need, string]> = {
   'PATCH /api/jobs/:id': ['ledger:write', '401 ok ok 403 403 404'],
   'PUT /api/jobs/:id/days': ['ledger:write', '401 ok ok 403 403 404'],
   'POST /api/jobs/:id/logs': ['work:log', '401 ok ok ok 403 404'],
+  // the owner logged it: only they (or its logger, that day) may change it, so office and crew are refused
+  'DELETE /api/jobs/:id/logs/:logId': ['work:log', '401 ok 403 403 403 404'],
+  'PATCH /api/jobs/:id/logs/:logId': ['work:log', '401 ok 403 403 403 404'],
   'PUT /api/jobs/:id/plan': ['work:log', '401 ok ok ok 403 404'],
   'POST /api/jobs/:id/status': ['work:log', '401 ok ok ok 403 404'],
   'GET /api/jobs': ['jobs:read-assigned', '401 ok ok ok 403 ok'],
@@ -165,6 +168,7 @@ const TABLE: Record<string, [Need, string]> = {
 const FRESH: Record<string, { param: string, make: (f: Firm) => Promise<string> }> = {
   'DELETE /api/cis-statements/:id': { param: 'id', make: f => f.fresh.cisStatement() },
   'DELETE /api/documents/:id': { param: 'id', make: f => f.fresh.document() },
+  'DELETE /api/jobs/:id/logs/:logId': { param: 'logId', make: f => f.fresh.setLog() },
   'DELETE /api/photos/:id': { param: 'id', make: f => f.fresh.photo() },
   'DELETE /api/purchases/:id': { param: 'id', make: f => f.fresh.purchase() },
   'DELETE /api/team/invitations/:id': { param: 'id', make: f => f.fresh.invitation() },
