@@ -44,7 +44,7 @@ describe('one entry per phone-made id', () => {
       const [logId] = [...logIds]
       const logs = await db<{ id: string }>('select id from set_logs where firm_id = $1 and client_id = $2', [f.firmId, clientId])
       expect(logs.map(l => l.id)).toEqual([logId])
-      const uses = await db<{ packs: number }>('select packs_x1000 as packs from material_uses where firm_id = $1 and log_id = $2', [f.firmId, logId])
+      const uses = await db<{ packs: number }>('select packs_x_1000 as packs from material_uses where firm_id = $1 and log_id = $2', [f.firmId, logId])
       expect(uses).toEqual([{ packs: 1500 + round }])
       // every answer is the job with that entry in it
       for (const a of answers) expect(a.body.logs.filter((l: { notes: string }) => l.notes === `resent ${round}`)).toHaveLength(1)
@@ -58,7 +58,7 @@ describe('corrections and removals of one entry at once', () => {
     expect(made.status, short(made)).toBe(201)
     return made.body.logId as string
   }
-  const usesOf = (logId: string) => db<{ packs: number }>('select packs_x1000 as packs from material_uses where firm_id = $1 and log_id = $2', [f.firmId, logId])
+  const usesOf = (logId: string) => db<{ packs: number }>('select packs_x_1000 as packs from material_uses where firm_id = $1 and log_id = $2', [f.firmId, logId])
 
   it(`${AT_ONCE} corrections at once leave the entry with exactly one set of bags mixed`, async () => {
     for (let round = 0; round < ROUNDS; round++) {
@@ -70,6 +70,14 @@ describe('corrections and removals of one entry at once', () => {
       // the bags and the notes are those of one and the same correction
       const [row] = await db<{ notes: string }>('select notes from set_logs where firm_id = $1 and id = $2', [f.firmId, logId])
       expect(row!.notes).toBe(`corrected ${uses[0]!.packs - 2000}`)
+      // the audit log holds one chain: each correction was made to what the one before left, so no
+      // state was corrected twice (every "before" differs), and the last "after" is what is stored
+      const audit = await db<{ detail: { before: { notes: string }, after: { notes: string } } }>(`select detail from audit_log where firm_id = $1 and action = 'job.log-corrected' and entity_id = $2`, [f.firmId, logId])
+      expect(audit).toHaveLength(AT_ONCE)
+      const befores = audit.map(a => a.detail.before.notes)
+      expect(new Set(befores).size, JSON.stringify(befores)).toBe(AT_ONCE)
+      const afters = audit.map(a => a.detail.after.notes)
+      expect(afters.filter(n => !befores.includes(n))).toEqual([row!.notes])
     }
   })
 
