@@ -22,7 +22,7 @@ export default defineEventHandler(async (event) => {
     const { prices } = await checkLogInput(f, job, input)
     // the job's lock puts two sends of one entry to this job one after the other; the same id sent
     // to another job at the same moment meets the unique (firm, client id) and stores nothing
-    const [log] = await f.tx.insert(setLogs).values(f.values({ ...logColumns(input, auth.userId), jobId: id, loggedBy: auth.userId }))
+    const [log] = await f.tx.insert(setLogs).values(f.values({ ...logColumns(input, auth.userId), clientId: input.clientId, jobId: id, loggedBy: auth.userId }))
       .onConflictDoNothing({ target: [setLogs.firmId, setLogs.clientId] }).returning()
     if (!log) return resent((await logByClientId(f, input.clientId!))!)
     await writeMaterialUses(f, id, log.id, input.materials, m => prices.get(m)!)
