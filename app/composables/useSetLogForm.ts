@@ -141,7 +141,7 @@ export function useSetLogForm(job: Ref<Job | null | undefined>) {
     if (tooLong) local.endedAt = tooLong
     for (const key of ['startedAt', 'endedAt'] as const) {
       const why = times[key] ? inTheFuture(times[key]!) : null
-      if (why) local[key] = why
+      if (why && !local[key]) local[key] = why
     }
     const ticked: LogTask[] = f.kind === 'set' && set.value ? set.value.tasks.filter(t => f.tasks.includes(taskKey(t))).map(t => ({ surfaceId: t.surfaceId, action: t.action })) : []
     if (f.kind === 'set' && set.value && !ticked.length) local.tasks = 'Tick the tasks done in this set.'

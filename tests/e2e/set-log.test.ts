@@ -184,6 +184,7 @@ describe('the set log', () => {
     await expectText(page.getByTestId('set-1'), /Not logged yet/)
     await page.getByTestId('set-1').getByRole('link', { name: 'Log set 1' }).click()
     await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+    await expectVisible(page.getByRole('heading', { name: 'Log a set' }))
     // every task of set 1 listed with its action and the plan's bags, all ticked; no browser-default boxes
     const tasks = page.getByTestId('log-tasks')
     const boxes = tasks.locator('input[type=checkbox]')
@@ -209,6 +210,7 @@ describe('the set log', () => {
     // the rest of set 1: only the task not yet logged is ticked
     await page.getByTestId('set-1').getByRole('link', { name: 'Log set 1' }).click()
     await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+    await expectVisible(page.getByRole('heading', { name: 'Log a set' }))
     expect(await tasks.locator('input[type=checkbox]:checked').count()).toBe(1)
     await expectVisible(tasks.getByText(/logged already/).first())
     await page.getByLabel('Notes (optional)').fill('The rest of set 1')
