@@ -97,11 +97,13 @@ export function useSetLogForm(job: Ref<Job | null | undefined>) {
   const surfaces = computed(() => (job.value?.plan.surfaces ?? []).map(s => ({ value: s.id, label: label(s.id) })))
   const mixable = computed(() => (job.value?.materials ?? []).filter(m => m.materialId))
 
-  // the bags box of the one mixable material starts at the plan's bags of the ticked tasks, and
-  // follows the ticks until someone types their own figure
+  // the bags box of the material the plan counts in (the one mixable material, or the finish the
+  // plan's bags are of) starts at the plan's bags of the ticked tasks, and follows the ticks until
+  // someone types their own figure
   let prefilled = entry ? null : ''
-  watch(() => [form.value.tasks, set.value, mixable.value.length] as const, () => {
-    const only = mixable.value.length === 1 ? mixable.value[0]!.materialId! : null
+  const planned = computed(() => (mixable.value.length === 1 ? mixable.value[0]!.materialId : mixable.value.find(m => m.materialId === job.value?.planMaterialId)?.materialId) ?? null)
+  watch(() => [form.value.tasks, set.value, planned.value] as const, () => {
+    const only = planned.value
     if (!only || !set.value || prefilled === null) return
     const now = form.value.bags[only] ?? ''
     if (now !== prefilled && now !== '') return

@@ -134,6 +134,9 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     .where(f.where(materialUses, eq(materialUses.jobId, id)))
   const { planner: _planner, ...planned } = await jobPlan(f, job)
   const book = await usePriceBook(f)
+  // the plan counts bags of this material (the finish whose coverage it plans with): the log
+  // form starts its bags box from the plan's bags
+  const planMaterialId = (await catalogueRows(f)).find(r => r.active && r.type === 'finish' && !r.coverageMmPerPack)?.id ?? null
   const drying = { skimDays: book.drySkimDays, undercoatDays: book.dryUndercoatDays, coldOrDampExtraDays: book.dryColdOrDampExtraDays }
   const comparison = materialsAgainstEstimate(job.materialsEstimate, uses)
   const names = new Map(days.map(d => [d.userId, d.name]))
@@ -164,6 +167,7 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     days,
     history,
     plan: planned,
+    planMaterialId,
     logs: logs.map(({ clientId: _c, ...l }) => ({ ...l, canChange: mayChangeLog(auth, l, job.status), materials: uses.filter(u => u.logId === l.id).map(u => ({ materialId: u.materialId, name: u.name, packLabel: u.packLabel, packsX1000: u.packsX1000, ...(money ? { costPencePerPack: u.costPencePerPack } : {}) })) })),
     worked,
     ready,

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
-import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { signUpFirm, uniqueEmail, type Client } from '../support/client'
 import { queryAsFirm } from '../support/db'
 import { setProgress } from '../../shared/utils/set-log'
 import { inviteAndJoin } from './support'
