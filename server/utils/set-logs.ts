@@ -1,6 +1,6 @@
 // A job's set log entries on the server: the checks an entry's fields get against the job (its
 // plan, people and materials), who may correct or remove one, and what an entry was (for the audit).
-import { and, asc, eq, inArray, sql } from 'drizzle-orm'
+import { asc, eq, inArray, sql } from 'drizzle-orm'
 import type { z } from 'zod'
 import { jobs, materials, materialUses, setLogs } from '../db/schema'
 import type { setLogSchema } from '#shared/schemas/job'
@@ -99,6 +99,6 @@ export async function touchJob(f: FirmScope, jobId: string) {
 
 /** An entry this firm already holds under the phone's id, or undefined. */
 export async function logByClientId(f: FirmScope, clientId: string) {
-  const [row] = await f.tx.select({ id: setLogs.id, jobId: setLogs.jobId }).from(setLogs).where(f.where(setLogs, and(eq(setLogs.clientId, clientId))))
+  const [row] = await f.tx.select({ id: setLogs.id, jobId: setLogs.jobId }).from(setLogs).where(f.where(setLogs, eq(setLogs.clientId, clientId)))
   return row
 }
