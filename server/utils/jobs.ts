@@ -3,8 +3,9 @@
 // worked out from the visit's rooms (shared/utils/set-plan.ts).
 import { and, asc, eq, exists, inArray, max, sql } from 'drizzle-orm'
 import { customers, firms, jobDays, jobs, jobStatusChanges, materials, materialUses, memberships, quotes, setLogs, sites, users } from '../db/schema'
-import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, READY_CAUTION, roomReadyToDecorate, safePlanOptions, skimCoverageM2, SYSTEM_ONLY_MOVES, type JobStatus } from '#shared/utils/jobs'
+import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, READY_CAUTION, roomReadyToDecorate, safePlanOptions, skimCoverageM2, SYSTEM_ONLY_MOVES, type JobStatus, type LogCoat } from '#shared/utils/jobs'
 import { londonDay } from '#shared/utils/dates'
+import { mayChangeLog } from '#shared/utils/set-log'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
 import { checkPlan, planSets } from '#shared/utils/set-plan'
 import { applyMoves } from '#shared/utils/plan-moves'
@@ -133,6 +134,9 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     .where(f.where(materialUses, eq(materialUses.jobId, id)))
   const { planner: _planner, ...planned } = await jobPlan(f, job)
   const book = await usePriceBook(f)
+  // the plan counts bags of this material (the finish whose coverage it plans with): the log
+  // form starts its bags box from the plan's bags
+  const planMaterialId = (await catalogueRows(f)).find(r => r.active && r.type === 'finish' && !r.coverageMmPerPack)?.id ?? null
   const drying = { skimDays: book.drySkimDays, undercoatDays: book.dryUndercoatDays, coldOrDampExtraDays: book.dryColdOrDampExtraDays }
   const comparison = materialsAgainstEstimate(job.materialsEstimate, uses)
   const names = new Map(days.map(d => [d.userId, d.name]))
@@ -140,8 +144,13 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   // ready to decorate, per room: not until every surface has its final skim coat logged; each
   // coat on the day it was done in Britain (a set finished at 00:30 BST is that day, not the one before)
   const roomNames = [...new Set(planned.surfaces.map(s => s.roomName))]
-  const coatLogs = logs.filter(l => l.kind === 'set' && l.coat)
-    .map(l => ({ day: londonDay(l.endedAt ?? l.startedAt ?? l.createdAt), coat: l.coat!, coldOrDamp: l.coldOrDamp, surfaceIds: l.surfaceIds, setNumber: l.setNumber }))
+  // an entry with the plan's tasks ticked is read task by task (a skim is the surface's final coat,
+  // a fill or tight coat is that); one made before entries carried tasks, by its coat
+  const coatLogs = logs.filter(l => l.kind === 'set' && l.coat).flatMap((l) => {
+    const day = londonDay(l.endedAt ?? l.startedAt ?? l.createdAt)
+    if (!l.tasks.length) return [{ day, coat: l.coat!, coldOrDamp: l.coldOrDamp, surfaceIds: l.surfaceIds, setNumber: l.setNumber }]
+    return l.tasks.map(t => ({ day, coat: (t.action === 'skim' ? 'second' : t.action) as LogCoat, coldOrDamp: l.coldOrDamp, surfaceIds: [t.surfaceId], setNumber: l.setNumber }))
+  })
   const ready = roomNames.map((room) => {
     const ids = planned.surfaces.filter(s => s.roomName === room).map(s => s.id)
     return { room, ...roomReadyToDecorate(ids, coatLogs, planned.plan, drying) }
@@ -158,7 +167,8 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     days,
     history,
     plan: planned,
-    logs: logs.map(l => ({ ...l, materials: uses.filter(u => u.logId === l.id).map(u => ({ materialId: u.materialId, name: u.name, packLabel: u.packLabel, packsX1000: u.packsX1000, ...(money ? { costPencePerPack: u.costPencePerPack } : {}) })) })),
+    planMaterialId,
+    logs: logs.map(({ clientId: _c, ...l }) => ({ ...l, canChange: mayChangeLog(auth, l, job.status), materials: uses.filter(u => u.logId === l.id).map(u => ({ materialId: u.materialId, name: u.name, packLabel: u.packLabel, packsX1000: u.packsX1000, ...(money ? { costPencePerPack: u.costPencePerPack } : {}) })) })),
     worked,
     ready,
     dryingCaution: READY_CAUTION,

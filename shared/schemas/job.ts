@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { isoDate, isoDateTime, queryWholeNumber, text, whenObject } from './common'
 import { daysBetween } from '../utils/dates'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
-import { MAX_PACKS_X1000, setTooLong } from '../utils/set-log'
+import { inTheFuture, MAX_PACKS_X1000, setTooLong } from '../utils/set-log'
 
 const pickDate = isoDate('Pick a date.')
 const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
@@ -83,6 +83,13 @@ export const setLogSchema = z.object({
   endedAt: isoDateTime('Enter the end time.').nullable().default(null),
   coat: z.enum(LOG_COATS, { error: 'Choose the coat.' }).nullable().default(null),
   surfaceIds: z.array(z.uuid()).max(200).default([]),
+  /** The plan's tasks of the set ticked as done (each on that set of the plan, checked by the route). */
+  tasks: z.array(z.object({
+    surfaceId: z.uuid({ error: 'That surface is not on this job.' }),
+    action: z.enum(['fill', 'tight-coat', 'skim'], { error: 'Choose fill, tight coat or skim.' }),
+  })).max(400).default([]),
+  /** Made on the phone when the form opened: a resend of the same entry is stored once (POST only). */
+  clientId: z.uuid({ error: 'The entry\'s id from the phone is not an id.' }).nullable().default(null),
   userIds: z.array(z.uuid()).max(20).default([]),
   coldOrDamp: z.boolean().default(false),
   notes: upTo(2000).default(''),
@@ -101,6 +108,15 @@ export const setLogSchema = z.object({
     if (why) ctx.addIssue({ code: 'custom', path: ['endedAt'], message: why })
   }, { when: whenObject })
   .refine(v => !Array.isArray(v.materials) || new Set(v.materials.map(m => m?.materialId)).size === v.materials.length, { path: ['materials'], error: 'Each material once: add the bags together.', when: whenObject })
+  .refine(v => !Array.isArray(v.tasks) || new Set(v.tasks.map(t => `${t?.surfaceId}|${t?.action}`)).size === v.tasks.length, { path: ['tasks'], error: 'Each task once.', when: whenObject })
+  .superRefine((v, ctx) => {
+    // times still to come (beyond a few minutes' slack for a phone's clock) are not a set done
+    for (const key of ['startedAt', 'endedAt'] as const) {
+      const at = v[key]
+      const why = typeof at === 'string' ? inTheFuture(at) : null
+      if (why) ctx.addIssue({ code: 'custom', path: [key], message: why })
+    }
+  }, { when: whenObject })
 
 export const diaryQuery = z.object({
   from: pickDate,
@@ -114,3 +130,6 @@ export const jobListQuery = z.object({
   page: queryWholeNumber('A page', 1, 10_000, 1),
   pageSize: queryWholeNumber('A page size', 1, 200, 50),
 })
+
+/** A job's log entry in the path: /api/jobs/:id/logs/:logId. */
+export const jobLogParam = z.object({ id: z.uuid({ error: 'Not found.' }), logId: z.uuid({ error: 'Not found.' }) })

@@ -1,6 +1,6 @@
 // The set log form's sums, kept out of the page so a table can check them: which coat a set on
 // the plan is logged as, and the two times typed on site as instants.
-import { addDays, londonInstant, londonTime } from './dates'
+import { addDays, londonDay, londonInstant, londonTime, shortDay } from './dates'
 import type { LogCoat } from './jobs'
 
 /**
@@ -72,18 +72,77 @@ export function setLogFieldErrors(fields: Record<string, string>, sent: readonly
 }
 
 type Action = 'fill' | 'tight-coat' | 'skim'
-interface PlannedSet { number: number, tasks: readonly { action: Action }[] }
-interface LoggedEntry { kind: string, setNumber: number | null, coat: LogCoat | null }
+/** One task of a set on the plan, as a log entry records it: a surface and what was done to it. */
+export interface LogTask { surfaceId: string, action: Action }
+interface PlannedSet { number: number, tasks: readonly { surfaceId?: string, action: Action }[] }
+interface LoggedEntry { id?: string, kind: string, setNumber: number | null, coat: LogCoat | null, tasks?: readonly LogTask[] | null }
+
+/** A task's key, to compare the plan's tasks with those an entry ticked. */
+export const taskKey = (t: { surfaceId?: string, action: Action }) => `${t.surfaceId ?? ''}|${t.action}`
 
 /**
- * How far a set on the plan has been logged: done once its final coat (coatForSet: the second
- * coat of a set with a skim) is logged against it, partly once anything is (a fill or a first
- * coat now, the second later), else to do.
+ * The tasks of a set already logged, as taskKeys: those ticked in any entry of that set; an entry
+ * made before entries carried their tasks counts the old way (its final coat, coatForSet, covers
+ * every task of the set; an earlier coat, none). `except` leaves one entry out (the one corrected).
+ */
+export function loggedTasks(set: PlannedSet, logs: readonly LoggedEntry[], except?: string): Set<string> {
+  const done = new Set<string>()
+  for (const l of logs) {
+    if (l.kind !== 'set' || l.setNumber !== set.number || (except && l.id === except)) continue
+    if (l.tasks?.length) for (const t of l.tasks) done.add(taskKey(t))
+    else if (l.coat === coatForSet(set.tasks)) for (const t of set.tasks) done.add(taskKey(t))
+  }
+  return done
+}
+
+/**
+ * How far a set on the plan has been logged: done once every task of the set is in some entry
+ * (loggedTasks), partly once anything is logged against it (a fill now, the skim later), else to do.
  */
 export function setProgress(set: PlannedSet, logs: readonly LoggedEntry[]): 'to-do' | 'partly' | 'done' {
   const mine = logs.filter(l => l.kind === 'set' && l.setNumber === set.number)
-  if (mine.some(l => l.coat === coatForSet(set.tasks))) return 'done'
-  return mine.length ? 'partly' : 'to-do'
+  if (!mine.length) return 'to-do'
+  const done = loggedTasks(set, logs)
+  return set.tasks.length > 0 && set.tasks.every(t => done.has(taskKey(t))) ? 'done' : 'partly'
+}
+
+/**
+ * The tasks ticked when the log form opens on a set: every task not yet logged in another entry
+ * (the crew untick what was not done).
+ */
+export function tasksToTick(set: PlannedSet, logs: readonly LoggedEntry[]): string[] {
+  const done = loggedTasks(set, logs)
+  return set.tasks.map(taskKey).filter(k => !done.has(k))
+}
+
+/**
+ * The bags the plan gives the ticked tasks (taskKeys), to a tenth, as typed in the "Bags mixed"
+ * box ("4.5"), or '' when none are ticked.
+ */
+export function plannedBags(tasks: readonly { surfaceId: string, action: Action, bags: number }[], ticked: readonly string[]): string {
+  const keys = new Set(ticked)
+  const tenths = tasks.filter(t => keys.has(taskKey(t))).reduce((sum, t) => sum + Math.round(t.bags * 10), 0)
+  return tenths ? String(tenths / 10) : ''
+}
+
+/** Minutes a set's times may run ahead of the server's clock: a phone's clock may be a few minutes out (common practice). */
+export const FUTURE_SLACK_MINUTES = 5
+
+/** Why a time typed for a set cannot be right because it is still to come (beyond the slack), or null. */
+export function inTheFuture(at: string, now: Date = new Date()): string | null {
+  const t = Date.parse(at)
+  if (!(t > now.getTime() + FUTURE_SLACK_MINUTES * 60_000)) return null
+  return `${londonTime(new Date(t))} on ${shortDay(new Date(t))} is still to come: log a set once it is done.`
+}
+
+/**
+ * Whether a person may correct or remove a log entry: the owner any time; the person who logged
+ * it on the same London day it was logged (createdAt); nobody on a closed job.
+ */
+export function mayChangeLog(who: { userId: string, role: string }, log: { loggedBy: string | null, createdAt: Date | string }, jobStatus: string, now: Date = new Date()): boolean {
+  if (['invoiced', 'paid', 'cancelled'].includes(jobStatus)) return false
+  if (who.role === 'owner') return true
+  return log.loggedBy === who.userId && londonDay(new Date(log.createdAt)) === londonDay(now)
 }
 
 /**

@@ -187,7 +187,7 @@ describe('days, crew and the set log', () => {
     expect((await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', coat: 'first', surfaceIds: [crypto.randomUUID()] })).status).toBe(400)
     // a finish of 09:00 after a start of 14:00 is not a set that ran past midnight: 19 hours is no set
     const allSet1 = set1.tasks.map((t: any) => t.surfaceId)
-    const long = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: allSet1, startedAt: '2026-12-06T14:00:00Z', endedAt: '2026-12-07T09:00:00Z' })
+    const long = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: allSet1, startedAt: '2026-06-01T14:00:00Z', endedAt: '2026-06-02T09:00:00Z' })
     expect(long.status).toBe(400)
     expect(long.body.data.fields.endedAt).toMatch(/19 hours/)
     // 150 bags of finish in one set: named on the material's field, not stored
@@ -197,7 +197,7 @@ describe('days, crew and the set log', () => {
     expect((await owner.get(`/api/jobs/${id}`)).body.logs).toHaveLength(0)
     const logged = await crew.post(`/api/jobs/${id}/logs`, {
       kind: 'set', setNumber: 1, coat: 'first', surfaceIds: set1.tasks.map((t: any) => t.surfaceId),
-      startedAt: '2026-12-07T08:30:00Z', endedAt: '2026-12-07T10:15:00Z', materials: [{ materialId: finish.id, packsX1000: 1500 }], notes: 'Good suction',
+      startedAt: '2026-06-01T08:30:00Z', endedAt: '2026-06-01T10:15:00Z', materials: [{ materialId: finish.id, packsX1000: 1500 }], notes: 'Good suction',
     })
     expect(logged.status, JSON.stringify(logged.body)).toBe(201)
     expect(logged.body.status).toBe('in-progress')
@@ -236,19 +236,19 @@ describe('days, crew and the set log', () => {
     expect(full.dryingCaution).toMatch(/local building regulations and licensed practice/)
     // set 1 again as its second coat: only the surfaces set 1 skims are finished, not a wall it only fills
     const set1Skims = set1.tasks.filter((t: any) => t.action === 'skim').map((t: any) => t.surfaceId)
-    const second = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'second', surfaceIds: set1.tasks.map((t: any) => t.surfaceId), startedAt: '2026-12-07T10:30:00Z', endedAt: '2026-12-07T11:15:00Z' })
+    const second = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'second', surfaceIds: set1.tasks.map((t: any) => t.surfaceId), startedAt: '2026-06-01T10:30:00Z', endedAt: '2026-06-01T11:15:00Z' })
     expect(second.status, JSON.stringify(second.body)).toBe(201)
     expect(second.body.ready).toEqual([{ room: 'Back bedroom', from: null, skimmed: set1Skims.length, surfaces: 3 }])
-    // every surface's second coat, finished at 00:30 BST on 11 June 2027 (23:30 UTC on the 10th): the day is
+    // every surface's second coat, finished at 00:30 BST on 11 June 2026 (23:30 UTC on the 10th): the day is
     // London's 11 June, plus the firm's 7 days (common practice, DOMAIN.md: about a week) = 18 June
-    const last = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', coat: 'second', surfaceIds: [wallA, wallB, ceiling], startedAt: '2027-06-10T21:30:00Z', endedAt: '2027-06-10T23:30:00Z' })
+    const last = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', coat: 'second', surfaceIds: [wallA, wallB, ceiling], startedAt: '2026-06-10T21:30:00Z', endedAt: '2026-06-10T23:30:00Z' })
     expect(last.status, JSON.stringify(last.body)).toBe(201)
-    expect(last.body.ready).toEqual([{ room: 'Back bedroom', from: '2027-06-18', skimmed: 3, surfaces: 3 }])
+    expect(last.body.ready).toEqual([{ room: 'Back bedroom', from: '2026-06-18', skimmed: 3, surfaces: 3 }])
     // the firm changes its rule of thumb: the date follows (11 June + 10)
     const book = (await owner.get('/api/price-book')).body
     const { firmId: _f, createdAt: _c, updatedAt: _u, ...fields } = book
     expect((await owner.put('/api/price-book', { ...fields, drySkimDays: 10 })).status).toBe(200)
-    expect((await owner.get(`/api/jobs/${id}`)).body.ready).toEqual([{ room: 'Back bedroom', from: '2027-06-21', skimmed: 3, surfaces: 3 }])
+    expect((await owner.get(`/api/jobs/${id}`)).body.ready).toEqual([{ room: 'Back bedroom', from: '2026-06-21', skimmed: 3, surfaces: 3 }])
     expect((await owner.put('/api/price-book', { ...fields, drySkimDays: -1 })).status).toBe(400)
     expect((await owner.put('/api/price-book', { ...fields, drySkimDays: 7 })).status).toBe(200)
 

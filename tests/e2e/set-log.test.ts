@@ -169,4 +169,79 @@ describe('the set log', () => {
     await screenshot(jess.page, 'job-materials-owner')
     expectCleanRun(jess)
   })
+
+  it('crew tick set 1\'s tasks from the plan, log it in two parts, correct an entry and remove one', async () => {
+    const api = new Client(e2e.url)
+    await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
+    const { jobId } = await jobBookedToday(api)
+    const set1 = (await api.get(`/api/jobs/${jobId}`)).body.plan.plan.sets[0]
+    expect(set1.tasks.length).toBeGreaterThan(1)
+
+    const kieran = await e2e.open()
+    const page = kieran.page
+    await signInToDashboard(page, e2e.url, CREW.email, CREW.password)
+    await visit(page, `${e2e.url}/jobs/${jobId}`)
+    await expectText(page.getByTestId('set-1'), /Not logged yet/)
+    await page.getByTestId('set-1').getByRole('link', { name: 'Log set 1' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+    await expectVisible(page.getByRole('heading', { name: 'Log a set' }))
+    // every task of set 1 listed with its action and the plan's bags, all ticked; no browser-default boxes
+    const tasks = page.getByTestId('log-tasks')
+    const boxes = tasks.locator('input[type=checkbox]')
+    expect(await boxes.count()).toBe(set1.tasks.length)
+    expect(await tasks.locator('input[type=checkbox]:checked').count()).toBe(set1.tasks.length)
+    await expectVisible(tasks.getByText(/· (Fill|Skim|Tight coat) · [\d.]+ bags?/).first())
+    expect(await page.locator('input[type=checkbox]:not(.field-check), input[type=radio]:not(.field-check)').count()).toBe(0)
+    for (const label of await tasks.locator('label').all()) expect((await label.boundingBox())!.height).toBeGreaterThanOrEqual(44)
+    // the bags box starts at the plan's bags of the ticked tasks
+    const bags = page.getByLabel('Gypsum finish plaster')
+    const planned = set1.tasks.reduce((n: number, t: { bags: number }) => n + Math.round(t.bags * 10), 0) / 10
+    expect(await bags.inputValue()).toBe(String(planned))
+    await screenshot(page, 'set-log-tasks')
+    // the last task was not done: untick it; the bags follow
+    await tasks.locator('label').last().click()
+    expect(await tasks.locator('input[type=checkbox]:checked').count()).toBe(set1.tasks.length - 1)
+    expect(await bags.inputValue()).not.toBe(String(planned))
+    await page.getByLabel('Notes (optional)').fill('Most of set 1')
+    await page.getByRole('button', { name: 'Save the set' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+    await expectText(page.getByTestId('set-1'), /Part logged/)
+
+    // the rest of set 1: only the task not yet logged is ticked
+    await page.getByTestId('set-1').getByRole('link', { name: 'Log set 1' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+    await expectVisible(page.getByRole('heading', { name: 'Log a set' }))
+    expect(await tasks.locator('input[type=checkbox]:checked').count()).toBe(1)
+    await expectVisible(tasks.getByText(/logged already/).first())
+    await page.getByLabel('Notes (optional)').fill('The rest of set 1')
+    await page.getByRole('button', { name: 'Save the set' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+    await expectText(page.getByTestId('set-1'), /Done/)
+
+    // correct the first entry: the log page filled with it, saved as a correction
+    const log = page.getByTestId('set-log')
+    const first = log.locator('li', { hasText: 'Most of set 1' })
+    await first.getByRole('link', { name: 'Correct' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log` && u.searchParams.has('entry'))
+    await expectVisible(page.getByRole('heading', { name: 'Correct an entry' }))
+    expect(await page.getByLabel('Notes (optional)').inputValue()).toBe('Most of set 1')
+    expect(await tasks.locator('input[type=checkbox]:checked').count()).toBe(set1.tasks.length - 1)
+    await page.getByLabel('Notes (optional)').fill('Most of set 1, corrected')
+    await screenshot(page, 'set-log-correct')
+    await page.getByRole('button', { name: 'Save the correction' }).click()
+    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+    await expectVisible(log.getByText('Most of set 1, corrected'))
+    await expectText(page.getByTestId('set-1'), /Done/)
+
+    // remove the second entry, after the dialog: set 1 is part logged again
+    const second = log.locator('li', { hasText: 'The rest of set 1' })
+    await second.getByRole('button', { name: 'Remove' }).click()
+    await expectVisible(page.getByRole('alertdialog'))
+    await screenshot(page, 'set-log-remove')
+    await page.getByTestId('confirm-yes').click()
+    await expectAbsent(log.getByText('The rest of set 1'))
+    await expectText(page.getByTestId('set-1'), /Part logged/)
+    await screenshot(page, 'set-log-entries')
+    expectCleanRun(kieran)
+  })
 })

@@ -83,6 +83,9 @@ const TABLE: Record<string, [Need, string]> = {
   'PATCH /api/jobs/:id': ['ledger:write', '401 ok ok 403 403 404'],
   'PUT /api/jobs/:id/days': ['ledger:write', '401 ok ok 403 403 404'],
   'POST /api/jobs/:id/logs': ['work:log', '401 ok ok ok 403 404'],
+  // the owner logged it: only they (or its logger, that day) may change it, so office and crew are refused
+  'DELETE /api/jobs/:id/logs/:logId': ['work:log', '401 ok 403 403 403 404'],
+  'PATCH /api/jobs/:id/logs/:logId': ['work:log', '401 ok 403 403 403 404'],
   'PUT /api/jobs/:id/plan': ['work:log', '401 ok ok ok 403 404'],
   'POST /api/jobs/:id/status': ['work:log', '401 ok ok ok 403 404'],
   'GET /api/jobs': ['jobs:read-assigned', '401 ok ok ok 403 ok'],
@@ -165,6 +168,7 @@ const TABLE: Record<string, [Need, string]> = {
 const FRESH: Record<string, { param: string, make: (f: Firm) => Promise<string> }> = {
   'DELETE /api/cis-statements/:id': { param: 'id', make: f => f.fresh.cisStatement() },
   'DELETE /api/documents/:id': { param: 'id', make: f => f.fresh.document() },
+  'DELETE /api/jobs/:id/logs/:logId': { param: 'logId', make: f => f.fresh.setLog() },
   'DELETE /api/photos/:id': { param: 'id', make: f => f.fresh.photo() },
   'DELETE /api/purchases/:id': { param: 'id', make: f => f.fresh.purchase() },
   'DELETE /api/team/invitations/:id': { param: 'id', make: f => f.fresh.invitation() },
@@ -180,6 +184,13 @@ const UPLOADS: Record<string, { target: 'visitId' | 'purchaseId', file: () => Pr
 }
 
 const ROLES_OF_FIRM = ['owner', 'office', 'crew', 'accountant'] as const
+
+/**
+ * Routes on a row that is someone's own: a role with the permission is still refused (403, in
+ * words) a row that is not theirs. A set log entry is changed by the person who logged it (that
+ * day) or the owner; the table's entry was logged by the owner.
+ */
+const OWN_ROWS = new Set(['PATCH /api/jobs/:id/logs/:logId', 'DELETE /api/jobs/:id/logs/:logId'])
 
 function expected(key: string): Record<Caller, Outcome> {
   const tokens = TABLE[key]![1].split(/\s+/)
@@ -272,7 +283,7 @@ describe('the access table', () => {
       if (LINK_ONLY.has(route.key)) continue
       if (want.out !== (need === 'public' ? 'ok' : '401')) problems.push(`${route.key}: signed out should be ${need === 'public' ? 'ok' : '401'}`)
       for (const role of ROLES_OF_FIRM) {
-        const ok = allowed(role) ? ['ok', '404'].includes(want[role]) : want[role] === '403'
+        const ok = allowed(role) ? ['ok', '404', ...(OWN_ROWS.has(route.key) && role !== 'owner' ? ['403'] : [])].includes(want[role]) : want[role] === '403'
         if (!ok) problems.push(`${route.key}: ${role} is ${want[role]} but ${allowed(role) ? 'has' : 'lacks'} ${need}`)
       }
       const other = need === 'public' ? ['ok'] : route.params.length ? ['404'] : ['ok', '400', '404']

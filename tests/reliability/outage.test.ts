@@ -89,6 +89,7 @@ describe('the database stopped in the middle of a mixed load', () => {
     app.stripe.setSwitches({ retries: 8, retryDelayMs: 500 })
     let outage: [number, number] = [Number.POSITIVE_INFINITY, Number.POSITIVE_INFINITY]
     const day = new Date().toISOString().slice(0, 10)
+    const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10)
 
     const call = async (what: string, method: string, path: string, body?: unknown, as: Client = owner) => {
       let res: { status: number, body: any }
@@ -150,7 +151,8 @@ describe('the database stopped in the middle of a mixed load', () => {
           // a set logged on the job, with the bags mixed
           const packsX1000 = 1000 + n * 100 + (i % 100)
           const logged = await call('log a set', 'POST', `/api/jobs/${job.id}/logs`, {
-            kind: 'set', setNumber: 1, coat: 'first', surfaceIds: job.surfaceIds, startedAt: `${day}T08:00:00Z`, endedAt: `${day}T09:30:00Z`,
+            // yesterday's times: a set's times may not be still to come (a run at 07:00 would be)
+            kind: 'set', setNumber: 1, coat: 'first', surfaceIds: job.surfaceIds, startedAt: `${yesterday}T08:00:00Z`, endedAt: `${yesterday}T09:30:00Z`,
             materials: [{ materialId: job.finishId, packsX1000 }], notes: `load ${n}-${i}`,
           })
           const mine = logged.status === 201 ? logged.body.logs.find((l: { notes: string }) => l.notes === `load ${n}-${i}`) : undefined

@@ -170,6 +170,7 @@ export interface Firm {
     cisStatement(): Promise<string>
     purchase(): Promise<string>
     photo(): Promise<string>
+    setLog(): Promise<string>
     document(): Promise<string>
     invitation(): Promise<string>
     room(): Promise<string>
@@ -177,6 +178,7 @@ export interface Firm {
 }
 
 export const TODAY = new Date().toISOString().slice(0, 10)
+export const YESTERDAY = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10)
 const inDays = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10)
 export const VISIT_AT = `${inDays(18)}T09:00:00.000Z`
 export const JOB_DAY = inDays(19)
@@ -273,6 +275,10 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
   }
   const cisStatementId = await newCisStatement()
 
+  // an entry in the job's set log (a problem found: it leaves the job's status as it is), for its correction and removal
+  const newSetLog = async () => ok(await o.post(`/api/jobs/${job.id}/logs`, { kind: 'problem', notes: 'Loose plaster by the door' }), 'set log').logId as string
+  const setLogId = await newSetLog()
+
   const newPhoto = async () => ok(await sendMultipart(app.url, o, '/api/photos/uploads', { visitId: visit.id }, { data: await jpeg(), name: 'wall.jpg', type: 'image/jpeg' }), 'photo').id as string
   const photoId = await newPhoto()
   const newDocument = async () => ok(await sendMultipart(app.url, o, '/api/documents/uploads', { purchaseId }, { data: TINY_PDF, name: 'receipt.pdf', type: 'application/pdf' }), 'document').id as string
@@ -324,6 +330,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
       photoId,
       documentId,
       invitationId: openInvitation.id,
+      setLogId,
     },
     tokens: { invitation: invitationTokenValue, quote: quoteToken, invoice: invoiceToken, calendar: calendarToken, formKey: firm.enquiryFormKey },
     vat: { invoice: draftInvoice.vat, quote: draftQuoteDetail.current.vat },
@@ -331,6 +338,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
       cisStatement: newCisStatement,
       purchase: newPurchase,
       photo: newPhoto,
+      setLog: newSetLog,
       document: newDocument,
       invitation: async () => (await invite()).id,
       room: async () => {
@@ -383,7 +391,9 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
   'PATCH /api/job-days/:id': () => ({ worked: true, portion: 'day' }),
   'PATCH /api/jobs/:id': () => ({ title: 'Skim the front bedroom', notes: 'Bring dust sheets' }),
   'PUT /api/jobs/:id/days': f => ({ days: [{ day: JOB_DAY, userId: f.ids.visitorUserId, portion: 'day' }] }),
-  'POST /api/jobs/:id/logs': f => ({ kind: 'set', setNumber: 1, startedAt: `${TODAY}T08:00:00.000Z`, endedAt: `${TODAY}T10:00:00.000Z`, coat: 'first', surfaceIds: [f.ids.surfaceId], userIds: [f.ids.visitorUserId], coldOrDamp: false, notes: 'Went on well', materials: [{ materialId: f.ids.materialId, packsX1000: 1500 }] }),
+  // yesterday: a set's times may not be still to come
+  'POST /api/jobs/:id/logs': f => ({ kind: 'set', setNumber: 1, startedAt: `${YESTERDAY}T08:00:00.000Z`, endedAt: `${YESTERDAY}T10:00:00.000Z`, coat: 'first', surfaceIds: [f.ids.surfaceId], userIds: [f.ids.visitorUserId], coldOrDamp: false, notes: 'Went on well', materials: [{ materialId: f.ids.materialId, packsX1000: 1500 }] }),
+  'PATCH /api/jobs/:id/logs/:logId': f => ({ kind: 'set', setNumber: 1, startedAt: `${YESTERDAY}T08:00:00.000Z`, endedAt: `${YESTERDAY}T10:00:00.000Z`, coat: 'first', surfaceIds: [f.ids.surfaceId], userIds: [f.ids.visitorUserId], coldOrDamp: false, notes: 'Went on well', materials: [{ materialId: f.ids.materialId, packsX1000: 1500 }] }),
   'PUT /api/jobs/:id/plan': () => ({ people: 2, bagsPerPersonPerSet: 3, coverageM2PerBagX10: 100, moves: {}, resetMoves: false }),
   'POST /api/jobs/:id/status': () => ({ to: 'in-progress', reason: 'Started' }),
   'POST /api/jobs': f => ({ customerId: f.ids.customerId, siteId: f.ids.siteId, visitId: f.ids.visitId, title: 'Patch the hall ceiling', estimatedDaysX100: 150, notes: '' }),
@@ -443,6 +453,7 @@ const ROW_FOR_RESOURCE: Record<string, string> = {
   'team': 'crewMembershipId',
   'invitations': 'invitationId',
   'visits': 'visitId',
+  'logs': 'setLogId',
 }
 
 export const ROW_FOR_ROUTE: Record<string, Partial<Record<string, string>>> = {

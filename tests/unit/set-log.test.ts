@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest'
-import { coatForSet, MAX_PACKS_X1000, MAX_SET_HOURS, setLogFieldErrors, setLogTimes, setProgress, setToLog, setTooLong } from '../../shared/utils/set-log'
+import {
+  coatForSet, FUTURE_SLACK_MINUTES, inTheFuture, loggedTasks, MAX_PACKS_X1000, MAX_SET_HOURS, mayChangeLog, plannedBags, setLogFieldErrors, setLogTimes, setProgress,
+  setToLog, setTooLong, tasksToTick,
+} from '../../shared/utils/set-log'
+import { setLogSchema } from '../../shared/schemas/job'
 
 // Sources: the coat rule is the firm's own (DOMAIN.md "Planning the sets": a set is laid on and
 // trowelled up in one go); the clocks, The Summer Time Act 1972 / Summer Time Order 2002 (BST from
@@ -91,5 +95,91 @@ describe('setProgress and setToLog: the set the log opens on never moves on by i
     const all = [log(1, 'second'), log(2, 'second'), log(3, 'fill')]
     expect(sets.map(s => setProgress(s, all))).toEqual(['done', 'done', 'done'])
     expect(setToLog(sets, all)).toBe(1)
+  })
+})
+
+describe('setProgress with the plan\'s tasks ticked: a set can be logged in parts', () => {
+  // the firm's own rule (DOMAIN.md "Planning the sets"): a set is its tasks; it is done when each is done
+  const A = '00000000-0000-4000-8000-00000000000a'
+  const B = '00000000-0000-4000-8000-00000000000b'
+  const C = '00000000-0000-4000-8000-00000000000c'
+  const set1 = { number: 1, tasks: [{ surfaceId: A, action: 'fill' as const, bags: 0.5 }, { surfaceId: B, action: 'tight-coat' as const, bags: 1 }, { surfaceId: C, action: 'skim' as const, bags: 2.3 }] }
+  type T = { surfaceId: string, action: 'fill' | 'tight-coat' | 'skim' }
+  const entry = (tasks: T[], coat: 'fill' | 'tight-coat' | 'first' | 'second' | null = coatForSet(tasks), setNumber = 1, kind = 'set', id?: string) => ({ id, kind, setNumber, coat, tasks })
+  const fill: T = { surfaceId: A, action: 'fill' }
+  const tight: T = { surfaceId: B, action: 'tight-coat' }
+  const skim: T = { surfaceId: C, action: 'skim' }
+  it.each<[string, ReturnType<typeof entry>[], string, string[]]>([
+    ['nothing logged (common practice)', [], 'to-do', ['A|fill', 'B|tight-coat', 'C|skim']],
+    ['the fill now, the rest later: part logged (common practice)', [entry([fill])], 'partly', ['B|tight-coat', 'C|skim']],
+    ['the fill and tight coat in one entry, the skim in another: done (common practice)', [entry([fill, tight]), entry([skim])], 'done', []],
+    ['every task in one entry: done (common practice)', [entry([fill, tight, skim])], 'done', []],
+    ['the skim alone, even as the final coat, leaves the fill to do: part logged (common practice)', [entry([skim], 'second')], 'partly', ['A|fill', 'B|tight-coat']],
+    ['the same task twice is still one task (common practice)', [entry([fill]), entry([fill])], 'partly', ['B|tight-coat', 'C|skim']],
+    ['an entry made before tasks, at the set\'s final coat: done the old way (from memory: entries logged before this change)', [{ id: undefined, kind: 'set', setNumber: 1, coat: 'second' as const, tasks: [] }], 'done', []],
+    ['an entry made before tasks, at a first coat: part logged, nothing ticked off (from memory)', [{ id: undefined, kind: 'set', setNumber: 1, coat: 'first' as const, tasks: [] }], 'partly', ['A|fill', 'B|tight-coat', 'C|skim']],
+    ['another set\'s entry does not count (common practice)', [entry([fill, tight, skim], 'second', 2)], 'to-do', ['A|fill', 'B|tight-coat', 'C|skim']],
+    ['a problem found does not count (common practice)', [entry([fill], null, 1, 'problem')], 'to-do', ['A|fill', 'B|tight-coat', 'C|skim']],
+  ])('%s', (_what, logs, progress, toTick) => {
+    const key = (k: string) => k.replace('A|', `${A}|`).replace('B|', `${B}|`).replace('C|', `${C}|`)
+    expect(setProgress(set1, logs)).toBe(progress)
+    expect(tasksToTick(set1, logs)).toEqual(toTick.map(key))
+  })
+  it('leaves out the entry being corrected, so its own tasks can be ticked again', () => {
+    const logs = [entry([fill], 'fill', 1, 'set', 'one'), entry([skim], 'second', 1, 'set', 'two')]
+    expect([...loggedTasks(set1, logs, 'two')]).toEqual([`${A}|fill`])
+  })
+  it.each<[string, string[], string]>([
+    ['every task ticked: the plan\'s bags added in tenths (0.5 + 1 + 2.3)', [`${A}|fill`, `${B}|tight-coat`, `${C}|skim`], '3.8'],
+    ['the skim only', [`${C}|skim`], '2.3'],
+    ['nothing ticked: left empty', [], ''],
+  ])('plannedBags: %s', (_what, ticked, bags) => expect(plannedBags(set1.tasks, ticked)).toBe(bags))
+})
+
+describe('inTheFuture and the schema: a set is logged once it is done (a few minutes\' slack for a phone\'s clock)', () => {
+  const now = new Date('2026-12-05T10:00:00Z')
+  it.each<[string, string, boolean]>([
+    ['an hour ago', '2026-12-05T09:00:00Z', false],
+    ['now', '2026-12-05T10:00:00Z', false],
+    ['four minutes ahead: a phone\'s clock (common practice)', '2026-12-05T10:04:00Z', false],
+    ['exactly the slack', '2026-12-05T10:05:00Z', false],
+    ['six minutes ahead', '2026-12-05T10:06:00Z', true],
+    ['tomorrow morning', '2026-12-06T08:00:00Z', true],
+  ])('%s', (_what, at, refused) => {
+    expect(FUTURE_SLACK_MINUTES).toBe(5)
+    expect(inTheFuture(at, now) !== null).toBe(refused)
+  })
+  it('names the time in London words', () => expect(inTheFuture('2026-12-06T08:00:00Z', now)).toBe('08:00 on Sun 6 Dec is still to come: log a set once it is done.'))
+  it('the schema refuses a start or a finish still to come, beside the field', () => {
+    const later = new Date(Date.now() + 3 * 3600_000).toISOString()
+    const earlier = new Date(Date.now() - 3600_000).toISOString()
+    const r = setLogSchema.safeParse({ kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: ['00000000-0000-4000-8000-00000000000a'], startedAt: earlier, endedAt: later })
+    expect(r.success).toBe(false)
+    expect(r.error!.issues.map(i => i.path.join('.'))).toEqual(['endedAt'])
+    expect(setLogSchema.safeParse({ kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: ['00000000-0000-4000-8000-00000000000a'], startedAt: earlier, endedAt: new Date().toISOString() }).success).toBe(true)
+  })
+  it('the schema refuses the same task twice', () => {
+    const t = { surfaceId: '00000000-0000-4000-8000-00000000000a', action: 'fill' }
+    const r = setLogSchema.safeParse({ kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: [t.surfaceId], tasks: [t, t] })
+    expect(r.error!.issues.map(i => i.path.join('.'))).toEqual(['tasks'])
+  })
+})
+
+describe('mayChangeLog: who may correct or remove an entry', () => {
+  // the firm's own rule (issue 15): the person who logged it, the same London day; the owner any time
+  const now = new Date('2026-12-05T23:30:00Z') // 23:30 in London (GMT)
+  const log = (loggedBy: string, createdAt: string) => ({ loggedBy, createdAt })
+  it.each<[string, { userId: string, role: string }, ReturnType<typeof log>, string, boolean]>([
+    ['the logger, the same day', { userId: 'kit', role: 'crew' }, log('kit', '2026-12-05T08:00:00Z'), 'in-progress', true],
+    ['the logger, the next day', { userId: 'kit', role: 'crew' }, log('kit', '2026-12-04T16:00:00Z'), 'in-progress', false],
+    ['another crew member, the same day', { userId: 'ash', role: 'crew' }, log('kit', '2026-12-05T08:00:00Z'), 'in-progress', false],
+    ['the office, who did not log it', { userId: 'ola', role: 'office' }, log('kit', '2026-12-05T08:00:00Z'), 'in-progress', false],
+    ['the owner, a week on', { userId: 'jo', role: 'owner' }, log('kit', '2026-11-28T08:00:00Z'), 'finished', true],
+    ['the owner, on an invoiced job', { userId: 'jo', role: 'owner' }, log('kit', '2026-12-05T08:00:00Z'), 'invoiced', false],
+    ['the logger, on a cancelled job', { userId: 'kit', role: 'crew' }, log('kit', '2026-12-05T08:00:00Z'), 'cancelled', false],
+    ['a summer day is London\'s: 00:30 BST on 1 July is 1 July (The Summer Time Act 1972)', { userId: 'kit', role: 'crew' }, log('kit', '2026-06-30T23:30:00Z'), 'in-progress', true],
+  ])('%s', (_what, who, entry, status, may) => {
+    const at = entry.createdAt.startsWith('2026-06') ? new Date('2026-07-01T20:00:00Z') : now
+    expect(mayChangeLog(who, entry, status, at)).toBe(may)
   })
 })

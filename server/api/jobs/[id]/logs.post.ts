@@ -1,11 +1,11 @@
-import { eq, inArray, sql } from 'drizzle-orm'
-import { jobs, materials, materialUses, setLogs } from '../../../db/schema'
+import { setLogs } from '../../../db/schema'
 import { idParam } from '#shared/schemas/common'
 import { setLogSchema } from '#shared/schemas/job'
 
 /**
- * Log a set as done (surfaces, coat, times, who, bags mixed of each material) or a problem found.
- * The first set logged puts a booked job on site.
+ * Log a set as done (the plan's tasks ticked, surfaces, coat, times, who, bags mixed of each
+ * material) or a problem found. The first set logged puts a booked job on site. An entry sent with
+ * the phone's `clientId` is stored once: a resend answers 200 with the same job and `logId`.
  */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'work:log')
@@ -13,32 +13,29 @@ export default defineEventHandler(async (event) => {
   const input = await readBodyWith(event, setLogSchema)
   return withFirm(auth, async (f) => {
     const job = await findJob(f, auth, id, true)
+    // a resend of an entry already stored (the answer was lost, or the phone's queue sent it again)
+    const sent = input.clientId ? await logByClientId(f, input.clientId) : undefined
+    if (sent) return resent(sent)
     if (['invoiced', 'paid', 'cancelled'].includes(job.status)) {
       throw createError({ statusCode: 409, statusMessage: 'Job closed', data: { message: `The job is ${JOB_STATUS_LABELS[job.status].toLowerCase()}: nothing more is logged on it.` } })
     }
-    const { plan } = await jobPlan(f, job)
-    const known = new Set(plan.sets.flatMap(s => s.tasks.map(t => t.surfaceId)))
-    const unknown = input.surfaceIds.findIndex(s => !known.has(s))
-    if (unknown >= 0) throw fieldError({ [`surfaceIds.${unknown}`]: 'That surface is not on this job.' })
-    if (input.setNumber !== null && input.setNumber > plan.sets.length) throw fieldError({ setNumber: `The plan has ${plan.sets.length} sets.` })
-    await checkMembers(f, input.userIds, 'userIds.#')
-    const ids = input.materials.map(m => m.materialId)
-    const rows = ids.length ? await f.tx.select({ id: materials.id, costPence: materials.costPence }).from(materials).where(f.where(materials, inArray(materials.id, ids))) : []
-    const missing = input.materials.findIndex(m => !rows.some(r => r.id === m.materialId))
-    if (missing >= 0) throw fieldError({ [`materials.${missing}.materialId`]: 'Choose one of the firm\'s materials.' })
-
-    const { materials: used, startedAt, endedAt, ...rest } = input
-    const [log] = await f.tx.insert(setLogs).values(f.values({
-      ...rest, jobId: id, userIds: rest.userIds.length ? rest.userIds : [auth.userId], loggedBy: auth.userId,
-      startedAt: startedAt ? new Date(startedAt) : null, endedAt: endedAt ? new Date(endedAt) : null,
-    })).returning()
-    if (used.length) {
-      await f.tx.insert(materialUses).values(used.map(m => f.values({ jobId: id, logId: log!.id, materialId: m.materialId, packsX1000: m.packsX1000, costPencePerPack: rows.find(r => r.id === m.materialId)!.costPence })))
-    }
+    const { prices } = await checkLogInput(f, job, input)
+    // the job's lock puts two sends of one entry to this job one after the other; the same id sent
+    // to another job at the same moment meets the unique (firm, client id) and stores nothing
+    const [log] = await f.tx.insert(setLogs).values(f.values({ ...logColumns(input, auth.userId), clientId: input.clientId, jobId: id, loggedBy: auth.userId }))
+      .onConflictDoNothing({ target: [setLogs.firmId, setLogs.clientId] }).returning()
+    if (!log) return resent((await logByClientId(f, input.clientId!))!)
+    await writeMaterialUses(f, id, log.id, input.materials, m => prices.get(m)!)
     if (job.status === 'booked' && input.kind === 'set') await moveJob(f, job, 'in-progress', 'First set logged')
-    else await f.tx.update(jobs).set({ updatedAt: sql`now()` }).where(f.where(jobs, eq(jobs.id, id)))
-    await f.audit('job.logged', 'job', id, { kind: input.kind, setNumber: input.setNumber })
+    else await touchJob(f, id)
+    await f.audit('job.logged', 'job', id, { logId: log.id, kind: input.kind, setNumber: input.setNumber, tasks: input.tasks })
     setResponseStatus(event, 201)
-    return jobDetail(f, auth, id)
+    return { ...await jobDetail(f, auth, id), logId: log.id }
+
+    async function resent(row: { id: string, jobId: string }) {
+      if (row.jobId !== id) throw createError({ statusCode: 409, statusMessage: 'Already logged', data: { message: 'This entry was already saved on another job.' } })
+      setResponseStatus(event, 200)
+      return { ...await jobDetail(f, auth, id), logId: row.id }
+    }
   })
 })
