@@ -8,7 +8,6 @@ import {
   coatForSet, inTheFuture, loggedTasks, MAX_PACKS_X1000, plannedBags, setLogFieldErrors, setLogTimes, setProgress, setToLog,
   setTooLong, taskKey, tasksToTick, type LogTask,
 } from '#shared/utils/set-log'
-import { newId } from '~/stores/visitDraft'
 
 type Job = ApiResponse<'/api/jobs/:id'>
 type Entry = Job['logs'][number]
@@ -32,6 +31,7 @@ function formFromEntry(entry: Entry) {
     coldOrDamp: entry.coldOrDamp,
     notes: entry.notes,
     clientId: '',
+    photos: [] as { id: string, file: File }[],
   }
 }
 
@@ -55,6 +55,8 @@ export function setLogForm(job: Job | null | undefined, me: { id: string } | und
     notes: '',
     /** Made when the form opens: a resend of this entry (a lost answer, the offline queue) is stored once. */
     clientId: newId(),
+    /** Photos taken with the set: sent after it, through the outbox (kept on the phone with no signal). */
+    photos: [] as { id: string, file: File }[],
   }
 }
 export type SetLogForm = ReturnType<typeof setLogForm>
@@ -117,12 +119,20 @@ export function useSetLogForm(job: Ref<Job | null | undefined>) {
     if (_s || _e) save.errors.value = { ...save.errors.value, fields: rest }
   })
 
-  // the one send: a new entry is a POST with its clientId, a correction a PATCH of that entry
+  // the one send: a new entry (with its photos) goes through the outbox with its clientId, at once
+  // with a signal and kept on the phone with none; a correction is a PATCH of that entry
   let body: Record<string, unknown> = {}
+  const sendSetLog = useSetLogSend()
   const save = useSubmit(async () => {
-    const jobId = job.value!.id
-    await $fetch(entry ? `/api/jobs/${jobId}/logs/${entry.id}` : `/api/jobs/${jobId}/logs`, { method: entry ? 'PATCH' : 'POST', body })
-    await navigateTo(`/jobs/${jobId}`)
+    const j = job.value!
+    if (entry) {
+      await $fetch(`/api/jobs/${j.id}/logs/${entry.id}`, { method: 'PATCH', body })
+    }
+    else {
+      const what = body.kind === 'problem' ? 'A problem found' : `Set ${form.value.setNumber}`
+      await sendSetLog({ jobId: j.id, clientId: form.value.clientId, body, label: `${what} on ${j.reference}`, photos: form.value.photos })
+    }
+    await navigateTo(`/jobs/${j.id}`)
   })
 
   async function submit() {

@@ -2,49 +2,18 @@
 // plan with why each surface is in its set, set 1 logged in a few taps with the bags mixed;
 // then the owner sees the materials used against the estimate.
 import { describe, expect, it } from 'vitest'
-import { Client, uniqueEmail } from '../support/client'
+import { Client } from '../support/client'
 import { expectAbsent, expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
 import { CREW, OWNER } from './demo'
+import { jobBookedToday } from './work'
 
 const e2e = useE2E()
-
-/** The office's part, through the API: a measured room, a quote accepted by the customer, the job booked today for the crew. */
-async function jobBookedToday(api: Client) {
-  const email = uniqueEmail('ingrid')
-  const c = (await api.post('/api/customers', { customer: { kind: 'homeowner', name: 'Ingrid Tallow', email }, site: { line1: '9 Coopers Yard', town: 'Kettlebury', postcode: 'KB6 1JT' } })).body
-  const v = (await api.post('/api/visits', { customerId: c.id, siteId: c.sites[0].id, startsAt: new Date(Date.now() - 86_400_000).toISOString() })).body
-  const wallA = crypto.randomUUID()
-  const wallB = crypto.randomUUID()
-  const room = await api.put(`/api/visits/${v.id}/rooms/${crypto.randomUUID()}`, {
-    revision: 0,
-    name: 'Box room',
-    surfaces: [
-      { id: wallA, kind: 'wall', label: 'Outside wall', lengthMm: 2600, secondMm: 2400, conditions: [{ id: crypto.randomUUID(), kind: 'patch-masonry', areaCm2: 3000 }] },
-      { id: wallB, kind: 'wall', label: 'Landing wall', lengthMm: 2200, secondMm: 2400 },
-      { id: crypto.randomUUID(), kind: 'ceiling', lengthMm: 2600, secondMm: 2200 },
-    ],
-    corners: [{ id: crypto.randomUUID(), surfaceAId: wallA, surfaceBId: wallB, kind: 'internal', lengthMm: 2400, returnWidthMm: 70 }],
-  })
-  expect(room.status, JSON.stringify(room.body)).toBe(200)
-  const q = (await api.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
-  expect((await api.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await e2e.app.waitForMail(email, /Your quote Q-/)
-  const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
-  expect((await new Client(e2e.url).post(`/api/public/quotes/${token}/accept`, { name: 'Ingrid Tallow' })).status).toBe(200)
-  const job = (await api.post(`/api/quotes/${q.id}/job`)).body
-  const members = (await api.get('/api/members')).body
-  const kieran = members.find((m: any) => m.name === CREW.name)
-  const d = new Date()
-  const today = `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`
-  expect((await api.put(`/api/jobs/${job.id}/days`, { days: [{ day: today, userId: kieran.userId }] })).status).toBe(200)
-  return { jobId: job.id as string, reference: job.reference as string, today }
-}
 
 describe('the set log', () => {
   it('crew open today\'s job, see the plan and why, log set 1; the owner sees materials used against the estimate', async () => {
     const api = new Client(e2e.url)
     await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
-    const { jobId, reference, today: bookedDay } = await jobBookedToday(api)
+    const { jobId, reference, today: bookedDay } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name)
 
     const kieran = await e2e.open()
     const page = kieran.page
@@ -173,7 +142,7 @@ describe('the set log', () => {
   it('crew tick set 1\'s tasks from the plan, log it in two parts, correct an entry and remove one', async () => {
     const api = new Client(e2e.url)
     await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
-    const { jobId } = await jobBookedToday(api)
+    const { jobId } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name)
     const set1 = (await api.get(`/api/jobs/${jobId}`)).body.plan.plan.sets[0]
     expect(set1.tasks.length).toBeGreaterThan(1)
 
