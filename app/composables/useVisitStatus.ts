@@ -30,7 +30,7 @@ export function sendVisitMove(visitId: string, startsAt: Date) {
 }
 
 /** The three as forms for the visit page, each with its busy flag and errors (useSubmit); `changed` runs after each worked. */
-export function useVisitStatus(visitId: MaybeRefOrGetter<string>, changed: () => Promise<unknown> | void) {
+export function useVisitStatus(visitId: MaybeRefOrGetter<string>, changed: () => unknown) {
   // done: the day and time in Britain, now unless changed
   const doneDay = ref('')
   const doneTime = ref('')

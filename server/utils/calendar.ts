@@ -91,8 +91,8 @@ async function visitEvents(f: FirmScope, userId: string): Promise<EventAttribute
   // how many times each was moved: the audit log keeps every move (PATCH /api/visits/:id)
   const moves = rows.length
     ? await f.tx.select({ id: auditLog.entityId, n: count() }).from(auditLog)
-      .where(f.where(auditLog, eq(auditLog.entity, 'visit'), eq(auditLog.action, 'visit.moved'), inArray(auditLog.entityId, rows.map(r => r.id))))
-      .groupBy(auditLog.entityId)
+        .where(f.where(auditLog, eq(auditLog.entity, 'visit'), eq(auditLog.action, 'visit.moved'), inArray(auditLog.entityId, rows.map(r => r.id))))
+        .groupBy(auditLog.entityId)
     : []
   const movesOf = new Map(moves.map(m => [m.id, m.n]))
   return rows.flatMap((r) => {
