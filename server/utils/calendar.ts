@@ -1,10 +1,11 @@
-// A person's iCalendar feed: their booked days on the firm's jobs (no prices), at a secret URL a
+// A person's iCalendar feed: their booked days on the firm's jobs and the site visits they are
+// down to make (no prices), at a secret URL a
 // calendar app polls. Only the token's hash is kept; resetting makes a new URL and the old one
 // stops at once. Built with the `ics` package.
 import { createEvents, type EventAttributes } from 'ics'
-import { and, asc, eq, gte, sql } from 'drizzle-orm'
-import { calendarFeeds, customers, firms, jobDays, jobs, memberships, sites } from '../db/schema'
-import { refoldIcs } from '#shared/utils/ics'
+import { and, asc, count, eq, gte, inArray, ne, sql } from 'drizzle-orm'
+import { auditLog, calendarFeeds, customers, firms, jobDays, jobs, memberships, sites, visits } from '../db/schema'
+import { refoldIcs, visitFeedEntry } from '#shared/utils/ics'
 
 export function calendarUrl(token: string) {
   return `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/calendar/${token}.ics`
@@ -67,9 +68,51 @@ export async function calendarFor(token: string): Promise<string> {
         lastModified: [r.updatedAt.getUTCFullYear(), r.updatedAt.getUTCMonth() + 1, r.updatedAt.getUTCDate(), r.updatedAt.getUTCHours(), r.updatedAt.getUTCMinutes()],
       } satisfies EventAttributes
     })
+    events.push(...await visitEvents(f, feed.userId))
     const { error, value } = createEvents(events, { productId: 'setwell/diary', calName: `${firm?.tradingName ?? 'Setwell'} jobs` })
     if (error || value === undefined || value === null) throw error ?? new Error('calendar not made')
     // folded by octets, not characters (RFC 5545, 3.1): see shared/utils/ics.ts
     return refoldIcs(value)
+  })
+}
+
+const stampOf = (d: Date): [number, number, number, number, number] => [d.getUTCFullYear(), d.getUTCMonth() + 1, d.getUTCDate(), d.getUTCHours(), d.getUTCMinutes()]
+
+/** The site visits a person is down to make, as events (shared/utils/ics.ts visitFeedEntry: moved, cancelled, done). */
+async function visitEvents(f: FirmScope, userId: string): Promise<EventAttributes[]> {
+  const rows = await f.tx.select({
+    id: visits.id, status: visits.status, startsAt: visits.startsAt, durationMinutes: visits.durationMinutes, notes: visits.notes, updatedAt: visits.updatedAt,
+    customer: customers.name, line1: sites.line1, town: sites.town, postcode: sites.postcode, access: sites.accessNotes,
+  }).from(visits)
+    .innerJoin(customers, and(eq(customers.firmId, visits.firmId), eq(customers.id, visits.customerId)))
+    .innerJoin(sites, and(eq(sites.firmId, visits.firmId), eq(sites.id, visits.siteId)))
+    .where(f.where(visits, eq(visits.visitorUserId, userId), ne(visits.status, 'cancelled')))
+    .orderBy(asc(visits.startsAt))
+  // how many times each was moved: the audit log keeps every move (PATCH /api/visits/:id)
+  const moves = rows.length
+    ? await f.tx.select({ id: auditLog.entityId, n: count() }).from(auditLog)
+        .where(f.where(auditLog, eq(auditLog.entity, 'visit'), eq(auditLog.action, 'visit.moved'), inArray(auditLog.entityId, rows.map(r => r.id))))
+        .groupBy(auditLog.entityId)
+    : []
+  const movesOf = new Map(moves.map(m => [m.id, m.n]))
+  return rows.flatMap((r) => {
+    const entry = visitFeedEntry(r, movesOf.get(r.id) ?? 0)
+    if (!entry) return []
+    return [{
+      uid: entry.uid,
+      sequence: entry.sequence,
+      start: entry.startMs,
+      startInputType: 'utc',
+      startOutputType: 'utc',
+      end: entry.endMs,
+      endInputType: 'utc',
+      endOutputType: 'utc',
+      title: `Site visit: ${r.customer}`,
+      description: [r.notes, r.access ? `Access: ${r.access}` : ''].filter(Boolean).join('\n'),
+      location: [r.line1, r.town, r.postcode].filter(Boolean).join(', '),
+      status: 'CONFIRMED',
+      busyStatus: 'BUSY',
+      lastModified: stampOf(r.updatedAt),
+    } satisfies EventAttributes]
   })
 }

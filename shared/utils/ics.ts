@@ -35,3 +35,24 @@ export function refoldIcs(text: string): string {
   while (lines.length && lines[lines.length - 1] === '') lines.pop()
   return lines.map(foldIcsLine).join('\r\n') + '\r\n'
 }
+
+/**
+ * A visit in a person's calendar feed. The feed is a calendar an app subscribes to and reads
+ * again whole (not an invitation sent by e-mail), so:
+ * - a moved visit keeps its UID and its SEQUENCE goes up by one for each move (RFC 5545, 3.8.7.4),
+ *   so an app that kept the old copy knows this one replaces it;
+ * - a cancelled visit is left out. A published feed that drops an event is read the same way by
+ *   every app that subscribes (the event goes); STATUS:CANCELLED is the way to cancel in an
+ *   invitation (iTIP, RFC 5546), and apps that subscribe handle it unevenly, some still showing the
+ *   visit. The feed already leaves out cancelled jobs the same way;
+ * - a done visit stays as it was (it happened at that time).
+ */
+export function visitFeedEntry(v: { id: string, status: 'booked' | 'done' | 'cancelled', startsAt: Date, durationMinutes: number }, moves: number) {
+  if (v.status === 'cancelled') return null
+  return {
+    uid: `visit-${v.id}@setwell`,
+    sequence: moves,
+    startMs: v.startsAt.getTime(),
+    endMs: v.startsAt.getTime() + v.durationMinutes * 60_000,
+  }
+}

@@ -1,4 +1,6 @@
 // What the Today screen shows, worked out from the lists the API sends. Pure.
+import type { VisitStatus } from './ledger'
+import { isStillToDo } from './visit-status'
 
 /** A booked day as the diary sends it (the parts Today reads). */
 export interface WeekEntry { jobId: string, number: number, customer: string, day: string, person: string }
@@ -24,4 +26,12 @@ export function jobsOfTheWeek(entries: readonly WeekEntry[]): WeekJob[] {
 /** The `n` jobs whose last day worked is latest, latest first (the sort is stable: a tie keeps the list's order). */
 export function latestJobsWorked<T extends { lastDay: string }>(rows: readonly T[], n: number): T[] {
   return [...rows].sort((a, b) => b.lastDay.localeCompare(a.lastDay)).slice(0, n)
+}
+
+/**
+ * The visits Today lists: still to do (booked; not done, not cancelled), soonest first, at most
+ * `n`. The API already sends only these; a visit changed on this screen since is dropped too.
+ */
+export function visitsStillToDo<T extends { status: VisitStatus, startsAt: string | Date }>(rows: readonly T[], n: number): T[] {
+  return rows.filter(isStillToDo).sort((a, b) => new Date(a.startsAt).getTime() - new Date(b.startsAt).getTime()).slice(0, n)
 }

@@ -139,6 +139,8 @@ const TABLE: Record<string, [Need, string]> = {
   'GET /api/vat-return': ['money:read', '401 ok ok 403 ok ok'],
   'GET /api/visits/:id': ['member', '401 ok ok ok 404 404'],
   'PATCH /api/visits/:id': ['ledger:write', '401 ok ok 403 403 404'],
+  'POST /api/visits/:id/cancel': ['ledger:write', '401 ok ok 403 403 404'],
+  'POST /api/visits/:id/done': ['ledger:write|work:log', '401 ok ok ok 403 404'],
   'DELETE /api/visits/:id/rooms/:roomId': ['ledger:write|work:log', '401 ok ok ok 403 404'],
   'PUT /api/visits/:id/rooms/:roomId': ['ledger:write|work:log', '401 ok ok ok 403 404'],
   'GET /api/visits/:id/rooms': ['member', '401 ok ok ok 404 404'],

@@ -24,8 +24,8 @@ const SPECIAL: Record<string, string> = {
 }
 /** Whose body is opaque to its schema (each row is checked on its own and rejected in a 200): not walked into. */
 const OPAQUE: Record<string, string[]> = { 'POST /api/customers/import': ['rows'] }
-/** Schemas whose every field is optional: an empty object is a valid (empty) change. */
-const EMPTY_ACCEPTED = new Set(['PATCH /api/visits/:id'])
+/** Schemas whose every field is optional: an empty object is a valid (empty) change, or "done, now". */
+const EMPTY_ACCEPTED = new Set(['PATCH /api/visits/:id', 'POST /api/visits/:id/done'])
 /** Routes of people who are not signed in (sign-up, links): sent without the owner's cookie. */
 const isPublic = (key: string) => /^POST \/api\/(auth|public|invitations)\//.test(key)
 

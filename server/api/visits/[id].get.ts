@@ -17,6 +17,8 @@ export default defineEventHandler(async (event) => {
       startsAt: v.startsAt,
       durationMinutes: v.durationMinutes,
       status: v.status,
+      doneAt: v.doneAt,
+      cancelReason: v.cancelReason,
       notes: v.notes,
       enquiryId: v.enquiryId,
       customer: seesBilling
