@@ -1,21 +1,22 @@
 // What can happen to a visit after it is booked: marked done, moved, cancelled. Each send is one
-// function here (the page uses them through useVisitStatus; the phone's queue will send the same).
+// function here (the page uses them through useVisitStatus). Marking done goes through the outbox:
+// at once with a signal, kept on the phone with none (moving and cancelling are the office's, at a desk).
 import { visitCancelSchema, type VisitCancelInput, type VisitDoneInput } from '#shared/schemas/visit'
-import { londonDay, londonInstant, londonTime } from '#shared/utils/dates'
+import { londonDay, londonInstant, londonTime, shortDayTime } from '#shared/utils/dates'
 import { doneAtProblem, visitStartProblem } from '#shared/utils/visit-status'
-import { newId } from '~/stores/visitDraft'
 
 /** What the done, cancel and move routes answer: the visit row as it now is. */
 export interface VisitRow { id: string, status: 'booked' | 'done' | 'cancelled', startsAt: string, doneAt: string | null, cancelReason: string }
 
 /**
- * Mark a visit done at `at` (default: now, on the server). The body carries an id made here
- * (clientId): a queue that sends it when the signal comes back keeps that id, and a resend is a
- * 200 that changes nothing.
+ * Mark a visit done at `at`, through the outbox: the body carries an id made here (clientId), so a
+ * resend from the queue is a 200 that changes nothing. Resolves { queued } (true: kept on the phone);
+ * throws the server's refusal, for the form to show.
  */
-export function sendVisitDone(visitId: string, at?: Date, clientId: string = newId()) {
-  const body: VisitDoneInput = { clientId, ...(at ? { at: at.toISOString() } : {}) }
-  return $fetch<VisitRow>(`/api/visits/${visitId}/done`, { method: 'POST', body })
+export async function sendVisitDone(visitId: string, at: Date, label = 'A visit') {
+  const body: Omit<VisitDoneInput, 'clientId'> = { at: at.toISOString() }
+  const outbox = useOutboxStore()
+  return outbox.send<VisitRow>({ kind: 'visit-done', label: `${label} marked done (${shortDayTime(at)})`, link: `/visits/${visitId}`, method: 'POST', url: `/api/visits/${visitId}/done`, body })
 }
 
 /** Cancel a visit with a reason (owner and office). */
@@ -30,7 +31,7 @@ export function sendVisitMove(visitId: string, startsAt: Date) {
 }
 
 /** The three as forms for the visit page, each with its busy flag and errors (useSubmit); `changed` runs after each worked. */
-export function useVisitStatus(visitId: MaybeRefOrGetter<string>, changed: () => unknown) {
+export function useVisitStatus(visitId: MaybeRefOrGetter<string>, changed: () => unknown, label: MaybeRefOrGetter<string> = 'A visit') {
   // done: the day and time in Britain, now unless changed
   const doneDay = ref('')
   const doneTime = ref('')
@@ -39,9 +40,12 @@ export function useVisitStatus(visitId: MaybeRefOrGetter<string>, changed: () =>
     doneDay.value = londonDay(now)
     doneTime.value = londonTime(now)
   }
+  /** Marked done with no signal: kept on the phone, sent when the signal is back. */
+  const doneQueued = ref(false)
   const done = useSubmit(async () => {
-    await sendVisitDone(toValue(visitId), londonInstant(doneDay.value, doneTime.value)!)
-    await changed()
+    const { queued } = await sendVisitDone(toValue(visitId), londonInstant(doneDay.value, doneTime.value)!, toValue(label))
+    doneQueued.value = queued
+    if (!queued) await changed()
   })
   async function markDone() {
     const at = /^\d{4}-\d{2}-\d{2}$/.test(doneDay.value) ? londonInstant(doneDay.value, doneTime.value) : null
@@ -82,5 +86,5 @@ export function useVisitStatus(visitId: MaybeRefOrGetter<string>, changed: () =>
     await move.submit()
   }
 
-  return { doneDay, doneTime, startDone, done, markDone, reason, cancelling, cancel, sendCancel, moveTo, moving, move, sendMove }
+  return { doneDay, doneTime, startDone, done, doneQueued, markDone, reason, cancelling, cancel, sendCancel, moveTo, moving, move, sendMove }
 }

@@ -3,7 +3,8 @@
 // is saved meanwhile waits on the phone (through a reload), goes once the signal is back, and
 // arrives once. A room the office changed meanwhile shows both versions. Signing out leaves
 // nothing of the firm's on the phone.
-import { describe, expect, it } from 'vitest'
+import { describe, expect, it, onTestFinished } from 'vitest'
+import sharp from 'sharp'
 import type { Page } from 'playwright-core'
 import { Client } from '../support/client'
 import { expectCleanRun, expectText, expectVisible, phoneKeys, screenshot, signInToDashboard, useE2E, type Person } from './browser'
@@ -26,6 +27,28 @@ async function signedInAndKept(person: Person, who: { email: string, password: s
   await page.waitForFunction(() => Object.keys(localStorage).some(k => k.startsWith('setwell:kept:')), undefined, { timeout: 30_000 })
 }
 
+/** The set logs waiting in the phone's outbox (app/stores/outbox.ts): their phone-made id and body. */
+async function waitingLogs(page: Page): Promise<{ id: string, url: string, body: Record<string, unknown> }[]> {
+  return page.evaluate(() => new Promise((resolve, reject) => {
+    const req = indexedDB.open('setwell-outbox')
+    req.onupgradeneeded = () => req.result.createObjectStore('items')
+    req.onerror = () => reject(req.error)
+    req.onsuccess = () => {
+      const d = req.result
+      const all = d.transaction('items', 'readonly').objectStore('items').getAll()
+      all.onsuccess = () => {
+        d.close()
+        resolve(all.result.filter((i: any) => i?.kind === 'set-log').map((i: any) => ({ id: i.id, url: i.url, body: i.body })))
+      }
+    }
+  }))
+}
+
+/** Visits left booked would crowd the next journeys' Today: cancelled once a test is done with them. */
+async function tidy(api: Client, visitIds: string[]) {
+  for (const id of visitIds) await api.post(`/api/visits/${id}/cancel`, { reason: 'Test journey over' })
+}
+
 /** A full reload with no signal: the page comes from the phone. */
 async function reloadOffline(page: Page) {
   await page.reload()
@@ -33,78 +56,135 @@ async function reloadOffline(page: Page) {
 }
 
 describe('working with no signal', () => {
-  it('the crew open Today, their job, its plan and day sheet with no signal; the plasterer measures a room with none, and it arrives once', async () => {
+  it('the crew open Today and their job with no signal and log set 1 with a photo; the plasterer measures a room and marks the visit done; all of it arrives once', async () => {
     const api = await ownerApi()
-    const { jobId, reference } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name, 'Ingrid Tallow')
+    const { jobId, reference } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name, 'Oona Farrant')
     const { visitId } = await visitBookedFor(api, OWNER.name, 'Tegan Ashdown')
+    try {
+      // the crew member: one visit with a signal, then none
+      const kieran = await e2e.open()
+      const page = kieran.page
+      await signedInAndKept(kieran, CREW)
+      await kieran.context.setOffline(true)
+      await reloadOffline(page)
+      const today = page.getByTestId('dashboard-jobs')
+      await expectVisible(today.getByText('Oona Farrant'))
+      await expectText(page.getByTestId('signal'), /No signal\..*Showing this page as it was at \d\d:\d\d today\./s)
+      await screenshot(page, 'offline-today-crew')
 
-    // the crew member: one visit with a signal, then none
-    const kieran = await e2e.open()
-    const page = kieran.page
-    await signedInAndKept(kieran, CREW)
-    await kieran.context.setOffline(true)
-    await reloadOffline(page)
-    const today = page.getByTestId('dashboard-jobs')
-    await expectVisible(today.getByText('Ingrid Tallow'))
-    await expectText(page.getByTestId('signal'), /No signal\..*Showing this page as it was at \d\d:\d\d today\./s)
-    await screenshot(page, 'offline-today-crew')
+      // the job (never opened with a signal: kept for them), its plan, its day sheet
+      await today.getByRole('link', { name: /Oona Farrant/ }).click()
+      await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+      await expectText(page.getByText(`Job ${reference}`), new RegExp(`job ${reference}`, 'i'))
+      await expectVisible(page.getByTestId('set-plan').getByTestId('set-1'))
+      await expectText(page.getByTestId('kept-at'), /Showing this page as it was at \d\d:\d\d today\./)
+      await reloadOffline(page)
+      await expectVisible(page.getByTestId('set-plan').getByTestId('set-1'))
+      await screenshot(page, 'offline-job-plan-crew')
 
-    // the job (never opened with a signal: kept for them), its plan, its day sheet
-    await today.getByRole('link', { name: /Ingrid Tallow/ }).click()
-    await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
-    await expectText(page.getByText(`Job ${reference}`), new RegExp(`job ${reference}`, 'i'))
-    await expectVisible(page.getByTestId('set-plan').getByTestId('set-1'))
-    await expectText(page.getByTestId('kept-at'), /Showing this page as it was at \d\d:\d\d today\./)
-    await reloadOffline(page)
-    await expectVisible(page.getByTestId('set-plan').getByTestId('set-1'))
-    await screenshot(page, 'offline-job-plan-crew')
-    await page.goto(`${e2e.url}/jobs/${jobId}/sheet`)
-    await expectVisible(page.getByTestId('sheet-cautions'))
-    await screenshot(page, 'offline-day-sheet-crew')
-    expectCleanRunOffline(kieran)
+      // set 1 logged from the plan, with a photo, with no signal
+      await page.getByTestId('set-1').getByRole('link', { name: 'Log set 1' }).click()
+      await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
+      expect(await page.locator('input[type=checkbox]:checked').count()).toBeGreaterThan(0)
+      const picture = await sharp({ create: { width: 4032, height: 3024, channels: 3, background: '#c9b8a4' } }).jpeg({ quality: 90 }).toBuffer()
+      await page.getByTestId('log-photo-input').setInputFiles({ name: 'IMG_2231.jpg', mimeType: 'image/jpeg', buffer: picture })
+      await expectVisible(page.getByTestId('log-photo'))
+      await screenshot(page, 'offline-set-log-photo-crew')
+      await page.getByRole('button', { name: 'Save the set' }).click()
+      await page.waitForURL(u => u.pathname === `/jobs/${jobId}`)
+      await expectText(page.getByTestId('job-waiting'), /Set 1 on .*1 photo/s)
+      await expectText(page.getByTestId('waiting-count'), '2 waiting to send')
+      await screenshot(page, 'offline-set-log-waiting-crew')
 
-    // the plasterer, at the visit booked for them: a room measured and saved with no signal
-    const jess = await e2e.open()
-    const owner = jess.page
-    await signedInAndKept(jess, OWNER)
-    await jess.context.setOffline(true)
-    await owner.goto(`${e2e.url}/visits/${visitId}`)
-    await owner.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
-    await expectText(owner.getByTestId('visit-header'), 'Tegan Ashdown')
-    await owner.getByRole('button', { name: 'Add a room' }).click()
-    const editor = owner.getByTestId('room-editor')
-    await editor.getByLabel('Room name').fill('Front room')
-    await editor.getByRole('button', { name: 'Add wall' }).click()
-    const wall = editor.getByTestId('surface-card').nth(0)
-    // 4.00 x 2.40 = 9.60 m²
-    await wall.getByLabel('Length (m)').fill('4.00')
-    await wall.getByLabel('Height (m)').fill('2.40')
-    await expectText(owner.getByTestId('room-total'), 'Room 9.60 m²')
-    await owner.getByRole('button', { name: 'Save room' }).click()
-    await expectText(editor.getByTestId('draft-status'), 'Waiting to send')
-    await expectText(owner.getByTestId('waiting-count'), '1 waiting to send')
-    await screenshot(owner, 'offline-room-waiting-owner')
+      // the phone is switched off and on: still there
+      await reloadOffline(page)
+      await expectText(page.getByTestId('waiting-count'), '2 waiting to send')
+      const [queued] = await waitingLogs(page)
+      expect(queued).toBeTruthy()
+      expect((await api.get(`/api/jobs/${jobId}`)).body.logs).toEqual([])
 
-    // the phone is switched off and on: still waiting, still counted
-    await reloadOffline(owner)
-    await expectText(owner.getByTestId('waiting-count'), '1 waiting to send')
-    expect(await phoneKeys(owner, 'setwell-rooms', 'drafts')).toHaveLength(1)
-    expect((await api.get(`/api/visits/${visitId}/rooms`)).body.rooms).toEqual([])
+      // the day sheet opens too
+      await page.goto(`${e2e.url}/jobs/${jobId}/sheet`)
+      await expectVisible(page.getByTestId('sheet-cautions'))
+      await expectText(page.getByTestId('kept-at'), /Showing this page as it was/)
+      await screenshot(page, 'offline-day-sheet-crew')
 
-    // the signal is back: it goes by itself, once
-    await jess.context.setOffline(false)
-    await owner.evaluate(() => window.dispatchEvent(new Event('online')))
-    await expect.poll(async () => (await api.get(`/api/visits/${visitId}/rooms`)).body.rooms.length, { timeout: 30_000 }).toBe(1)
-    const [room] = (await api.get(`/api/visits/${visitId}/rooms`)).body.rooms
-    expect(room).toMatchObject({ name: 'Front room', revision: 1, totals: { totalCm2: 96_000 } })
-    await expect.poll(() => phoneKeys(owner, 'setwell-rooms', 'drafts')).toEqual([])
-    await expectVisible(owner.getByTestId('room-card').filter({ hasText: 'Front room' }))
-    expectCleanRunOffline(jess)
+      // the signal is back: the entry, then its photo, once
+      await kieran.context.setOffline(false)
+      await page.evaluate(() => window.dispatchEvent(new Event('online')))
+      await expect.poll(async () => (await api.get(`/api/jobs/${jobId}`)).body.logs.length, { timeout: 30_000 }).toBe(1)
+      const [log] = (await api.get(`/api/jobs/${jobId}`)).body.logs
+      expect(log).toMatchObject({ setNumber: 1, kind: 'set' })
+      await expect.poll(async () => (await api.get(`/api/photos?setLogId=${log.id}`)).body.photos?.length ?? 0, { timeout: 30_000 }).toBe(1)
+      const [photo] = (await api.get(`/api/photos?setLogId=${log.id}`)).body.photos
+      // shrunk on the phone to what Setwell keeps: 2560 px on the long edge
+      expect([photo.width, photo.height]).toEqual([2560, 1920])
+      await expect.poll(() => phoneKeys(page, 'setwell-outbox', 'items').then(k => k.filter(x => x.startsWith('item:')))).toEqual([])
+
+      // the same write sent twice more (a lost answer, a second phone's copy) is stored once
+      const crew = new Client(e2e.url)
+      expect((await crew.post('/api/auth/sign-in', { email: CREW.email, password: CREW.password })).status).toBe(200)
+      for (let i = 0; i < 2; i++) {
+        const again = await crew.post(queued!.url, { ...queued!.body, clientId: queued!.id })
+        expect(again.status).toBe(200)
+        expect(again.body.logId).toBe(log.id)
+      }
+      expect((await api.get(`/api/jobs/${jobId}`)).body.logs).toHaveLength(1)
+      expectCleanRunOffline(kieran)
+
+      // the plasterer, at the visit booked for them: a room measured and the visit marked done, with no signal
+      const jess = await e2e.open()
+      const owner = jess.page
+      await signedInAndKept(jess, OWNER)
+      await jess.context.setOffline(true)
+      await owner.goto(`${e2e.url}/visits/${visitId}`)
+      await owner.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+      await expectText(owner.getByTestId('visit-header'), 'Tegan Ashdown')
+      await owner.getByRole('button', { name: 'Add a room' }).click()
+      const editor = owner.getByTestId('room-editor')
+      await editor.getByLabel('Room name').fill('Front room')
+      await editor.getByRole('button', { name: 'Add wall' }).click()
+      const wall = editor.getByTestId('surface-card').nth(0)
+      // 4.00 x 2.40 = 9.60 m²
+      await wall.getByLabel('Length (m)').fill('4.00')
+      await wall.getByLabel('Height (m)').fill('2.40')
+      await expectText(owner.getByTestId('room-total'), 'Room 9.60 m²')
+      await owner.getByRole('button', { name: 'Save room' }).click()
+      await expectText(editor.getByTestId('draft-status'), 'Waiting to send')
+      await expectText(owner.getByTestId('waiting-count'), '1 waiting to send')
+      await screenshot(owner, 'offline-room-waiting-owner')
+      await owner.getByTestId('visit-status').getByRole('button', { name: 'Mark done' }).click()
+      await owner.getByTestId('visit-done-form').getByRole('button', { name: 'Save: visit done' }).click()
+      await expectText(owner.getByTestId('visit-done-waiting'), 'Marked done on this phone')
+      await expectText(owner.getByTestId('waiting-count'), '2 waiting to send')
+
+      // the phone is switched off and on: still waiting, still counted
+      await reloadOffline(owner)
+      await expectText(owner.getByTestId('waiting-count'), '2 waiting to send')
+      expect(await phoneKeys(owner, 'setwell-rooms', 'drafts')).toHaveLength(1)
+      expect((await api.get(`/api/visits/${visitId}/rooms`)).body.rooms).toEqual([])
+      expect((await api.get(`/api/visits/${visitId}`)).body.status).toBe('booked')
+
+      // the signal is back: both go by themselves, once
+      await jess.context.setOffline(false)
+      await owner.evaluate(() => window.dispatchEvent(new Event('online')))
+      await expect.poll(async () => (await api.get(`/api/visits/${visitId}/rooms`)).body.rooms.length, { timeout: 30_000 }).toBe(1)
+      await expect.poll(async () => (await api.get(`/api/visits/${visitId}`)).body.status, { timeout: 30_000 }).toBe('done')
+      const [room] = (await api.get(`/api/visits/${visitId}/rooms`)).body.rooms
+      expect(room).toMatchObject({ name: 'Front room', revision: 1, totals: { totalCm2: 96_000 } })
+      await expect.poll(() => phoneKeys(owner, 'setwell-rooms', 'drafts')).toEqual([])
+      await expectVisible(owner.getByTestId('room-card').filter({ hasText: 'Front room' }))
+      expectCleanRunOffline(jess)
+    }
+    finally {
+      await tidy(api, [visitId])
+    }
   })
 
   it('a room the office changed while the phone had no signal shows both versions; keep mine saves mine over theirs', async () => {
     const api = await ownerApi()
     const { visitId } = await visitBookedFor(api, OWNER.name, 'Morwenna Quill')
+    onTestFinished(() => tidy(api, [visitId]))
     const roomId = crypto.randomUUID()
     const wallId = crypto.randomUUID()
     // 3.00 x 2.40 = 7.20 m²
@@ -147,6 +227,7 @@ describe('working with no signal', () => {
   it('signing out warns about what is not sent, then leaves nothing of the firm\'s on the phone', async () => {
     const api = await ownerApi()
     const { visitId } = await visitBookedFor(api, OWNER.name, 'Perpetua Lamb')
+    onTestFinished(() => tidy(api, [visitId]))
     const jess = await e2e.open()
     const page = jess.page
     await signedInAndKept(jess, OWNER)
