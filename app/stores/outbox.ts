@@ -104,8 +104,10 @@ export const useOutboxStore = defineStore('outbox', () => {
     counter = Math.max(0, ...items.value.map(i => i.seq))
   }
 
+  /** IndexedDB keeps plain data only (a Vue proxy in a body would make the write fail): the body as JSON, the photo's Blob as it is. */
   function save(item: OutboxItem) {
-    return keep(outboxStore(), itemKey(item.id), toRaw(item))
+    const plain: OutboxItem = { ...toRaw(item), body: item.body ? JSON.parse(JSON.stringify(item.body)) : undefined, photo: item.photo ? { ...toRaw(item.photo), target: { ...item.photo.target } } : undefined }
+    return keep(outboxStore(), itemKey(item.id), plain)
   }
 
   async function remove(id: string) {
@@ -114,7 +116,9 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   function make(input: Omit<OutboxItem, 'owner' | 'state' | 'createdAt' | 'seq' | 'id'> & { id?: string }): OutboxItem {
-    return { ...input, id: input.id ?? newId(), owner: owner.value, state: 'waiting', createdAt: Date.now(), seq: Date.now() * 1000 + (++counter % 1000) }
+    // a copy of the body as sent: the form it came from may change after
+    const body = input.body ? JSON.parse(JSON.stringify(input.body)) as Record<string, unknown> : undefined
+    return { ...input, body, id: input.id ?? newId(), owner: owner.value, state: 'waiting', createdAt: Date.now(), seq: Date.now() * 1000 + (++counter % 1000) }
   }
 
   /** One request for an item: the server's answer, or the error as thrown. */
@@ -157,14 +161,19 @@ export const useOutboxStore = defineStore('outbox', () => {
    */
   async function send<T>(input: Parameters<typeof make>[0]): Promise<OutboxResult<T>> {
     await load()
-    const item = make(input)
-    items.value.push(item)
-    await save(item)
-    if (!navigator.onLine || waiting.value.some(i => i.seq < item.seq)) {
+    const made = make(input)
+    const earlier = waiting.value.some(i => i.seq < made.seq)
+    // marked as on its way before anything else can run, so a flush already going leaves it alone
+    made.state = 'sending'
+    items.value.push(made)
+    const item = items.value[items.value.length - 1]!
+    if (!navigator.onLine || earlier) {
+      item.state = 'waiting'
+      await save(item)
       void flush()
       return { queued: true }
     }
-    item.state = 'sending'
+    await save(item)
     try {
       const data = await request<T>(item)
       await settle(item, data)
@@ -185,8 +194,8 @@ export const useOutboxStore = defineStore('outbox', () => {
   /** Keep a write to go in its turn (a photo after its set log); never throws: a refusal is kept, to show on /waiting. */
   async function enqueue(input: Parameters<typeof make>[0]): Promise<OutboxItem> {
     await load()
-    const item = make(input)
-    items.value.push(item)
+    items.value.push(make(input))
+    const item = items.value[items.value.length - 1]!
     await save(item)
     void flush()
     return item

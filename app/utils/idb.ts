@@ -21,7 +21,10 @@ export async function keep(store: UseStore, key: string, value: unknown) {
   try {
     await set(key, value, store)
   }
-  catch { /* storage full or blocked: the item still lives in memory */ }
+  catch (err) {
+    // storage full or blocked: the item still lives in memory
+    console.warn('Setwell could not keep this on the phone:', err)
+  }
 }
 export async function drop(store: UseStore, key: string) {
   try {

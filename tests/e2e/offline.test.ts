@@ -85,7 +85,7 @@ describe('working with no signal', () => {
       // set 1 logged from the plan, with a photo, with no signal
       await page.getByTestId('set-1').getByRole('link', { name: 'Log set 1' }).click()
       await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
-      expect(await page.locator('input[type=checkbox]:checked').count()).toBeGreaterThan(0)
+      await expect.poll(() => page.locator('input[type=checkbox]:checked').count()).toBeGreaterThan(1)
       const picture = await sharp({ create: { width: 4032, height: 3024, channels: 3, background: '#c9b8a4' } }).jpeg({ quality: 90 }).toBuffer()
       await page.getByTestId('log-photo-input').setInputFiles({ name: 'IMG_2231.jpg', mimeType: 'image/jpeg', buffer: picture })
       await expectVisible(page.getByTestId('log-photo'))
