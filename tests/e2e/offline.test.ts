@@ -224,6 +224,46 @@ describe('working with no signal', () => {
     expectCleanRunOffline(jess)
   })
 
+  it('a visit marked done with no signal after the office cancelled it is kept, with the office\'s words, until the plasterer chooses', async () => {
+    const api = await ownerApi()
+    const { visitId } = await visitBookedFor(api, OWNER.name, 'Lorcan Pheby')
+    onTestFinished(() => tidy(api, [visitId]))
+    const jess = await e2e.open()
+    const page = jess.page
+    await signedInAndKept(jess, OWNER)
+    await jess.context.setOffline(true)
+    await page.goto(`${e2e.url}/visits/${visitId}`)
+    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await page.getByTestId('visit-status').getByRole('button', { name: 'Mark done' }).click()
+    await page.getByTestId('visit-done-form').getByRole('button', { name: 'Save: visit done' }).click()
+    await expectText(page.getByTestId('visit-done-waiting'), 'Marked done on this phone')
+
+    // meanwhile the office cancels it
+    const office = new Client(e2e.url)
+    expect((await office.post('/api/auth/sign-in', { email: OFFICE.email, password: OFFICE.password })).status).toBe(200)
+    expect((await office.post(`/api/visits/${visitId}/cancel`, { reason: 'Customer rang: the house is sold' })).status).toBe(200)
+
+    // back online: refused, and kept with the server's words, not dropped
+    await jess.context.setOffline(false)
+    await page.evaluate(() => window.dispatchEvent(new Event('online')))
+    await expectText(page.getByTestId('waiting-count'), '1 needs you')
+    await page.getByTestId('waiting-count').click()
+    await page.waitForURL(u => u.pathname === '/waiting')
+    const item = page.getByTestId('outbox-item')
+    await expectText(item, /Lorcan Pheby marked done/)
+    await expectText(item, /cancelled/i)
+    await screenshot(page, 'waiting-refused-owner')
+    expect((await api.get(`/api/visits/${visitId}`)).body.status).toBe('cancelled')
+
+    // take theirs: asked first, then gone from the phone
+    await item.getByRole('button', { name: 'Take theirs: delete mine' }).click()
+    await page.getByTestId('confirm-yes').click()
+    await expectVisible(page.getByTestId('nothing-waiting'))
+    await expect.poll(() => phoneKeys(page, 'setwell-outbox', 'items').then(k => k.filter(x => x.startsWith('item:')))).toEqual([])
+    expect((await api.get(`/api/visits/${visitId}`)).body.status).toBe('cancelled')
+    expectCleanRunOffline(jess)
+  })
+
   it('signing out warns about what is not sent, then leaves nothing of the firm\'s on the phone', async () => {
     const api = await ownerApi()
     const { visitId } = await visitBookedFor(api, OWNER.name, 'Perpetua Lamb')
