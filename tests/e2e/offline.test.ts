@@ -49,6 +49,31 @@ async function tidy(api: Client, visitIds: string[]) {
   for (const id of visitIds) await api.post(`/api/visits/${id}/cancel`, { reason: 'Test journey over' })
 }
 
+/** The plasterer's phone at a visit booked for them, opened once with a signal, now with none. */
+async function atVisitWithNoSignal(customer: string) {
+  const api = await ownerApi()
+  const { visitId } = await visitBookedFor(api, OWNER.name, customer)
+  onTestFinished(() => tidy(api, [visitId]))
+  const jess = await e2e.open()
+  await signedInAndKept(jess, OWNER)
+  await openWithNoSignal(jess, `/visits/${visitId}`)
+  return { api, visitId, jess, page: jess.page }
+}
+
+/** Switch the signal off and open a page (a full load: it comes from the phone). */
+async function openWithNoSignal(person: Person, path: string) {
+  await person.context.setOffline(true)
+  await person.page.goto(`${e2e.url}${path}`)
+  await person.page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+}
+
+/** The office, signed in through the API. */
+async function officeApi() {
+  const office = new Client(e2e.url)
+  expect((await office.post('/api/auth/sign-in', { email: OFFICE.email, password: OFFICE.password })).status).toBe(200)
+  return office
+}
+
 /** A full reload with no signal: the page comes from the phone. */
 async function reloadOffline(page: Page) {
   await page.reload()
@@ -87,7 +112,7 @@ describe('working with no signal', () => {
       await page.waitForURL(u => u.pathname === `/jobs/${jobId}/log`)
       await expect.poll(() => page.locator('input[type=checkbox]:checked').count()).toBeGreaterThan(1)
       const picture = await sharp({ create: { width: 4032, height: 3024, channels: 3, background: '#c9b8a4' } }).jpeg({ quality: 90 }).toBuffer()
-      await page.getByTestId('log-photo-input').setInputFiles({ name: 'IMG_2231.jpg', mimeType: 'image/jpeg', buffer: picture })
+      await page.getByTestId('log-photos').getByTestId('photo-file-input').setInputFiles({ name: 'IMG_2231.jpg', mimeType: 'image/jpeg', buffer: picture })
       await expectVisible(page.getByTestId('log-photo'))
       await screenshot(page, 'offline-set-log-photo-crew')
       await page.getByRole('button', { name: 'Save the set' }).click()
@@ -136,9 +161,7 @@ describe('working with no signal', () => {
       const jess = await e2e.open()
       const owner = jess.page
       await signedInAndKept(jess, OWNER)
-      await jess.context.setOffline(true)
-      await owner.goto(`${e2e.url}/visits/${visitId}`)
-      await owner.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+      await openWithNoSignal(jess, `/visits/${visitId}`)
       await expectText(owner.getByTestId('visit-header'), 'Tegan Ashdown')
       await owner.getByRole('button', { name: 'Add a room' }).click()
       const editor = owner.getByTestId('room-editor')
@@ -193,9 +216,7 @@ describe('working with no signal', () => {
     const jess = await e2e.open()
     const page = jess.page
     await signedInAndKept(jess, OWNER)
-    await jess.context.setOffline(true)
-    await page.goto(`${e2e.url}/visits/${visitId}`)
-    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await openWithNoSignal(jess, `/visits/${visitId}`)
     await page.getByTestId('room-card').filter({ hasText: 'Kitchen' }).getByRole('button', { name: /Open/ }).click()
     // the phone makes the wall 3.20 (7.68 m²) with no signal
     await page.getByTestId('surface-card').nth(0).getByLabel('Length (m)').fill('3.20')
@@ -203,8 +224,7 @@ describe('working with no signal', () => {
     await expectText(page.getByTestId('room-editor').getByTestId('draft-status'), 'Waiting to send')
 
     // meanwhile the office makes it 3.50 (8.40 m²) and renames it
-    const office = new Client(e2e.url)
-    expect((await office.post('/api/auth/sign-in', { email: OFFICE.email, password: OFFICE.password })).status).toBe(200)
+    const office = await officeApi()
     expect((await office.put(`/api/visits/${visitId}/rooms/${roomId}`, { revision: 1, name: 'Kitchen (office)', surfaces: [{ id: wallId, kind: 'wall', lengthMm: 3500, secondMm: 2400 }] })).status).toBe(200)
 
     // the signal is back: neither is lost; both are shown
@@ -225,22 +245,13 @@ describe('working with no signal', () => {
   })
 
   it('a visit marked done with no signal after the office cancelled it is kept, with the office\'s words, until the plasterer chooses', async () => {
-    const api = await ownerApi()
-    const { visitId } = await visitBookedFor(api, OWNER.name, 'Lorcan Pheby')
-    onTestFinished(() => tidy(api, [visitId]))
-    const jess = await e2e.open()
-    const page = jess.page
-    await signedInAndKept(jess, OWNER)
-    await jess.context.setOffline(true)
-    await page.goto(`${e2e.url}/visits/${visitId}`)
-    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    const { api, visitId, jess, page } = await atVisitWithNoSignal('Lorcan Pheby')
     await page.getByTestId('visit-status').getByRole('button', { name: 'Mark done' }).click()
     await page.getByTestId('visit-done-form').getByRole('button', { name: 'Save: visit done' }).click()
     await expectText(page.getByTestId('visit-done-waiting'), 'Marked done on this phone')
 
     // meanwhile the office cancels it
-    const office = new Client(e2e.url)
-    expect((await office.post('/api/auth/sign-in', { email: OFFICE.email, password: OFFICE.password })).status).toBe(200)
+    const office = await officeApi()
     expect((await office.post(`/api/visits/${visitId}/cancel`, { reason: 'Customer rang: the house is sold' })).status).toBe(200)
 
     // back online: refused, and kept with the server's words, not dropped
@@ -265,15 +276,7 @@ describe('working with no signal', () => {
   })
 
   it('signing out warns about what is not sent, then leaves nothing of the firm\'s on the phone', async () => {
-    const api = await ownerApi()
-    const { visitId } = await visitBookedFor(api, OWNER.name, 'Perpetua Lamb')
-    onTestFinished(() => tidy(api, [visitId]))
-    const jess = await e2e.open()
-    const page = jess.page
-    await signedInAndKept(jess, OWNER)
-    await jess.context.setOffline(true)
-    await page.goto(`${e2e.url}/visits/${visitId}`)
-    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    const { visitId, jess, page } = await atVisitWithNoSignal('Perpetua Lamb')
     await page.getByRole('button', { name: 'Add a room' }).click()
     await page.getByTestId('room-editor').getByLabel('Room name').fill('Hall')
     await jess.context.setOffline(false)
@@ -293,9 +296,7 @@ describe('working with no signal', () => {
     expect(await page.evaluate(async () => (await caches.keys()).filter(k => k === 'setwell-data' || k === 'setwell-pages'))).toEqual([])
 
     // with no signal, a signed-out phone shows nothing from before
-    await jess.context.setOffline(true)
-    await page.goto(`${e2e.url}/visits/${visitId}`)
-    await page.waitForSelector('html[data-hydrated="true"]', { state: 'attached' })
+    await openWithNoSignal(jess, `/visits/${visitId}`)
     await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
     expect(await page.locator('body').textContent()).not.toContain('Perpetua Lamb')
     await screenshot(page, 'offline-signed-out')
