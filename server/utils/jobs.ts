@@ -7,10 +7,11 @@ import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, RE
 import { londonDay } from '#shared/utils/dates'
 import { mayChangeLog } from '#shared/utils/set-log'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
-import { checkPlan, planSets } from '#shared/utils/set-plan'
-import { applyMoves } from '#shared/utils/plan-moves'
+import { planSets, type PlanCorner, type PlanSurface } from '#shared/utils/set-plan'
+import { replan } from '#shared/utils/plan-moves'
 import { invoiceTotals } from '#shared/utils/tax'
 import { JOB_PRICE_FIELDS } from '#shared/schemas/job'
+import type { SavedRoom } from './rooms'
 
 export type JobRow = typeof jobs.$inferSelect
 
@@ -91,22 +92,34 @@ export async function defaultPlanOptions(f: FirmScope) {
   return { people: 1, bagsPerPersonPerSet: book.bagsPerPersonPerSet, coverageM2PerBag: coverage }
 }
 
+/** What the room picture draws: each room's surfaces with their size, openings and findings, and the corners. */
+export interface PlanPictureRoom {
+  name: string
+  surfaces: { id: string, kind: SavedRoom['surfaces'][number]['kind'], label: string, lengthMm: number, secondMm: number, openings: { kind: string, widthMm: number, heightMm: number, fromLeftMm: number | null, fromFloorMm: number | null }[], conditions: { kind: string, areaCm2: number | null, lengthMm: number | null, scrimmed: boolean }[] }[]
+  corners: { surfaceAId: string, surfaceBId: string, kind: 'internal' | 'external', returnWidthMm: number | null, needsBead: boolean, packedOut: boolean }[]
+}
+
+const NO_PLAN = { sets: [], warnings: [] }
+
 /** The set plan of a job: from its visit's rooms, planned, with the plasterer's moves applied and checked again. */
 export async function jobPlan(f: FirmScope, job: JobRow) {
-  if (!job.visitId) return { plan: { sets: [], warnings: [] }, planner: { sets: [], warnings: [] }, labels: {} as Record<string, string>, notes: ['This job has no measured visit, so there are no surfaces to plan.'], surfaces: [] as { id: string, label: string, roomName: string, areaM2: number }[] }
   const book = await usePriceBook(f)
+  if (!job.visitId) {
+    return {
+      plan: NO_PLAN, planner: NO_PLAN, labels: {} as Record<string, string>, notes: ['This job has no measured visit, so there are no surfaces to plan.'],
+      surfaces: [] as { id: string, label: string, roomName: string, areaM2: number }[],
+      inputs: { surfaces: [] as PlanSurface[], corners: [] as PlanCorner[], options: { ...safePlanOptions(job.planOptions).options, ceilingsFirst: book.ceilingsFirst } },
+      rooms: [] as PlanPictureRoom[],
+    }
+  }
   const rooms = await loadRooms(f, job.visitId)
   const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
   // options stored before the floor (or written by hand) are raised to it, with a warning, never a 500
-  const { options, warnings: optionWarnings } = safePlanOptions(job.planOptions)
+  const { options: safe, warnings: optionWarnings } = safePlanOptions(job.planOptions)
+  const options = { ...safe, ceilingsFirst: book.ceilingsFirst }
   const planned = planSets(inputs.surfaces, inputs.corners, options, inputs.labels)
   const planner = optionWarnings.length ? { ...planned, warnings: [...optionWarnings, ...planned.warnings] } : planned
-  let plan = planner
-  if (Object.keys(job.planMoves).length) {
-    plan = applyMoves(planner, job.planMoves, inputs.labels)
-    const broken = checkPlan(inputs.surfaces, inputs.corners, options, plan, inputs.labels)
-    plan = { ...plan, warnings: [...new Set([...plan.warnings, ...broken])] }
-  }
+  const plan = replan(planner, job.planMoves, { surfaces: inputs.surfaces, corners: inputs.corners, options, labels: inputs.labels })
   const roomOf = new Map<string, string>()
   for (const r of rooms) for (const s of r.surfaces) roomOf.set(s.id, r.name)
   return {
@@ -115,6 +128,17 @@ export async function jobPlan(f: FirmScope, job: JobRow) {
     labels: inputs.labels,
     notes: inputs.notes,
     surfaces: inputs.surfaces.map(s => ({ id: s.id, label: inputs.labels[s.id] ?? s.id, roomName: roomOf.get(s.id) ?? '', areaM2: s.areaM2 })),
+    /** What the plan was made from, so the phone can apply a move and show its consequences at once (replan). */
+    inputs: { surfaces: inputs.surfaces, corners: inputs.corners, options },
+    rooms: rooms.map((r): PlanPictureRoom => ({
+      name: r.name,
+      surfaces: r.surfaces.map(s => ({
+        id: s.id, kind: s.kind, label: s.label, lengthMm: s.lengthMm, secondMm: s.secondMm,
+        openings: s.openings.map(o => ({ kind: o.kind, widthMm: o.widthMm, heightMm: o.heightMm, fromLeftMm: o.fromLeftMm ?? null, fromFloorMm: o.fromFloorMm ?? null })),
+        conditions: s.conditions.map(c => ({ kind: c.kind, areaCm2: c.areaCm2 ?? null, lengthMm: c.lengthMm ?? null, scrimmed: c.scrimmed ?? false })),
+      })),
+      corners: r.corners.map(c => ({ surfaceAId: c.surfaceAId, surfaceBId: c.surfaceBId, kind: c.kind, returnWidthMm: c.returnWidthMm ?? null, needsBead: c.needsBead ?? false, packedOut: c.packedOut ?? false })),
+    })),
   }
 }
 
@@ -132,7 +156,7 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   const uses = await f.tx.select({ logId: materialUses.logId, materialId: materialUses.materialId, name: materials.name, packLabel: materials.packLabel, packsX1000: materialUses.packsX1000, costPencePerPack: materialUses.costPencePerPack })
     .from(materialUses).innerJoin(materials, and(eq(materials.firmId, materialUses.firmId), eq(materials.id, materialUses.materialId)))
     .where(f.where(materialUses, eq(materialUses.jobId, id)))
-  const { planner: _planner, ...planned } = await jobPlan(f, job)
+  const planned = await jobPlan(f, job)
   const book = await usePriceBook(f)
   // the plan counts bags of this material (the finish whose coverage it plans with): the log
   // form starts its bags box from the plan's bags
@@ -168,6 +192,8 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
     history,
     plan: planned,
     planMaterialId,
+    /** The firm's figures for the day's timeline (shared/utils/set-timeline.ts): rules of thumb it can change. */
+    timing: { mixMinutes: book.mixMinutes, goOffMinutes: book.goOffMinutes, dayStartMinutes: book.dayStartMinutes, dayEndMinutes: book.dayEndMinutes },
     logs: logs.map(({ clientId: _c, ...l }) => ({ ...l, canChange: mayChangeLog(auth, l, job.status), materials: uses.filter(u => u.logId === l.id).map(u => ({ materialId: u.materialId, name: u.name, packLabel: u.packLabel, packsX1000: u.packsX1000, ...(money ? { costPencePerPack: u.costPencePerPack } : {}) })) })),
     worked,
     ready,

@@ -38,7 +38,7 @@ export async function loadRooms(f: FirmScope, visitId: string, roomId?: string):
       background: s.background,
       notes: s.notes,
       openings: openingRows.filter(o => o.surfaceId === s.id)
-        .map(o => ({ id: o.id, kind: o.kind, widthMm: o.widthMm, heightMm: o.heightMm })),
+        .map(o => ({ id: o.id, kind: o.kind, widthMm: o.widthMm, heightMm: o.heightMm, fromLeftMm: o.fromLeftMm, fromFloorMm: o.fromFloorMm })),
       conditions: conditionRows.filter(c => c.surfaceId === s.id).map(c => ({
         id: c.id,
         kind: c.kind,

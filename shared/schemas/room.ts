@@ -16,6 +16,9 @@ export const openingSchema = z.object({
   kind: z.enum(OPENING_KINDS, { error: 'Choose door, window or other void.' }),
   widthMm: mm('width', 10_000),
   heightMm: mm('height', 10_000),
+  /** Where it is, when it was measured: from the surface's left end, and from the floor (null: drawn centred). */
+  fromLeftMm: z.int({ error: 'Enter the distance in metres.' }).min(0).max(100_000, { error: 'That distance looks too big.' }).nullable().default(null),
+  fromFloorMm: z.int({ error: 'Enter the distance in metres.' }).min(0).max(20_000, { error: 'That distance looks too big.' }).nullable().default(null),
 })
 
 export const conditionSchema = z.object({
@@ -45,6 +48,10 @@ export const surfaceSchema = z.object({
   const area = rectCm2(s.lengthMm, s.secondMm)
   const holes = s.openings.reduce((sum, o) => sum + rectCm2(o.widthMm, o.heightMm), 0)
   if (holes > area) ctx.addIssue({ code: 'custom', path: ['openings'], message: 'The openings add up to more than the surface.' })
+  s.openings.forEach((o, i) => {
+    if (o.fromLeftMm !== null && o.fromLeftMm + o.widthMm > s.lengthMm) ctx.addIssue({ code: 'custom', path: ['openings', i, 'fromLeftMm'], message: 'The opening runs past the end of the surface.' })
+    if (o.fromFloorMm !== null && o.fromFloorMm + o.heightMm > s.secondMm) ctx.addIssue({ code: 'custom', path: ['openings', i, 'fromFloorMm'], message: 'The opening runs past the top of the surface.' })
+  })
   s.conditions.forEach((c, i) => {
     if (c.areaCm2 !== null && c.areaCm2 > area) ctx.addIssue({ code: 'custom', path: ['conditions', i, 'areaCm2'], message: 'The patch is bigger than the surface.' })
   })

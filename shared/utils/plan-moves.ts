@@ -2,7 +2,23 @@
 // tight coats stay where the planner put them), empty sets close up, and the plan is then checked
 // again (checkPlan in ./set-plan.ts) so each rule the move breaks shows as a warning. Not blocked:
 // the plasterer decides.
-import type { PlannedSet, PlanTask, SetPlan } from './set-plan'
+import type { PlanCorner, PlannedSet, PlanOptions, PlanSurface, PlanTask, SetPlan } from './set-plan'
+import { checkPlan } from './set-plan'
+
+/** What the plan was made from: `replan` reads it to work every reason out again. */
+export interface PlanMoveInputs { surfaces: PlanSurface[], corners: PlanCorner[], options: PlanOptions, labels: Record<string, string> }
+
+/**
+ * The planner's plan with the plasterer's moves (surface id -> set number in the planner's
+ * numbering) applied, checked again: each rule a move breaks is a warning. Used alike by the
+ * server and by the phone, so the picture and the list update at once.
+ */
+export function replan(planner: SetPlan, moves: Record<string, number>, inputs: PlanMoveInputs): SetPlan {
+  if (!Object.keys(moves).length) return planner
+  const plan = applyMoves(planner, moves, inputs.labels)
+  const broken = checkPlan(inputs.surfaces, inputs.corners, inputs.options, plan, inputs.labels)
+  return { ...plan, warnings: [...new Set([...plan.warnings, ...broken])] }
+}
 
 const tenths = (bags: number) => Math.round(bags * 10)
 

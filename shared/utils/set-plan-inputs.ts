@@ -137,7 +137,7 @@ export function planInputsFromRooms(rooms: PlanInputRoom[], rules: PlanInputRule
         const back = BACKGROUND_LABELS[s.background!].toLowerCase()
         notes.push(`${name} is ${back}: undercoat the whole surface before these sets (as the quote counts it)${patches.length ? '; its patches go under that undercoat, so they are not filled on their own' : ''}.`)
       }
-      const out: PlanSurface = { id: s.id, areaM2: net / 10_000 }
+      const out: PlanSurface = { id: s.id, areaM2: net / 10_000, kind: s.kind, room: room.name }
       if (patches.length && !whole) out.patches = patches
       if (scrimmed) out.scrimmedGap = true
       surfaces.push(out)

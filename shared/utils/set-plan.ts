@@ -37,9 +37,28 @@
 // "Least-loaded set in a range" is a segment tree over the sets, so each pass is about
 // tasks x log(sets): a house takes a few milliseconds, a 2,000-surface estate a fraction of a second.
 
-export interface PlanSurface { id: string, areaM2: number, patches?: { areaM2: number }[], scrimmedGap?: boolean }
+export interface PlanSurface {
+  id: string
+  areaM2: number
+  patches?: { areaM2: number }[]
+  scrimmedGap?: boolean
+  /** What kind of surface it is ('ceiling' is what the ceilings-first rule reads). */
+  kind?: 'wall' | 'ceiling' | 'chimney-breast' | 'reveal' | 'strip'
+  /** The room it is in: the ceilings-first rule works room by room. */
+  room?: string
+  /** Bags of patch fill, when the take-off has worked them out (the quote's undercoat); else from the patches' area. */
+  fillBags?: number
+  /** Bags of undercoat over the whole surface before its skim (back to masonry or the undercoat), from the take-off. */
+  undercoatBags?: number
+}
 export interface PlanCorner { a: string, b: string, kind: 'internal' | 'external', dryCorner?: boolean, packedBead?: { face: string } }
-export interface PlanOptions { people: number, bagsPerPersonPerSet: number, coverageM2PerBag: number }
+export interface PlanOptions {
+  people: number
+  bagsPerPersonPerSet: number
+  coverageM2PerBag: number
+  /** Each room's ceiling in a set no later than its walls (the firm's rule, on unless false). */
+  ceilingsFirst?: boolean
+}
 export interface PlanTask { surfaceId: string, action: 'fill' | 'tight-coat' | 'skim', bags: number, reason: string }
 export interface PlannedSet { number: number, tasks: PlanTask[], bags: number }
 export interface SetPlan { sets: PlannedSet[], warnings: string[] }

@@ -54,6 +54,19 @@ export const priceBooks = pgTable('price_books', {
   outOfTrueToleranceMm: integer().notNull().default(10),
   /** What one person lays on and trowels up in a set, in bags (a rule of thumb the firm sets). */
   bagsPerPersonPerSet: integer().notNull().default(3),
+  /** The set planner puts each room's ceiling in a set no later than its walls (common practice: plaster dropped from a ceiling spoils finished walls). */
+  ceilingsFirst: boolean().notNull().default(true),
+  /** For the day's timeline: minutes to mix a set (rule of thumb the firm sets). */
+  mixMinutes: integer().notNull().default(15),
+  /** ...and minutes from laying on until finish plaster has gone off and is trowelled up (common practice: about 1.5 to 2 hours). */
+  goOffMinutes: integer().notNull().default(105),
+  /** The working day for the timeline, in minutes after midnight (08:00 to 16:30 unless the firm says otherwise). */
+  dayStartMinutes: integer().notNull().default(480),
+  dayEndMinutes: integer().notNull().default(990),
+  /** Packing out a bead, per metre of bead packed (labour, on top of fitting it). */
+  packedBeadPerLmPence: integer().notNull().default(0),
+  /** Making good a narrow return (narrower than the corner trowel), per metre of corner. */
+  narrowReturnPerLmPence: integer().notNull().default(0),
   ...timestamps,
 }, () => [firmPolicy('price_books')]).enableRLS()
 

@@ -89,6 +89,9 @@ export const openings = pgTable('openings', {
   kind: openingKind().notNull(),
   widthMm: integer().notNull(),
   heightMm: integer().notNull(),
+  /** Where it is, when measured: from the surface's left end and from the floor (null: drawn centred, on the floor for a door). */
+  fromLeftMm: integer(),
+  fromFloorMm: integer(),
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
   foreignKey({ name: 'openings_surface_fk', columns: [t.firmId, t.surfaceId], foreignColumns: [surfaces.firmId, surfaces.id] }).onDelete('cascade'),

@@ -83,11 +83,11 @@ export default defineEventHandler(async (event) => {
         }).returning({ id: surfaces.id })
         expectAll(got, body.surfaces.length)
       }
-      const openingRows = body.surfaces.flatMap(s => s.openings.map(o => f.values({ id: o.id, surfaceId: s.id, kind: o.kind, widthMm: o.widthMm, heightMm: o.heightMm })))
+      const openingRows = body.surfaces.flatMap(s => s.openings.map(o => f.values({ id: o.id, surfaceId: s.id, kind: o.kind, widthMm: o.widthMm, heightMm: o.heightMm, fromLeftMm: o.fromLeftMm, fromFloorMm: o.fromFloorMm })))
       if (openingRows.length) {
         const got = await f.tx.insert(openings).values(openingRows).onConflictDoUpdate({
           target: [openings.firmId, openings.id],
-          set: { kind: sql`excluded.kind`, widthMm: sql`excluded.width_mm`, heightMm: sql`excluded.height_mm` },
+          set: { kind: sql`excluded.kind`, widthMm: sql`excluded.width_mm`, heightMm: sql`excluded.height_mm`, fromLeftMm: sql`excluded.from_left_mm`, fromFloorMm: sql`excluded.from_floor_mm` },
           setWhere: sql`${openings.surfaceId} = excluded.surface_id`,
         }).returning({ id: openings.id })
         expectAll(got, openingRows.length)
