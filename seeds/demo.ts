@@ -60,6 +60,9 @@ export const DEMO_PRICE_BOOK = {
   revealsPerLmPence: 9_00,
   beadsPerLmPence: 6_00,
   scrimPerLmPence: 2_00,
+  /** Packing out a bead (on top of fitting it) and making good a return too narrow for the corner trowel, per metre (invented demo rates). */
+  packedBeadPerLmPence: 4_50,
+  narrowReturnPerLmPence: 7_00,
   materialsMarkupPercent: 15,
   minDeductCm2: 5000,
   m2PerDay: 30,

@@ -31,7 +31,8 @@ export async function seedVisit(tx: Tx, o: { firmId: string, id: string, custome
   ]
   for (const s of surfaces) await tx.insert(schema.surfaces).values({ firmId, roomId: room!.id, ...s })
   await tx.insert(schema.openings).values([
-    { firmId, surfaceId: surfaces[0]!.id, kind: 'window', widthMm: 1200, heightMm: 1100 },
+    // tight to the left wall (see the corners below), its sill 0.90 m up
+    { firmId, surfaceId: surfaces[0]!.id, kind: 'window', widthMm: 1200, heightMm: 1100, fromLeftMm: 80, fromFloorMm: 900 },
     { firmId, surfaceId: surfaces[1]!.id, kind: 'door', widthMm: 840, heightMm: 2000 },
   ])
   await tx.insert(schema.conditions).values([
@@ -41,7 +42,9 @@ export async function seedVisit(tx: Tx, o: { firmId: string, id: string, custome
     { firmId, surfaceId: surfaces[2]!.id, kind: 'out-of-true', outOfTrueMm: 9, notes: 'Bows near the chimney side' },
   ])
   await tx.insert(schema.corners).values([
-    { firmId, roomId: room!.id, surfaceAId: surfaces[0]!.id, surfaceBId: surfaces[2]!.id, kind: 'internal', lengthMm: 2400, returnWidthMm: null },
+    // the window sits tight to the left wall: the return beside it is 80 mm, narrower than the
+    // firm's 100 mm corner trowel, so the quote makes it good by hand and the planner splits the corner
+    { firmId, roomId: room!.id, surfaceAId: surfaces[0]!.id, surfaceBId: surfaces[2]!.id, kind: 'internal', lengthMm: 2400, returnWidthMm: 80 },
     { firmId, roomId: room!.id, surfaceAId: surfaces[0]!.id, surfaceBId: surfaces[4]!.id, kind: 'external', lengthMm: 3400, returnWidthMm: 220, needsBead: true, packedOut: true },
   ])
   await seedPhotos(tx, { firmId, visitId: visit!.id, surfaceId: surfaces[0]!.id, uploadedBy: o.visitorUserId })

@@ -7,9 +7,9 @@ import { draftLines } from '#shared/utils/quote-draft'
 import { ASBESTOS_CAUTION } from '#shared/utils/ledger'
 import { formatSquareMetres } from '#shared/utils/measure'
 
-/** The price book's take-off rules, as the take-off reads them. */
+/** The price book's take-off rules, as the take-off reads them (the corner trowel decides a narrow return). */
 function takeoffOptions(book: Awaited<ReturnType<typeof usePriceBook>>) {
-  return { minDeductCm2: book.minDeductCm2, narrowMaxMm: book.narrowMaxMm, beadStockLengthsMm: book.beadStockLengthsMm, beadWastePercent: book.beadWastePercent }
+  return { minDeductCm2: book.minDeductCm2, narrowMaxMm: book.narrowMaxMm, beadStockLengthsMm: book.beadStockLengthsMm, beadWastePercent: book.beadWastePercent, cornerTrowelMm: book.cornerTrowelMm }
 }
 
 /** The materials estimate of a measured visit at cost (no mark-up), with the catalogue row each comes from. */
@@ -34,6 +34,7 @@ export async function draftFromVisit(f: FirmScope, visitId: string) {
   const roomEstimates = estimateMaterialsByRoom(rooms.map(r => ({ roomName: r.name, lines: takeoffRoom(r, options) })), materials, { wastePercent: book.materialsWastePercent })
     .map(r => ({ roomName: r.roomName, materials: r.materials.map(({ name, packs, packLabel, costPence, derivation }) => ({ name, packs, packLabel, costPence, derivation })) }))
   const textured = rooms.some(r => r.surfaces.some(s => s.conditions.some(c => c.kind === 'textured-coating')))
+  const narrowReturns = lines.some(l => l.key === 'narrow-return')
   return {
     lines: drafted as NewLine[],
     estimatedDaysX100,
@@ -45,6 +46,7 @@ export async function draftFromVisit(f: FirmScope, visitId: string) {
         : 'Every opening is deducted from the area.',
       narrow: `Reveals and strips up to ${book.narrowMaxMm} mm wide are priced by the metre; wider ones by the square metre.`,
       days: `Days estimated at ${book.m2PerDay} m² a day, rounded up to the quarter day (a rule of thumb).`,
+      ...(narrowReturns ? { corners: `An internal corner with a return narrower than ${book.cornerTrowelMm} mm (the corner trowel) is made good by hand, priced by the metre.` } : {}),
     },
   }
 }

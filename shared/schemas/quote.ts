@@ -13,6 +13,11 @@ export const makingGoodItemSchema = z.object({
 })
 export type MakingGoodItemInput = z.infer<typeof makingGoodItemSchema>
 
+/** A time of the working day as minutes after midnight: 0 (00:00) to 1439 (23:59). */
+const dayTime = (what: string) => z.int({ error: `Enter ${what} of the working day as a time, like 08:00.` })
+  .min(0, { error: `Enter ${what} of the working day as a time, like 08:00.` })
+  .max(1439, { error: `Enter ${what} of the working day as a time, like 16:30.` })
+
 const stockLength = z.int({ error: 'A bead length is a whole number of millimetres.' })
   .min(500, { error: 'A bead length is at least 0.5 m.' })
   .max(6000, { error: 'A bead length is at most 6 m.' })
@@ -45,7 +50,25 @@ export const priceBookSchema = z.object({
   makingGoodItems: z.array(makingGoodItemSchema).max(40, { error: 'Forty making-good items at most.' })
     .refine(a => new Set(a.map(i => i.name.trim().toLowerCase())).size === a.length, { error: 'Each making-good item needs its own name.' })
     .optional(),
+  // issue 16, optional like the site rules: corner work on the quote, the planner's ceilings rule,
+  // and the figures of the day's timeline (rules of thumb the firm sets)
+  packedBeadPerLmPence: pence('The rate for packing out a bead').optional(),
+  narrowReturnPerLmPence: pence('The rate for a narrow return').optional(),
+  ceilingsFirst: z.boolean({ error: 'Tick the box or leave it clear.' }).optional(),
+  mixMinutes: z.int({ error: 'Enter whole minutes.' }).min(1, { error: 'At least 1 minute.' }).max(120, { error: 'Over 120 minutes to mix? Check the figure.' }).optional(),
+  goOffMinutes: z.int({ error: 'Enter whole minutes.' }).min(20, { error: 'At least 20 minutes: check the figure.' }).max(360, { error: 'Over 6 hours (360 minutes)? Check the figure.' }).optional(),
+  dayStartMinutes: dayTime('the start').optional(),
+  dayEndMinutes: dayTime('the end').optional(),
 })
+  // the working day: both ends together (so the rule is checked on the whole day, never against a
+  // stored half), the end after the start
+  .superRefine((v, ctx) => {
+    const start = v.dayStartMinutes
+    const end = v.dayEndMinutes
+    if (start === undefined && end !== undefined) ctx.addIssue({ code: 'custom', path: ['dayStartMinutes'], message: 'Enter when the working day starts as well as when it ends.' })
+    if (end === undefined && start !== undefined) ctx.addIssue({ code: 'custom', path: ['dayEndMinutes'], message: 'Enter when the working day ends as well as when it starts.' })
+    if (typeof start === 'number' && typeof end === 'number' && end <= start) ctx.addIssue({ code: 'custom', path: ['dayEndMinutes'], message: 'The working day must end after it starts.' })
+  }, { when: whenObject })
 export type PriceBookInput = z.infer<typeof priceBookSchema>
 
 export { quoteLineSchema }

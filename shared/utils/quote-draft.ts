@@ -13,6 +13,10 @@ export interface DraftPriceBook {
   revealsPerLmPence: number
   beadsPerLmPence: number
   scrimPerLmPence: number
+  /** Packing out a bead, per metre of bead packed (on top of fitting it). */
+  packedBeadPerLmPence: number
+  /** Making good an internal corner narrower than the corner trowel, per metre of corner. */
+  narrowReturnPerLmPence: number
   materialsMarkupPercent: number
   materialsWastePercent: number
   m2PerDay: number
@@ -28,7 +32,12 @@ export interface DraftLine {
   derivation: string
 }
 
-const LABOUR: Partial<Record<TakeoffKey, { description: string, rate: (p: DraftPriceBook) => number }>> = {
+/**
+ * How each labour quantity is priced. `unset`, on the rates a firm may not have filled in yet, is
+ * what the line's working says when the rate is 0: the line is still drafted, so the plasterer sees
+ * the work and prices it on the quote.
+ */
+const LABOUR: Partial<Record<TakeoffKey, { description: string, rate: (p: DraftPriceBook) => number, unset?: string }>> = {
   'skim-walls': { description: 'Skim walls', rate: p => p.skimWallsPerM2Pence },
   'skim-ceilings': { description: 'Skim ceilings', rate: p => p.skimCeilingsPerM2Pence },
   'reveals-area': { description: 'Skim wide reveals and strips', rate: p => p.skimWallsPerM2Pence },
@@ -37,6 +46,8 @@ const LABOUR: Partial<Record<TakeoffKey, { description: string, rate: (p: DraftP
   'reveals-lm': { description: 'Reveals and narrow strips', rate: p => p.revealsPerLmPence },
   'beads': { description: 'Fit beads', rate: p => p.beadsPerLmPence },
   'scrim': { description: 'Scrim and fill gaps round frames', rate: p => p.scrimPerLmPence },
+  'packed-bead': { description: 'Pack out beads', rate: p => p.packedBeadPerLmPence, unset: 'packing out a bead' },
+  'narrow-return': { description: 'Make good narrow returns', rate: p => p.narrowReturnPerLmPence, unset: 'making good a narrow return' },
 }
 
 /** A take-off quantity as thousandths of its unit (cm² -> thousandths of m²; mm -> thousandths of m). */
@@ -54,14 +65,17 @@ export function draftLines(takeoff: readonly TakeoffLine[], book: DraftPriceBook
   for (const line of takeoff) {
     const price = LABOUR[line.key]
     if (!price) continue
+    const unitPence = price.rate(book)
     labour.push({
       kind: 'labour',
       description: `${price.description}: ${line.roomName}`,
       quantityX1000: quantityX1000(line),
       unit: UNIT_LABEL[line.unit],
-      unitPence: price.rate(book),
+      unitPence,
       vatRatePercent: 20,
-      derivation: line.derivation,
+      derivation: price.unset && unitPence === 0
+        ? `${line.derivation}. No rate for ${price.unset} is set in the price book: enter the price here`
+        : line.derivation,
     })
   }
   const markup = book.materialsMarkupPercent

@@ -62,6 +62,11 @@ export interface TakeoffOptions {
   beadStockLengthsMm: number[]
   /** Extra bead lengths for waste, a whole percentage (10%, common practice). */
   beadWastePercent: number
+  /**
+   * The firm's corner trowel, in mm (the price book's `cornerTrowelMm`, 100 mm by default, a common
+   * size from memory): an internal corner whose return is narrower is made good by hand.
+   */
+  cornerTrowelMm: number
 }
 
 export const DEFAULT_TAKEOFF_OPTIONS: TakeoffOptions = {
@@ -69,9 +74,10 @@ export const DEFAULT_TAKEOFF_OPTIONS: TakeoffOptions = {
   narrowMaxMm: 300,
   beadStockLengthsMm: [2500, 3000],
   beadWastePercent: 10,
+  cornerTrowelMm: 100,
 }
 
-export type TakeoffKey = 'skim-walls' | 'skim-ceilings' | 'reveals-lm' | 'reveals-area' | 'undercoat' | 'fill-patches' | 'scrim' | 'beads' | 'bead-lengths'
+export type TakeoffKey = 'skim-walls' | 'skim-ceilings' | 'reveals-lm' | 'reveals-area' | 'undercoat' | 'fill-patches' | 'scrim' | 'beads' | 'packed-bead' | 'narrow-return' | 'bead-lengths'
 export type TakeoffUnit = 'm2' | 'lm' | 'lengths' | 'item'
 
 export interface TakeoffLine {
@@ -106,7 +112,11 @@ export interface TakeoffCorner {
   id: string
   kind: CornerKind
   lengthMm: number
+  /** The width of the corner's return (the narrower face), when measured. */
+  returnWidthMm?: number | null
   needsBead?: boolean
+  /** The bead has to be packed out (only a beaded corner is: shared/schemas/room.ts). */
+  packedOut?: boolean
   surfaceAId?: string
   surfaceBId?: string
 }
@@ -120,6 +130,7 @@ function checkOptions(o: TakeoffOptions): void {
   wholeNonNegative(o.minDeductCm2, 'minDeductCm2')
   wholeNonNegative(o.narrowMaxMm, 'narrowMaxMm')
   wholeNonNegative(o.beadWastePercent, 'beadWastePercent')
+  if (!Number.isSafeInteger(o.cornerTrowelMm) || o.cornerTrowelMm <= 0) throw new RangeError(`cornerTrowelMm must be a whole number of mm over 0, got ${o.cornerTrowelMm}`)
   if (o.beadStockLengthsMm.length === 0) throw new RangeError('beadStockLengthsMm needs at least one stock length')
   for (const s of o.beadStockLengthsMm) {
     if (!Number.isSafeInteger(s) || s <= 0) throw new RangeError(`a bead stock length must be a whole number of mm over 0, got ${s}`)
@@ -281,25 +292,47 @@ function surfaceLines(s: TakeoffSurface, roomName: string, o: TakeoffOptions): T
 
 interface BeadedCorner { line: TakeoffLine, count: number, stockMm: number }
 
-/** External corners that need a bead -> 'beads' (linear metres) with the lengths that corner takes. */
-function cornerLines(room: TakeoffRoom, o: TakeoffOptions): BeadedCorner[] {
+/**
+ * The lines of the room's corners, corner by corner in the order measured:
+ * - an external corner that needs a bead -> 'beads' (linear metres), with the lengths it takes
+ *   (kept in `beaded` for the bead order);
+ * - a beaded corner whose bead is packed out -> 'packed-bead' (linear metres of bead packed: labour
+ *   on top of fitting it);
+ * - an internal corner whose return is narrower than the firm's corner trowel -> 'narrow-return'
+ *   (linear metres of corner, made good by hand: the trowel does not fit).
+ */
+function cornerLines(room: TakeoffRoom, o: TakeoffOptions): { lines: TakeoffLine[], beaded: BeadedCorner[] } {
   const names = new Map(room.surfaces.map(s => [s.id, surfaceName(s)]))
-  const out: BeadedCorner[] = []
+  const lines: TakeoffLine[] = []
+  const beaded: BeadedCorner[] = []
   for (const c of room.corners ?? []) {
-    if (c.kind !== 'external' || !c.needsBead) continue
-    const { count, stockMm } = beadLengthsFor(c.lengthMm, o.beadStockLengthsMm)
+    wholeNonNegative(c.lengthMm, 'corner lengthMm')
     const a = c.surfaceAId ? names.get(c.surfaceAId) : undefined
     const b = c.surfaceBId ? names.get(c.surfaceBId) : undefined
-    const between = a && b ? ` (${a} / ${b})` : ''
-    out.push({
-      count, stockMm,
-      line: {
-        key: 'beads', roomName: room.name, cornerId: c.id, unit: 'lm', quantity: c.lengthMm,
-        derivation: `${formatMetres(c.lengthMm)} m corner${between}: ${count} x ${formatStockLength(stockMm)} m length${count === 1 ? '' : 's'}`,
-      },
-    })
+    const base = { roomName: room.name, cornerId: c.id, unit: 'lm' as const, quantity: c.lengthMm }
+    const length = `${formatMetres(c.lengthMm)} m`
+    if (c.kind === 'external' && c.needsBead) {
+      const { count, stockMm } = beadLengthsFor(c.lengthMm, o.beadStockLengthsMm)
+      const line: TakeoffLine = {
+        ...base, key: 'beads',
+        derivation: `${length} corner${a && b ? ` (${a} / ${b})` : ''}: ${count} x ${formatStockLength(stockMm)} m length${count === 1 ? '' : 's'}`,
+      }
+      lines.push(line)
+      beaded.push({ line, count, stockMm })
+    }
+    if (c.needsBead && c.packedOut) {
+      lines.push({ ...base, key: 'packed-bead', derivation: `Bead packed out along the ${length} corner${a && b ? ` between ${a} and ${b}` : ''}: ${length}` })
+    }
+    const width = c.returnWidthMm
+    if (c.kind === 'internal' && width !== null && width !== undefined && width < o.cornerTrowelMm) {
+      wholeNonNegative(width, 'corner returnWidthMm')
+      lines.push({
+        ...base, key: 'narrow-return',
+        derivation: `Return ${width} mm wide${a && b ? ` (${a} / ${b})` : ''}, narrower than the ${o.cornerTrowelMm} mm corner trowel: made good by hand along ${length}`,
+      })
+    }
   }
-  return out
+  return { lines, beaded }
 }
 
 /**
@@ -326,8 +359,8 @@ function resolve(options: Partial<TakeoffOptions>): TakeoffOptions {
 }
 
 /**
- * The take-off of one room: its surface lines (see above), then a 'beads' line per beaded external
- * corner, then the room's bead order ('bead-lengths', waste added once for the room).
+ * The take-off of one room: its surface lines (see above), then its corner lines (beads, packed-out
+ * beads, narrow returns), then the room's bead order ('bead-lengths', waste added once for the room).
  * Rules of thumb to check against the job, not a survey.
  */
 export function takeoffRoom(room: TakeoffRoom, options: Partial<TakeoffOptions> = {}): TakeoffLine[] {
@@ -335,8 +368,8 @@ export function takeoffRoom(room: TakeoffRoom, options: Partial<TakeoffOptions> 
   const corners = cornerLines(room, o)
   return [
     ...room.surfaces.flatMap(s => surfaceLines(s, room.name, o)),
-    ...corners.map(c => c.line),
-    ...beadOrder(corners, room.name, o),
+    ...corners.lines,
+    ...beadOrder(corners.beaded, room.name, o),
   ]
 }
 
@@ -351,8 +384,8 @@ export function takeoffRooms(rooms: TakeoffRoom[], options: Partial<TakeoffOptio
   for (const room of rooms) {
     lines.push(...room.surfaces.flatMap(s => surfaceLines(s, room.name, o)))
     const cs = cornerLines(room, o)
-    lines.push(...cs.map(c => c.line))
-    corners.push(...cs)
+    lines.push(...cs.lines)
+    corners.push(...cs.beaded)
   }
   return [...lines, ...beadOrder(corners, 'All rooms', o)]
 }

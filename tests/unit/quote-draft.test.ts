@@ -9,7 +9,8 @@ import type { TakeoffLine } from '../../shared/utils/takeoff'
 
 const book: DraftPriceBook = {
   skimWallsPerM2Pence: 18_00, skimCeilingsPerM2Pence: 21_00, undercoatPerM2Pence: 14_00, revealsPerLmPence: 9_00,
-  beadsPerLmPence: 6_00, scrimPerLmPence: 2_00, materialsMarkupPercent: 15, materialsWastePercent: 10, m2PerDay: 30,
+  beadsPerLmPence: 6_00, scrimPerLmPence: 2_00, packedBeadPerLmPence: 4_50, narrowReturnPerLmPence: 7_00,
+  materialsMarkupPercent: 15, materialsWastePercent: 10, m2PerDay: 30,
 }
 const line = (key: TakeoffLine['key'], unit: TakeoffLine['unit'], quantity: number, extra: Partial<TakeoffLine> = {}): TakeoffLine =>
   ({ key, unit, quantity, roomName: 'Back bedroom', derivation: `${key} working`, ...extra })
@@ -31,6 +32,30 @@ describe('draftLines: labour priced from the price book', () => {
   ])('%s', (_what, takeoff, expected) => {
     const labour = draftLines([takeoff], book, DEFAULT_MATERIALS).lines.filter(l => l.kind === 'labour')
     expect(labour).toEqual([{ kind: 'labour', vatRatePercent: 20, derivation: takeoff.derivation, ...expected }])
+  })
+
+  it.each<[string, TakeoffLine, Partial<DraftPriceBook>, { description: string, quantityX1000: number, unitPence: number, derivation: string }]>([
+    // invented rates: 3.40 m of bead packed out at £4.50 a metre (3400 thousandths of a metre)
+    ['a packed-out bead by the metre', line('packed-bead', 'lm', 3400, { derivation: 'Bead packed out along the 3.40 m corner between Wall 1 and Reveal: 3.40 m' }), {},
+      { description: 'Pack out beads: Back bedroom', quantityX1000: 3400, unitPence: 4_50, derivation: 'Bead packed out along the 3.40 m corner between Wall 1 and Reveal: 3.40 m' }],
+    // invented rates: 2.40 m of narrow return made good at £7.00 a metre
+    ['a narrow return by the metre', line('narrow-return', 'lm', 2400, { derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m' }), {},
+      { description: 'Make good narrow returns: Back bedroom', quantityX1000: 2400, unitPence: 7_00, derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m' }],
+    // our rule: a rate not set (0) still drafts the line, so the work is seen and priced, and says why it is £0
+    ['a packed-out bead with no rate set', line('packed-bead', 'lm', 3400, { derivation: 'Bead packed out along the 3.40 m corner: 3.40 m' }), { packedBeadPerLmPence: 0 },
+      { description: 'Pack out beads: Back bedroom', quantityX1000: 3400, unitPence: 0, derivation: 'Bead packed out along the 3.40 m corner: 3.40 m. No rate for packing out a bead is set in the price book: enter the price here' }],
+    ['a narrow return with no rate set', line('narrow-return', 'lm', 2400, { derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m' }), { narrowReturnPerLmPence: 0 },
+      { description: 'Make good narrow returns: Back bedroom', quantityX1000: 2400, unitPence: 0, derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m. No rate for making good a narrow return is set in the price book: enter the price here' }],
+  ])('corner work: %s', (_what, takeoff, rates, expected) => {
+    const { lines } = draftLines([takeoff], { ...book, ...rates }, DEFAULT_MATERIALS)
+    expect(lines).toEqual([{ kind: 'labour', unit: 'm', vatRatePercent: 20, ...expected }])
+  })
+
+  it('corner work adds no materials and no days (the days go by the m²)', () => {
+    const takeoff = [line('packed-bead', 'lm', 3400), line('narrow-return', 'lm', 2400)]
+    const { lines, estimatedDaysX100 } = draftLines(takeoff, book, DEFAULT_MATERIALS)
+    expect(lines.map(l => l.kind)).toEqual(['labour', 'labour'])
+    expect(estimatedDaysX100).toBe(0)
   })
 
   it('the bead order is materials, not labour', () => {

@@ -199,6 +199,80 @@ describe('takeoffRoom: corners and the bead order', () => {
   })
 })
 
+describe('takeoffRoom: the packed-out bead and the narrow return', () => {
+  // The trade's rules (DOMAIN.md "Planning the sets", common practice): a bead that has to be packed
+  // out is extra work along the whole corner; an internal corner whose return is narrower than the
+  // corner trowel cannot be run with it, so it is made good by hand. Both are priced by the metre
+  // of corner (our choice, as beads are). Sizes are invented inputs; 100 mm is the price book's
+  // default trowel (a common size, from memory).
+  const surfaces: TakeoffSurface[] = [
+    { id: 'w1', kind: 'wall', label: 'Wall 1', lengthMm: 3600, secondMm: 2400 },
+    { id: 'w2', kind: 'wall', label: 'Left wall', lengthMm: 3100, secondMm: 2400 },
+    { id: 'rv', kind: 'reveal', label: 'Reveal', lengthMm: 3400, secondMm: 220 },
+  ]
+  type Corner = NonNullable<TakeoffRoom['corners']>[number]
+  const at = { roomName: 'Front bedroom', unit: 'lm' as const }
+  it.each<[string, Corner, Partial<TakeoffOptions>, TakeoffLine[]]>([
+    // common practice: the bead is fitted (beads line) and packed out along its whole length, 3.40 m
+    ['a packed-out bead is fitted and packed along the corner', { id: 'c1', kind: 'external', lengthMm: 3400, needsBead: true, packedOut: true, surfaceAId: 'w1', surfaceBId: 'rv' }, {}, [
+      { ...at, key: 'beads', cornerId: 'c1', quantity: 3400, derivation: '3.40 m corner (Wall 1 / Reveal): 2 x 2.5 m lengths' },
+      { ...at, key: 'packed-bead', cornerId: 'c1', quantity: 3400, derivation: 'Bead packed out along the 3.40 m corner between Wall 1 and Reveal: 3.40 m' },
+    ]],
+    // our rule: no surfaces named, the working says the length alone
+    ['a packed-out bead on a corner with no surfaces named', { id: 'c1', kind: 'external', lengthMm: 2450, needsBead: true, packedOut: true }, {}, [
+      { ...at, key: 'beads', cornerId: 'c1', quantity: 2450, derivation: '2.45 m corner: 1 x 2.5 m length' },
+      { ...at, key: 'packed-bead', cornerId: 'c1', quantity: 2450, derivation: 'Bead packed out along the 2.45 m corner: 2.45 m' },
+    ]],
+    // common practice: a bead not packed out is only fitted
+    ['a bead not packed out is only fitted', { id: 'c1', kind: 'external', lengthMm: 2400, needsBead: true, packedOut: false, surfaceAId: 'w1', surfaceBId: 'rv' }, {}, [
+      { ...at, key: 'beads', cornerId: 'c1', quantity: 2400, derivation: '2.40 m corner (Wall 1 / Reveal): 1 x 2.5 m length' },
+    ]],
+    // the visit form's rule (shared/schemas/room.ts): only a beaded corner is packed out; an unbeaded one asks nothing
+    ['packed out without a bead gives nothing', { id: 'c1', kind: 'external', lengthMm: 2400, needsBead: false, packedOut: true }, {}, []],
+    // common practice (DOMAIN.md): 80 mm is narrower than the 100 mm trowel, so made good by hand along 2.40 m
+    ['a return narrower than the trowel is made good by hand', { id: 'c2', kind: 'internal', lengthMm: 2400, returnWidthMm: 80, surfaceAId: 'w1', surfaceBId: 'w2' }, {}, [
+      { ...at, key: 'narrow-return', cornerId: 'c2', quantity: 2400, derivation: 'Return 80 mm wide (Wall 1 / Left wall), narrower than the 100 mm corner trowel: made good by hand along 2.40 m' },
+    ]],
+    // our boundary, as the planner's (shared/utils/set-plan-inputs.ts): exactly the trowel's width fits it
+    ['a return as wide as the trowel is not narrow', { id: 'c2', kind: 'internal', lengthMm: 2400, returnWidthMm: 100 }, {}, []],
+    // arithmetic: 99 mm is under 100
+    ['a return 1 mm under the trowel is narrow', { id: 'c2', kind: 'internal', lengthMm: 2400, returnWidthMm: 99 }, {}, [
+      { ...at, key: 'narrow-return', cornerId: 'c2', quantity: 2400, derivation: 'Return 99 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m' },
+    ]],
+    // the firm's own trowel (price book cornerTrowelMm): 120 mm makes a 110 mm return narrow
+    ['the firm\'s wider trowel makes a 110 mm return narrow', { id: 'c2', kind: 'internal', lengthMm: 2600, returnWidthMm: 110 }, { cornerTrowelMm: 120 }, [
+      { ...at, key: 'narrow-return', cornerId: 'c2', quantity: 2600, derivation: 'Return 110 mm wide, narrower than the 120 mm corner trowel: made good by hand along 2.60 m' },
+    ]],
+    // ...and a narrower one (80 mm) does not
+    ['the firm\'s narrower trowel fits a 90 mm return', { id: 'c2', kind: 'internal', lengthMm: 2400, returnWidthMm: 90 }, { cornerTrowelMm: 80 }, []],
+    // nothing measured, nothing assumed
+    ['a return not measured is not narrow', { id: 'c2', kind: 'internal', lengthMm: 2400, returnWidthMm: null }, {}, []],
+    // a narrow external corner takes a bead (its own line), not a trowel: no narrow-return line (our reading of DOMAIN.md: the trowel rule is for internal corners)
+    ['an external corner is never a narrow return', { id: 'c3', kind: 'external', lengthMm: 2400, returnWidthMm: 60 }, {}, []],
+  ])('%s', (_what, corner, options, expected) => {
+    const lines = takeoffRoom({ name: 'Front bedroom', surfaces, corners: [corner] }, options)
+    expect(lines.filter(l => l.cornerId)).toEqual(expected)
+  })
+
+  it('lists each corner\'s lines together, in the order measured, before the bead order', () => {
+    const lines = takeoffRoom({ name: 'Front bedroom', surfaces, corners: [
+      { id: 'c1', kind: 'internal', lengthMm: 2400, returnWidthMm: 80 },
+      { id: 'c2', kind: 'external', lengthMm: 3400, needsBead: true, packedOut: true },
+    ] })
+    expect(lines.map(l => [l.key, l.cornerId ?? l.surfaceId ?? ''])).toEqual([
+      ['skim-walls', 'w1'], ['skim-walls', 'w2'], ['reveals-lm', 'rv'],
+      ['narrow-return', 'c1'], ['beads', 'c2'], ['packed-bead', 'c2'], ['bead-lengths', ''],
+    ])
+  })
+
+  it('takeoffRooms passes the corner trowel to every room', () => {
+    const corner = { id: 'c1', kind: 'internal' as const, lengthMm: 2400, returnWidthMm: 110 }
+    const rooms = [{ name: 'Front bedroom', surfaces, corners: [corner] }]
+    expect(takeoffRooms(rooms).filter(l => l.key === 'narrow-return')).toEqual([])
+    expect(takeoffRooms(rooms, { cornerTrowelMm: 120 }).filter(l => l.key === 'narrow-return').map(l => l.quantity)).toEqual([2400])
+  })
+})
+
 describe('takeoffRooms', () => {
   const corner = (id: string) => ({ id, kind: 'external' as const, lengthMm: 2400, needsBead: true })
   const rooms: TakeoffRoom[] = [
@@ -224,8 +298,8 @@ describe('takeoffRooms', () => {
 })
 
 describe('takeoff options are checked', () => {
-  it('defaults are deduct-all, 300 mm, 2.5 and 3.0 m beads, 10% (DOMAIN.md: from memory; supplier listings; common practice)', () => {
-    expect(DEFAULT_TAKEOFF_OPTIONS).toEqual({ minDeductCm2: 0, narrowMaxMm: 300, beadStockLengthsMm: [2500, 3000], beadWastePercent: 10 })
+  it('defaults are deduct-all, 300 mm, 2.5 and 3.0 m beads, 10%, a 100 mm corner trowel (DOMAIN.md: from memory; supplier listings; common practice; the price book\'s default)', () => {
+    expect(DEFAULT_TAKEOFF_OPTIONS).toEqual({ minDeductCm2: 0, narrowMaxMm: 300, beadStockLengthsMm: [2500, 3000], beadWastePercent: 10, cornerTrowelMm: 100 })
     expect(SMM7_MIN_DEDUCT_CM2).toBe(5000)
   })
   it.each<[string, Partial<TakeoffOptions>]>([
@@ -234,5 +308,7 @@ describe('takeoff options are checked', () => {
     ['a fractional waste percentage', { beadWastePercent: 2.5 }],
     ['a negative small-voids limit', { minDeductCm2: -1 }],
     ['a fractional narrow limit', { narrowMaxMm: 300.5 }],
+    ['a corner trowel of 0 mm', { cornerTrowelMm: 0 }],
+    ['a fractional corner trowel', { cornerTrowelMm: 99.5 }],
   ])('%s is a RangeError', (_what, options) => expect(() => takeoffRoom(room([wall()]), options)).toThrow(RangeError))
 })
