@@ -33,6 +33,41 @@ describe('the price book', () => {
     expectCleanRun(person)
   })
 
+  it('sets the rate for packing out a bead and the working day, refusing a day that ends before it starts', async () => {
+    const person = await e2e.open()
+    const { page } = person
+    await signInToDashboard(page, e2e.url, OWNER.email, OWNER.password)
+    await visit(page, `${e2e.url}/price-book`)
+    await expectVisible(page.getByRole('heading', { name: 'Price book' }))
+    // the demo firm's figures (seeds/demo.ts; the day is the columns' default, 08:00 to 16:30)
+    expect(await page.getByLabel('Packing out a bead, per metre').inputValue()).toBe('4.50')
+    expect(await page.getByLabel('Working day starts').inputValue()).toBe('08:00')
+    expect(await page.getByLabel('Ceilings before walls').isChecked()).toBe(true)
+    await expectVisible(page.getByText(/about 90 to 120 minutes is common/))
+
+    await page.getByLabel('Packing out a bead, per metre').fill('5.25')
+    await page.getByLabel('Working day ends').fill('07:00')
+    await page.getByRole('button', { name: 'Save price book' }).click()
+    await expectText(page.getByTestId('price-book-timeline').getByRole('alert'), 'The working day must end after it starts.')
+    expect(await page.getByLabel('Packing out a bead, per metre').inputValue()).toBe('5.25')
+    await screenshot(page, 'price-book-timeline-error')
+
+    await page.getByLabel('Working day ends').fill('17:00')
+    await page.getByRole('button', { name: 'Save price book' }).click()
+    await expectVisible(page.getByText('Saved. New quotes use these rates.'))
+    expect(await page.getByLabel('Working day ends').inputValue()).toBe('17:00')
+
+    const api = new Client(e2e.url)
+    await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
+    const book = (await api.get('/api/price-book')).body
+    // 17 x 60 = 1020 minutes after midnight
+    expect(book).toMatchObject({ packedBeadPerLmPence: 525, dayStartMinutes: 480, dayEndMinutes: 1020, ceilingsFirst: true })
+    // put the demo's figures back for the other journeys (the quote and the day's timeline read them)
+    const { firmId: _f, createdAt: _c, updatedAt: _u, ...rest } = book
+    expect((await api.put('/api/price-book', { ...rest, packedBeadPerLmPence: 450, dayEndMinutes: 990 })).status).toBe(200)
+    expectCleanRun(person)
+  })
+
   it('sets the bead lengths and a making-good item, with a clear message for a bad length', async () => {
     const person = await e2e.open()
     const { page } = person

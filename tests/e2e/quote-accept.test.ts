@@ -31,6 +31,12 @@ describe('quoting from a measured visit', () => {
     const draft = (await api.get(`/api/quotes/${quoteId}`)).body
     expect(draft.current.pricing).toBe('measure')
     expect(draft.current.lines.length).toBeGreaterThan(3)
+    // the corner work of the demo visit (a packed-out bead, an 80 mm return), priced from the demo firm's rates, with its working
+    const cornerWork = draft.current.lines.filter((l: any) => /^(Pack out beads|Make good narrow returns): Back bedroom$/.test(l.description))
+    expect(cornerWork.map((l: any) => l.description).sort()).toEqual(['Make good narrow returns: Back bedroom', 'Pack out beads: Back bedroom'])
+    expect(cornerWork.every((l: any) => l.unitPence > 0)).toBe(true)
+    await expectVisible(owner.getByText(/How: Bead packed out along the 3\.40 m corner between Window wall and Window reveal: 3\.40 m/))
+    await expectVisible(owner.getByText(/How: Return 80 mm wide .*narrower than the 100 mm corner trowel: made good by hand along 2\.40 m/))
     // making good from the price book (seeded: "Make good round a socket or switch", £12.00), as a labour line
     await owner.getByLabel('Making good from the price book').selectOption({ label: 'Make good round a socket or switch (£12.00 per item)' })
     await owner.getByRole('button', { name: '+ Add from the price book' }).click()

@@ -54,7 +54,7 @@ describe('priceBookFormFrom and priceBookBody', () => {
     ['mixing minutes left empty', (f) => { f.timeline.mixMinutes = '' }, { mixMinutes: 'Enter whole minutes.' }],
     ['a start that is not a time', (f) => { f.day.dayStartMinutes = '8am' }, { dayStartMinutes: 'Enter a time, like 08:00.' }],
     ['an end at 25:00', (f) => { f.day.dayEndMinutes = '25:00' }, { dayEndMinutes: 'Enter a time, like 16:30.' }],
-    ['a day that ends before it starts', (f) => { f.day.dayStartMinutes = '16:00'; f.day.dayEndMinutes = '08:00' }, { dayEndMinutes: 'The working day must end after it starts.' }],
+    ['a day that ends before it starts', f => Object.assign(f.day, { dayStartMinutes: '16:00', dayEndMinutes: '08:00' }), { dayEndMinutes: 'The working day must end after it starts.' }],
     ['a day that ends as it starts', (f) => { f.day.dayEndMinutes = '08:00' }, { dayEndMinutes: 'The working day must end after it starts.' }],
   ])('names the field: %s', (_what, change, errors) => {
     const form = priceBookFormFrom(book)
