@@ -43,7 +43,7 @@ describe('the price book', () => {
     expect(await page.getByLabel('Packing out a bead, per metre').inputValue()).toBe('4.50')
     expect(await page.getByLabel('Working day starts').inputValue()).toBe('08:00')
     expect(await page.getByLabel('Ceilings before walls').isChecked()).toBe(true)
-    await expectVisible(page.getByText(/about 90 to 120 minutes is common/))
+    await expectVisible(page.getByText(/About 90 to 120 minutes is common/))
 
     await page.getByLabel('Packing out a bead, per metre').fill('5.25')
     await page.getByLabel('Working day ends').fill('07:00')
