@@ -18,7 +18,7 @@
 // still placed, in order, with a warning.
 import { dayAndMonth } from './dates'
 import type { DayPortion } from './jobs'
-import { checkTiming, clock, DayBoard, hoursOf, type Block, type DayMember, type DayTiming, type PlacedSet, type SetTimes, type SetWait } from './set-timeline'
+import { checkTiming, clockTime, DayBoard, hoursOf, type TimelineBlock, type DayMember, type DayTiming, type PlacedSet, type SetTimings, type SetWait } from './set-timeline'
 
 export interface BookedDay { day: string, userId: string, name: string, portion: DayPortion }
 /** A set of the plan; `waits`: the earlier sets it waits for (set-timeline.ts `setWaits`). */
@@ -26,9 +26,9 @@ export interface DaySet { number: number, bags: number, waits?: readonly SetWait
 export interface LoggedSet { setNumber: number, day: string }
 
 export interface DayPerson { userId: string, name: string, portion: DayPortion, sets: number[], bags: number }
-export interface DaySetPlan { number: number, bags: number, done: boolean, people: string[], bagsEach: number, times: SetTimes, waits: SetWait[], overrun: boolean }
+export interface DaySetPlan { number: number, bags: number, done: boolean, people: string[], bagsEach: number, times: SetTimings, waits: SetWait[], overrun: boolean }
 /** One person's day: their hours and each stretch of work, in time order. */
-export interface PersonLine { userId: string, name: string, portion: DayPortion, from: number, to: number, blocks: Block[] }
+export interface PersonLine { userId: string, name: string, portion: DayPortion, from: number, to: number, blocks: TimelineBlock[] }
 export interface PlanDay { day: string, people: DayPerson[], sets: DaySetPlan[], hours: { from: number, to: number }, timeline: PersonLine[], warnings: string[] }
 export interface DayPlan { days: PlanDay[], unplaced: number[], warnings: string[] }
 export interface DayPlanOptions { bagsPerPersonPerSet: number, timing: DayTiming }
@@ -105,15 +105,15 @@ export function planDays(booked: readonly BookedDay[], sets: readonly DaySet[], 
     const fitsAlone = open.slice(di).some(d => new DayBoard(crewOf(d), timing).place(s.number, s.bags, 0, { done: false, limit: true }) !== null)
     if (!fitsAlone && !anyNew && put(s, day, false, false)) {
       const runs = onDay.get(day)!.at(-1)!.placed.times.doneAt
-      dayNotes.get(day)!.push(`Set ${s.number} (${s.bags} bags) is more than the people booked can mix, lay on and trowel up within a day's hours on any booked day: on ${showDay(day)} it runs to about ${clock(runs)}, past ${clock(endOf(day))}. Split it or bring more hands.`)
+      dayNotes.get(day)!.push(`Set ${s.number} (${s.bags} bags) is more than the people booked can mix, lay on and trowel up within a day's hours on any booked day: on ${showDay(day)} it runs to about ${clockTime(runs)}, past ${clockTime(endOf(day))}. Split it or bring more hands.`)
       next++
       di++
       continue
     }
     const then = open[di + 1]
     dayNotes.get(day)!.push(then
-      ? `Set ${s.number} will not be trowelled up by ${clock(endOf(day))} on ${showDay(day)}, so it moves to ${showDay(then)}.`
-      : `Set ${s.number} will not be trowelled up by ${clock(endOf(day))} on ${showDay(day)}, the last booked day, so it is not on a booked day.`)
+      ? `Set ${s.number} will not be trowelled up by ${clockTime(endOf(day))} on ${showDay(day)}, so it moves to ${showDay(then)}.`
+      : `Set ${s.number} will not be trowelled up by ${clockTime(endOf(day))} on ${showDay(day)}, the last booked day, so it is not on a booked day.`)
     di++
   }
 

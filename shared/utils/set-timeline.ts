@@ -30,11 +30,11 @@
 //   that waits is not mixed until the set it waits for has gone off. A set it waits for on an
 //   earlier day has gone off overnight. A set that waits for a LATER one (a move by hand broke the
 //   order: the plan warns) is placed in plan order all the same.
+import type { DayPortion } from './jobs'
 import type { PlanCorner } from './set-plan'
 
 /** The firm's figures (the price book; GET /api/jobs/:id `timing`). Minutes; the day's from midnight. */
 export interface DayTiming { mixMinutes: number, goOffMinutes: number, dayStartMinutes: number, dayEndMinutes: number }
-export type DayPortion = 'day' | 'half-day'
 
 /** Bags in one mix (from memory: a bag to a tub). */
 export const BAGS_A_MIX = 1
@@ -52,17 +52,17 @@ export const STEP_MINUTES = 5
 /** Beside every timeline, for the firm (never on a customer's page). */
 export const TIMELINE_CAUTION = 'A rule of thumb: how fast plaster goes off depends on the product, the background (its suction) and the weather. Follow the plaster maker\'s instructions and what the wall tells you on the day; these times are a guide, not a promise.'
 
-export type Phase = 'mix' | 'lay-on' | 'second-coat' | 'trowel-up'
-export const PHASES: readonly Phase[] = ['mix', 'lay-on', 'second-coat', 'trowel-up']
-export const PHASE_WORDS: Record<Phase, string> = { 'mix': 'mix', 'lay-on': 'lay on', 'second-coat': 'second coat', 'trowel-up': 'trowel up' }
+export type WorkPhase = 'mix' | 'lay-on' | 'second-coat' | 'trowel-up'
+export const PHASES: readonly WorkPhase[] = ['mix', 'lay-on', 'second-coat', 'trowel-up']
+export const PHASE_WORDS: Record<WorkPhase, string> = { 'mix': 'mix', 'lay-on': 'lay on', 'second-coat': 'second coat', 'trowel-up': 'trowel up' }
 
 /** One stretch of one set's work, in minutes after midnight (from inclusive, to exclusive). */
-export interface Block { set: number, phase: Phase, from: number, to: number, done: boolean }
+export interface TimelineBlock { set: number, phase: WorkPhase, from: number, to: number, done: boolean }
 /** When a set is worked, minutes after midnight. */
-export interface SetTimes { mixAt: number, layOnAt: number, secondCoatAt: number, goneOffAt: number, trowelUpAt: number, doneAt: number }
+export interface SetTimings { mixAt: number, layOnAt: number, secondCoatAt: number, goneOffAt: number, trowelUpAt: number, doneAt: number }
 
 /** A set's pattern of work, as minutes from the start of its mixing. */
-export interface SetPattern { blocks: { phase: Phase, from: number, to: number }[], goneOff: number, end: number }
+export interface SetPattern { blocks: { phase: WorkPhase, from: number, to: number }[], goneOff: number, end: number }
 
 /** A set's pattern for `bags` bags and `people` people on it (the model above). */
 export function setPattern(bags: number, people: number, timing: DayTiming): SetPattern {
@@ -94,7 +94,7 @@ export function hoursOf(portion: DayPortion, timing: DayTiming): { from: number,
 }
 
 /** Minutes after midnight as a 24-hour clock: 510 -> '08:30'. */
-export function clock(minutes: number): string {
+export function clockTime(minutes: number): string {
   const m = Math.round(minutes)
   const day = ((m % 1440) + 1440) % 1440
   return `${String(Math.floor(day / 60)).padStart(2, '0')}:${String(day % 60).padStart(2, '0')}`
@@ -107,7 +107,7 @@ export function checkTiming(t: DayTiming): DayTiming {
     const v = t[k]
     if (typeof v !== 'number' || !Number.isInteger(v) || v < 0 || v > 1440) throw new RangeError(`timing.${k} must be whole minutes from 0 to 1440, got ${String(v)}`)
   }
-  if (t.dayEndMinutes <= t.dayStartMinutes) throw new RangeError(`timing.dayEndMinutes must be after dayStartMinutes, got ${clock(t.dayStartMinutes)} to ${clock(t.dayEndMinutes)}`)
+  if (t.dayEndMinutes <= t.dayStartMinutes) throw new RangeError(`timing.dayEndMinutes must be after dayStartMinutes, got ${clockTime(t.dayStartMinutes)} to ${clockTime(t.dayEndMinutes)}`)
   return t
 }
 
@@ -175,12 +175,12 @@ export function setWaits(sets: readonly TimelineSet[], corners: readonly PlanCor
 // One day's board: who is busy when
 
 export interface DayMember { userId: string, name: string, portion: DayPortion }
-export interface PlacedSet { number: number, times: SetTimes, people: DayMember[], done: boolean, overrun: boolean }
+export interface PlacedSet { number: number, times: SetTimings, people: DayMember[], done: boolean, overrun: boolean }
 
 /** One booked day being filled: each person's hours and what they are doing when. Used by day-plan.ts. */
 export class DayBoard {
   readonly hours: Map<string, { from: number, to: number }>
-  readonly busy = new Map<string, Block[]>()
+  readonly busy = new Map<string, TimelineBlock[]>()
   readonly placed: PlacedSet[] = []
   /** The latest mixing start so far: sets start in plan order. */
   private lastStart: number
@@ -235,8 +235,8 @@ export class DayBoard {
   }
 
   private commit(number: number, crew: DayMember[], pattern: SetPattern, start: number, done: boolean, overrun: boolean): PlacedSet {
-    const at = (p: Phase) => start + (pattern.blocks.find(b => b.phase === p)?.from ?? (p === 'mix' ? 0 : pattern.end))
-    const times: SetTimes = {
+    const at = (p: WorkPhase) => start + (pattern.blocks.find(b => b.phase === p)?.from ?? (p === 'mix' ? 0 : pattern.end))
+    const times: SetTimings = {
       mixAt: start,
       layOnAt: at('lay-on'),
       secondCoatAt: at('second-coat'),
@@ -260,13 +260,13 @@ export class DayBoard {
 // In words
 
 /** A person's day in words, one line a stretch: '08:00 mix set 1', ..., '11:00 set 1 trowelled up'. */
-export function personSteps(blocks: readonly Block[]): string[] {
+export function personSteps(blocks: readonly TimelineBlock[]): string[] {
   const lines: { at: number, order: number, text: string }[] = []
   const ends = new Map<number, number>()
   for (const b of blocks) {
-    lines.push({ at: b.from, order: 1, text: `${clock(b.from)} ${PHASE_WORDS[b.phase]} set ${b.set}` })
+    lines.push({ at: b.from, order: 1, text: `${clockTime(b.from)} ${PHASE_WORDS[b.phase]} set ${b.set}` })
     ends.set(b.set, Math.max(ends.get(b.set) ?? 0, b.to))
   }
-  for (const [set, at] of ends) lines.push({ at, order: 0, text: `${clock(at)} set ${set} trowelled up` })
+  for (const [set, at] of ends) lines.push({ at, order: 0, text: `${clockTime(at)} set ${set} trowelled up` })
   return lines.sort((x, y) => x.at - y.at || x.order - y.order).map(l => l.text)
 }
