@@ -50,7 +50,7 @@ export const TROWEL_MINUTES_A_BAG = 10
 export const STEP_MINUTES = 5
 
 /** Beside every timeline, for the firm (never on a customer's page). */
-export const TIMELINE_CAUTION = 'A rule of thumb: how fast plaster goes off depends on the product, the background (its suction) and the weather. Follow the plaster maker\'s instructions and what the wall tells you on the day; these times are a guide, not a promise.'
+export const TIMELINE_CAUTION = 'How fast plaster goes off depends on the product, the background (its suction) and the weather: follow the plaster maker\'s instructions and what the wall tells you on the day. These times are a guide, not a promise.'
 
 export type WorkPhase = 'mix' | 'lay-on' | 'second-coat' | 'trowel-up'
 export const PHASES: readonly WorkPhase[] = ['mix', 'lay-on', 'second-coat', 'trowel-up']
@@ -269,4 +269,16 @@ export function personSteps(blocks: readonly TimelineBlock[]): string[] {
   }
   for (const [set, at] of ends) lines.push({ at, order: 0, text: `${clockTime(at)} set ${set} trowelled up` })
   return lines.sort((x, y) => x.at - y.at || x.order - y.order).map(l => l.text)
+}
+
+/** One set's times in words, in order: '08:00 mix', '08:45 lay on', ..., '11:00 trowelled up'. */
+export function setSteps(t: SetTimings): string[] {
+  const steps: [number, string][] = [
+    ...(t.mixAt < t.layOnAt ? [[t.mixAt, 'mix'] as [number, string]] : []),
+    [t.layOnAt, 'lay on'],
+    [t.secondCoatAt, 'second coat'],
+    [t.trowelUpAt, 'trowel up'],
+    [t.doneAt, 'trowelled up'],
+  ]
+  return steps.map(([at, words]) => `${clockTime(at)} ${words}`)
 }
