@@ -147,7 +147,7 @@ export function setWaits(sets: readonly TimelineSet[], corners: readonly PlanCor
       for (const e of tasksOf.get(t.surfaceId) ?? []) {
         if (e.set >= s.number || e.action === 'skim') continue
         if (e.action === 'fill' && t.action === 'fill') continue
-        add(s.number, e.set, `the ${ACTION[e.action] ?? e.action} on ${name(t.surfaceId)} in set ${e.set} must go off first`)
+        add(s.number, e.set, `the ${ACTION[e.action] ?? e.action} on ${name(t.surfaceId)} is under a later coat`)
       }
     }
   }
@@ -160,11 +160,11 @@ export function setWaits(sets: readonly TimelineSet[], corners: readonly PlanCor
       const ret = face === c.a ? c.b : c.a
       const fs = skimIn.get(face)
       const rs = skimIn.get(ret)
-      if (fs !== undefined && rs !== undefined) add(rs, fs, `the packed-out bead's face (${name(face)}) in set ${fs} must hold before its return`)
+      if (fs !== undefined && rs !== undefined) add(rs, fs, `the packed-out bead's face (${name(face)}) holds the bead for its return`)
     }
     if (c.dryCorner) {
       const [first, then, id] = a < b ? [a, b, c.a] : [b, a, c.b]
-      add(then, first, `the corner is worked against ${name(id)} in set ${first} once it has gone off`)
+      add(then, first, `the difficult corner is worked against ${name(id)} once it has set`)
     }
   }
   for (const list of out.values()) list.sort((x, y) => x.set - y.set)

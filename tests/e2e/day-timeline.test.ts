@@ -60,6 +60,20 @@ describe('the day to time', () => {
     expect(await page.getByRole('button', { name: 'Print' }).isVisible()).toBe(false)
     await screenshot(page, 'day-timeline-sheet-print')
     await page.emulateMedia({ media: 'screen' })
+
+    // the demo job (seeds/job.ts): two people today, so a bar each, and the job page's card on the phone
+    const demo = (await api.get('/api/jobs')).body.find((j: any) => /living room/i.test(j.title))
+    expect(demo, 'the demo job').toBeTruthy()
+    await visit(page, `${e2e.url}/jobs/${demo.id}/sheet?day=${today}`)
+    const demoDay = page.getByTestId(`sheet-day-${today}`).getByTestId('day-timeline')
+    await expectVisible(demoDay)
+    expect(await demoDay.locator('[data-testid^="timeline-person-"]').count()).toBe(2)
+    await demoDay.scrollIntoViewIfNeeded()
+    await screenshot(page, 'day-timeline-demo-sheet-phone')
+    await visit(page, `${e2e.url}/jobs/${demo.id}`)
+    await expectVisible(page.getByTestId('job-timeline').getByTestId('day-timeline'))
+    await page.getByTestId('job-timeline').scrollIntoViewIfNeeded()
+    await screenshot(page, 'day-timeline-demo-job-phone')
     expectCleanRun(kieran)
 
     // the office on a laptop: the job page shows today's timeline, and the half day tomorrow on a tap

@@ -68,7 +68,7 @@ describe('setWaits: which earlier sets a set waits for (common practice)', () =>
 
   it('says why in words, naming the surface', () => {
     const w = setWaits([set(1, ['A', 'fill']), set(2, ['A', 'skim'])], [], { A: 'Box room · Wall 1' }).get(2)!
-    expect(w).toEqual([{ set: 1, why: 'the patch fill on Box room · Wall 1 in set 1 must go off first' }])
+    expect(w).toEqual([{ set: 1, why: 'the patch fill on Box room · Wall 1 is under a later coat' }])
   })
 })
 
