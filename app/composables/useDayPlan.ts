@@ -4,7 +4,7 @@
 import { londonDay } from '#shared/utils/dates'
 import { planDays } from '#shared/utils/day-plan'
 import { setProgress } from '#shared/utils/set-log'
-import { setWaits } from '#shared/utils/set-timeline'
+import { clockTime, DEFAULT_TIMING, setWaits } from '#shared/utils/set-timeline'
 
 type Job = ApiResponse<'/api/jobs/:id'>
 
@@ -21,7 +21,17 @@ export function useDayPlan(job: Ref<Job | null | undefined>) {
     }))
     const waits = setWaits(j.plan.plan.sets, j.plan.inputs.corners, j.plan.labels)
     const sets = j.plan.plan.sets.map(s => ({ number: s.number, bags: s.bags, waits: waits.get(s.number) ?? [] }))
-    return planDays(j.days, sets, { bagsPerPersonPerSet: j.planOptions.bagsPerPersonPerSet, timing: j.timing }, logged, today)
+    const each = j.planOptions.bagsPerPersonPerSet
+    try {
+      return planDays(j.days, sets, { bagsPerPersonPerSet: each, timing: j.timing }, logged, today)
+    }
+    catch (err) {
+      // the firm's figures out of range (the settings page checks them, but a sheet must still open)
+      if (!(err instanceof RangeError) || !/^timing\./.test(err.message)) throw err
+      const plan = planDays(j.days, sets, { bagsPerPersonPerSet: each, timing: DEFAULT_TIMING }, logged, today)
+      plan.warnings.unshift(`The firm's figures for the working day do not add up: the times below use ${clockTime(DEFAULT_TIMING.dayStartMinutes)} to ${clockTime(DEFAULT_TIMING.dayEndMinutes)}, ${DEFAULT_TIMING.mixMinutes} minutes a mix and ${DEFAULT_TIMING.goOffMinutes} to go off. Check them in Settings.`)
+      return plan
+    }
   })
   return { plan, today }
 }

@@ -36,6 +36,9 @@ import type { PlanCorner } from './set-plan'
 /** The firm's figures (the price book; GET /api/jobs/:id `timing`). Minutes; the day's from midnight. */
 export interface DayTiming { mixMinutes: number, goOffMinutes: number, dayStartMinutes: number, dayEndMinutes: number }
 
+/** The price book's defaults (migration 0026): what the timeline falls back to when the firm's figures do not make sense. */
+export const DEFAULT_TIMING: DayTiming = { mixMinutes: 15, goOffMinutes: 105, dayStartMinutes: 480, dayEndMinutes: 990 }
+
 /** Bags in one mix (from memory: a bag to a tub). */
 export const BAGS_A_MIX = 1
 /** Minutes to lay on a bag's worth of first coat, for one person (from memory). */

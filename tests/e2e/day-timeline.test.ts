@@ -16,7 +16,7 @@ describe('the day to time', () => {
   it('the day sheet shows a timeline per person with the times, on a phone and printed; the job page shows today\'s and the next day\'s', async () => {
     const api = new Client(e2e.url)
     await api.post('/api/auth/sign-in', { email: OWNER.email, password: OWNER.password })
-    const { jobId, today } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name)
+    const { jobId, today } = await jobBookedToday(api, e2e.app, e2e.url, CREW.name, 'Maud Linthwaite')
     // the crew member today, and tomorrow for half a day
     const crewId = (await api.get('/api/members')).body.find((m: any) => m.name === CREW.name).userId as string
     const tomorrow = addDays(today, 1)
