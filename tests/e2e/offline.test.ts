@@ -208,7 +208,7 @@ describe('working with no signal', () => {
     finally {
       await tidy(api, [visitId])
     }
-  })
+  }, 150_000)
 
   it('a room the office changed while the phone had no signal shows both versions; keep mine saves mine over theirs', async () => {
     const api = await ownerApi()
