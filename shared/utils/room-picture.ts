@@ -508,13 +508,16 @@ export function roomPicture(room: PictureRoom, plan: SetPlan, options: PictureOp
       const where = lanes.place(s.box.x + s.box.w / 2, textWidth(s.caption.text, size))
       s.caption = { ...s.caption, x: where.cx, y: start + where.line * lineH + size }
     }
-    for (const s of list) {
-      for (const m of s.marks.filter(k => k.outside)) {
-        const where = lanes.place(s.box.x + s.box.w / 2, m.box.w)
-        m.box = { ...m.box, x: where.cx - m.box.w / 2, y: start + where.line * lineH + (lineH - m.box.h) / 2 }
-      }
+    // marks with no room inside go under the captions, on lines as tall as the tallest of them
+    const below = start + lanes.lines.length * lineH + px(2)
+    const outside = list.flatMap(s => s.marks.filter(k => k.outside).map(m => ({ s, m })))
+    const markH = Math.max(0, ...outside.map(o => o.m.box.h)) + px(3)
+    const markLanes = new Lanes(0, viewW, px(4))
+    for (const { s, m } of outside) {
+      const where = markLanes.place(s.box.x + s.box.w / 2, m.box.w)
+      m.box = { ...m.box, x: where.cx - m.box.w / 2, y: below + where.line * markH }
     }
-    return start + lanes.lines.length * lineH
+    return below + markLanes.lines.length * markH
   }
 
   const sets = [...new Set(surfaces.map(s => s.setNumber).filter((n): n is number => n !== null).concat(surfaces.flatMap(s => s.marks.flatMap(m => m.setNumbers))))].sort((a, b) => a - b)

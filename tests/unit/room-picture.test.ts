@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { Box, PictureRoom, PictureRoomSurface, RoomPicture } from '../../shared/utils/room-picture'
-import { openingPlace, roomPicture } from '../../shared/utils/room-picture'
+import { openingPlace, roomPicture, textWidth } from '../../shared/utils/room-picture'
 import { planInputsFromRooms } from '../../shared/utils/set-plan-inputs'
 import { planSets, type SetPlan } from '../../shared/utils/set-plan'
 import { replan } from '../../shared/utils/plan-moves'
@@ -80,6 +80,8 @@ const skimSet = (plan: SetPlan, id: string) => plan.sets.find(s => s.tasks.some(
 
 const cases: [string, PictureRoom, number][] = [
   ['the demo living room (a chimney breast, a packed-out bead, a patch and a scrimmed gap)', livingRoom, 358],
+  ['the demo living room in a phone\'s card (322 px)', livingRoom, 322],
+  ['the demo living room on a laptop', livingRoom, 900],
   ['a bedroom with openings placed by hand and a narrow corner', bedroom, 358],
   ['a landing with a reveal and a strip joined to nothing', loose, 358],
   ['a hall of eight walls on a phone', hall, 358],
@@ -123,6 +125,19 @@ describe('roomPicture: what every picture keeps (our own layout)', () => {
       expect(s.caption.y).toBeLessThanOrEqual(pic.viewBox.y + pic.viewBox.h)
       expect(s.caption.x).toBeGreaterThanOrEqual(0)
       expect(s.caption.x).toBeLessThanOrEqual(pic.viewBox.w)
+    }
+    // what is written outside the surfaces (numbers under narrow ones, captions, marks with no room
+    // inside, corner tags) overlaps no surface and nothing else written outside
+    const captionBox = (t: { text: string, x: number, y: number, size: number }): Box => ({ x: t.x - textWidth(t.text, t.size) / 2, y: t.y - t.size, w: textWidth(t.text, t.size), h: t.size * 1.2 })
+    const written: [string, Box][] = [
+      ...pic.surfaces.filter(s => s.number.outside).map((s): [string, Box] => [`${s.name} number`, s.number.box]),
+      ...pic.surfaces.map((s): [string, Box] => [`${s.name} caption`, captionBox(s.caption)]),
+      ...pic.surfaces.flatMap(s => s.marks.filter(m => m.outside).map((m): [string, Box] => [`${s.name} ${m.label}`, m.box])),
+      ...pic.corners.flatMap(c => (c.tag ? [[`${c.label} tag`, c.tag.box] as [string, Box]] : [])),
+    ]
+    for (const [i, [what, b]] of written.entries()) {
+      for (const s of pic.surfaces) expect(overlap(b, s.box), `${what} on ${s.name}`).toBe(false)
+      for (const [other, c] of written.slice(i + 1)) expect(overlap(b, c), `${what} / ${other}`).toBe(false)
     }
     // the viewBox is as wide as the screen it was laid out for, in millimetres per pixel
     expect(pic.viewBox.w / pic.unit).toBeCloseTo(widthPx, 6)
