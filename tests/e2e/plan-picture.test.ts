@@ -3,6 +3,7 @@
 // warning and the new picture and list at once (nothing saved yet), then saved and still there
 // after a reload; the day sheet prints the picture (checked with print media, and in grey, where
 // only the patterns tell the sets apart). The demo job's moves are put back at the end.
+import { mkdirSync } from 'node:fs'
 import { writeFile } from 'node:fs/promises'
 import { join } from 'node:path'
 import sharp from 'sharp'
@@ -13,6 +14,12 @@ import { OWNER } from './demo'
 
 const e2e = useE2E()
 const DEMO_TITLE = 'Q-0001: Patch and skim the living room'
+
+function artefacts() {
+  const dir = process.env.SETWELL_ARTEFACTS ?? join(process.cwd(), 'tests/artefacts')
+  mkdirSync(dir, { recursive: true })
+  return dir
+}
 
 async function demoJob(api: Client) {
   const list = (await api.get('/api/jobs')).body
@@ -83,10 +90,14 @@ describe('the picture of a room', () => {
       await svg.locator(`[data-testid="pic-surface-${windowWall.id}"]`).tap()
       await expectVisible(chooser)
       await expectText(chooser.getByRole('heading'), 'Move Wall 1 (Window wall)')
-      await screenshot(page, 'plan-picture-chooser')
+      // the chooser is fixed to the screen: kept as the phone shows it, not the whole page
+      await page.screenshot({ path: join(artefacts(), 'plan-picture-chooser-phone.png') })
       await chooser.getByRole('button', { name: /^Set 1$/ }).click()
       await expectAbsent(chooser)
       await expect.poll(() => svg.locator(`[data-testid="pic-surface-${windowWall.id}"]`).getAttribute('data-set')).toBe('1')
+      // outlined and said to be moved, not saved
+      expect(await svg.locator(`[data-testid="pic-surface-${windowWall.id}"] [data-testid="pic-moved"]`).count()).toBe(1)
+      await expectVisible(page.getByRole('button', { name: 'Wall 1 (Window wall), set 1 (moved, not saved yet), tap to move' }))
       await expectText(page.getByTestId('plan-warnings'), /Wall 1 \(Window wall\)/)
       await expectText(page.getByTestId('plan-warnings'), /fill|patch|tight/i)
       // the list says the same: the skim is in set 1's card now, and the move is not saved yet
@@ -138,7 +149,7 @@ describe('the picture of a room', () => {
       await sharp(shot).grayscale().toFile(shot.replace(/\.png$/, '-grey.png'))
       const pdf = await page.pdf({ format: 'A4', printBackground: true })
       expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
-      await writeFile(join(process.env.SETWELL_ARTEFACTS ?? join(process.cwd(), 'tests/artefacts'), 'day-sheet-picture.pdf'), pdf)
+      await writeFile(join(artefacts(), 'day-sheet-picture.pdf'), pdf)
       await page.emulateMedia({ media: 'screen' })
       expectCleanRun(jess)
     }
