@@ -151,6 +151,10 @@ describe('the picture of a room', () => {
       expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
       await writeFile(join(artefacts(), 'day-sheet-picture.pdf'), pdf)
       await page.emulateMedia({ media: 'screen' })
+      // the demo quote's PDF carries the same picture on its "How we'll do the work" page (kept to look at)
+      const quotePdf = await page.request.get(`${e2e.url}/quotes/${job.quoteId}/pdf`)
+      expect(quotePdf.status()).toBe(200)
+      await writeFile(join(artefacts(), 'quote-how-we-work.pdf'), await quotePdf.body())
       expectCleanRun(jess)
     }
     finally {
