@@ -20,7 +20,8 @@ import { newId } from '~/utils/ids'
 export type SavedRoom = Room & { id: string, visitId: string, updatedAt: string, totals: RoomTotals }
 
 // Figures stay the strings people type until they are sent: "2.4" must not turn into "2.40" under their thumb.
-export interface DraftOpening { id: string, kind: OpeningKind, width: string, height: string }
+/** fromLeft / fromFloor: where it is, when known (empty: drawn centred); drafts kept before they existed have none. */
+export interface DraftOpening { id: string, kind: OpeningKind, width: string, height: string, fromLeft?: string, fromFloor?: string }
 export interface DraftCondition { id: string, kind: ConditionKind, area: string, length: string, outOfTrue: string, scrimmed: boolean, notes: string }
 export interface DraftSurface {
   id: string
@@ -113,7 +114,7 @@ export function fromSaved(saved: SavedRoom): DraftRoom {
       second: metresInput(s.secondMm),
       background: s.background,
       notes: s.notes,
-      openings: s.openings.map(o => ({ id: o.id, kind: o.kind, width: metresInput(o.widthMm), height: metresInput(o.heightMm) })),
+      openings: s.openings.map(o => ({ id: o.id, kind: o.kind, width: metresInput(o.widthMm), height: metresInput(o.heightMm), fromLeft: metresInput(o.fromLeftMm), fromFloor: metresInput(o.fromFloorMm) })),
       conditions: s.conditions.map(c => ({
         id: c.id,
         kind: c.kind,
@@ -140,6 +141,8 @@ export function fromSaved(saved: SavedRoom): DraftRoom {
 /** The body for PUT, before validation: a figure that does not read as metres is sent as null, which roomSchema names. */
 export function toBody(room: DraftRoom) {
   const m = (s: string) => (s.trim() === '' ? null : parseMetres(s))
+  // an optional distance: empty is null (not known); one that does not read as metres is -1, which roomSchema names
+  const optional = (s: string | undefined) => (!s?.trim() ? null : parseMetres(s) ?? -1)
   return {
     revision: room.revision,
     name: room.name,
@@ -153,7 +156,7 @@ export function toBody(room: DraftRoom) {
       secondMm: m(s.second),
       background: s.background,
       notes: s.notes,
-      openings: s.openings.map(o => ({ id: o.id, kind: o.kind, widthMm: m(o.width), heightMm: m(o.height) })),
+      openings: s.openings.map(o => ({ id: o.id, kind: o.kind, widthMm: m(o.width), heightMm: m(o.height), fromLeftMm: optional(o.fromLeft), fromFloorMm: optional(o.fromFloor) })),
       conditions: s.conditions.map((c) => {
         const f = CONDITION_FIELDS[c.kind]
         return {

@@ -3,19 +3,43 @@
 // (the shipped fonts, no URL fetched, nothing outside the file).
 import type { H3Event } from 'h3'
 import { quotes, type quoteVersions } from '../db/schema'
+import { planPictures, type RoomPicture } from '#shared/utils/room-picture'
+import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
+import { planSets } from '#shared/utils/set-plan'
 import { AMBER, GREEN, formatUkDate, makePdf, sendPdf } from '../pdf/document'
+import { drawRoomPicture } from '../pdf/room-picture'
 import { publicQuoteView } from './public-quote'
 import { currentVersion } from './quotes'
 
-export type QuotePdfView = Awaited<ReturnType<typeof publicQuoteView>> & { issuedAt: Date | string | null }
+export type QuotePdfView = Awaited<ReturnType<typeof publicQuoteView>> & { issuedAt: Date | string | null, pictures?: RoomPicture[] }
 
 const QUANTITIES_NOTE = 'Quantities are rules of thumb from the site measurements: they are estimates, checked on the day.'
 
 /** The customer's view of a quote version, with the date it was issued (sent, or drafted). */
 export async function quotePdfView(f: FirmScope, quote: typeof quotes.$inferSelect, version: typeof quoteVersions.$inferSelect): Promise<QuotePdfView> {
   const view = await publicQuoteView(f, quote, version)
-  return { ...view, issuedAt: version.sentAt ?? version.createdAt }
+  return { ...view, issuedAt: version.sentAt ?? version.createdAt, pictures: quote.visitId ? await workPictures(f, quote.visitId) : [] }
 }
+
+/** The measured rooms drawn with the sets the planner would make (the firm's figures, one person): "How we'll do the work". */
+async function workPictures(f: FirmScope, visitId: string): Promise<RoomPicture[]> {
+  const rooms = await loadRooms(f, visitId)
+  if (!rooms.length) return []
+  const book = await usePriceBook(f)
+  try {
+    const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
+    const plan = planSets(inputs.surfaces, inputs.corners, { ...(await defaultPlanOptions(f)), ceilingsFirst: book.ceilingsFirst }, inputs.labels)
+    // laid out for the page's width in points (A4 less the margins), no taller than about half a page
+    return planPictures(rooms, plan, { labels: inputs.labels, corners: inputs.corners, widthPx: 495, maxHeightPx: 360 })
+  }
+  catch (err) {
+    // a room the planner cannot read leaves the page out; the quote itself is still drawn
+    if (err instanceof RangeError) return []
+    throw err
+  }
+}
+
+const WORK_WORDS = 'We mix and lay on the plaster in batches called sets: each set is mixed, spread and trowelled smooth before it starts to harden. Below, each room is opened out flat: every wall and ceiling with the number of the set it is finished in. Patches are filled and gaps taped in earlier sets, so the finish dries evenly. On the day we may change the order to suit the room.'
 
 /** The same view for the firm, of a quote's current version (404 for another firm's quote). */
 export async function quoteViewForFirm(f: FirmScope, quoteId: string) {
@@ -63,6 +87,12 @@ export async function renderQuotePdf(view: QuotePdfView): Promise<Buffer> {
     if (view.notes) {
       pdf.heading('Notes')
       pdf.para(view.notes)
+    }
+    if (view.pictures?.length) {
+      pdf.doc.addPage()
+      pdf.heading('How we\'ll do the work')
+      pdf.para(WORK_WORDS)
+      for (const pic of view.pictures) drawRoomPicture(pdf, pic)
     }
     pdf.footer(title, firm.tradingName)
   })

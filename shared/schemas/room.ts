@@ -17,8 +17,8 @@ export const openingSchema = z.object({
   widthMm: mm('width', 10_000),
   heightMm: mm('height', 10_000),
   /** Where it is, when it was measured: from the surface's left end, and from the floor (null: drawn centred). */
-  fromLeftMm: z.int({ error: 'Enter the distance in metres.' }).min(0).max(100_000, { error: 'That distance looks too big.' }).nullable().default(null),
-  fromFloorMm: z.int({ error: 'Enter the distance in metres.' }).min(0).max(20_000, { error: 'That distance looks too big.' }).nullable().default(null),
+  fromLeftMm: z.int({ error: 'Enter the distance in metres.' }).min(0, { error: 'Type metres, like 0.60, or leave it empty.' }).max(100_000, { error: 'That distance looks too big.' }).nullable().default(null),
+  fromFloorMm: z.int({ error: 'Enter the distance in metres.' }).min(0, { error: 'Type metres, like 0.90, or leave it empty.' }).max(20_000, { error: 'That distance looks too big.' }).nullable().default(null),
 })
 
 export const conditionSchema = z.object({

@@ -115,6 +115,12 @@ describe('the PDF of a quote', () => {
     expect(text).toMatch(/£\d/)
     expect(text).toContain('Quantities are rules of thumb from the site measurements')
     expect(text).toContain('Every opening is deducted')
+    // "How we'll do the work": the measured room drawn with its sets, each surface's set number written on it
+    const work = text.slice(text.indexOf('How we\'ll do the work'))
+    expect(work.length).toBeLessThan(text.length)
+    expect(work).toContain('Front room')
+    expect(work).toMatch(/\bWall\b/)
+    expect(work).toContain('Ceiling')
     for (const caution of q.current.cautions) expect(text).toContain(caution.replace(/\s+/g, ' '))
     expect(text).not.toMatch(/reverse charge/i)
     // no producer or author but ours; no link to fetch anything

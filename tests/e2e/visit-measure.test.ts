@@ -126,6 +126,17 @@ describe('measuring a room on a site visit', () => {
     await expectVisible(page.getByTestId('asbestos-caution'))
     expect(await savedRooms()).toEqual([])
 
+    // where the window is, when known: 3.00 m from the left end runs the 1.20 m window past the
+    // 4.00 m wall, and the check says so beside the field; 0.50 m is kept
+    const placed = page.getByTestId('room-editor').getByTestId('surface-card').nth(0).getByTestId('opening').nth(0)
+    await placed.getByLabel('From the left end (m)').fill('3.00')
+    await placed.getByLabel('From the floor (m)').fill('0.90')
+    await page.getByRole('button', { name: 'Save room' }).click()
+    await expectText(placed.getByRole('alert'), 'The opening runs past the end of the surface.')
+    expect(await placed.getByLabel('From the left end (m)').getAttribute('aria-invalid')).toBe('true')
+    expect(await savedRooms()).toEqual([])
+    await placed.getByLabel('From the left end (m)').fill('0.50')
+
     await page.getByRole('button', { name: 'Save room' }).click()
     await expectText(page.getByRole('status').filter({ hasText: 'saved:' }), 'Back bedroom saved: 27.60 m².')
     const card = page.getByTestId('room-card').filter({ hasText: 'Back bedroom' })
@@ -136,7 +147,7 @@ describe('measuring a room on a site visit', () => {
     const [saved] = await savedRooms()
     expect(saved).toMatchObject({ name: 'Back bedroom', revision: 1, totals: { wallsCm2: 156_000, ceilingsCm2: 120_000, totalCm2: 276_000 } })
     expect(saved.surfaces.map((s: any) => [s.kind, s.lengthMm, s.secondMm])).toEqual([['wall', 4000, 2400], ['wall', 3000, 2400], ['ceiling', 4000, 3000]])
-    expect(saved.surfaces[0].openings).toMatchObject([{ kind: 'window', widthMm: 1200, heightMm: 1000 }])
+    expect(saved.surfaces[0].openings).toMatchObject([{ kind: 'window', widthMm: 1200, heightMm: 1000, fromLeftMm: 500, fromFloorMm: 900 }])
     expect(saved.surfaces[0].conditions).toMatchObject([{ kind: 'patch-masonry', areaCm2: 5000 }])
     expect(saved.surfaces[2].conditions).toMatchObject([{ kind: 'textured-coating', areaCm2: null }])
 
