@@ -509,26 +509,106 @@ function buildGraph(m: Model): Graph {
 }
 
 /**
- * The fewest sets any plan that keeps the rules can have: the larger of the longest chain of
- * "must be in an earlier set" steps (a difficult corner counts as a step: one of its two faces
- * must be earlier, whichever it is) and the bags over what one set takes, rounded up, an
- * oversized skim counting a set of its own. 0 for nothing to plan.
+ * The fewest sets any plan that keeps the rules can have: the larger of
+ * - the longest chain of "must be in an earlier set" steps (a difficult corner counts as a step:
+ *   one of its two faces must be earlier, whichever it is), and
+ * - the bags over what one set takes, rounded up, an oversized skim counting a set of its own;
+ *   counted as bin packing counts it (Martello and Toth's bound L2), which is never less: two
+ *   tasks of more than half a set cannot share one, so with sets of 2 bags three walls of 1.2
+ *   bags need three sets, not ceil(3.6 / 2) = 2.
+ * 0 for nothing to plan.
  */
 function lowerBound(g: Graph, m: Model): number {
   if (g.surface.length === 0) return 0
-  const cap = m.capTenths
-  let rest = 0
-  let alone = 0
   let chain = 1
-  g.tenths.forEach((b, t) => {
-    if (b > cap) alone += 1
-    else rest += b
+  g.tenths.forEach((_, t) => {
     chain = Math.max(chain, g.level[t]! + g.tail[t]!)
     for (const d of g.apart[t]!) {
       if (d > t) chain = Math.max(chain, Math.min(g.level[t]! + 1 + g.tail[d]!, g.level[d]! + 1 + g.tail[t]!))
     }
   })
-  return Math.max(chain, alone + Math.ceil(rest / cap))
+  let best = Math.max(chain, binsNeeded(g.tenths, m.capTenths))
+  // Both together: everything that must be no earlier than a task t sits in sets from t's level
+  // on, so the sets are at least level - 1 plus what those tasks need packed on their own; and
+  // the same the other way round with what must be no later than t, and t's tail. Worked out
+  // within a budget of steps (a big job gets a weaker bound, never a wrong one).
+  const stamp = new Int32Array(g.surface.length)
+  let visit = 0
+  let budget = BOUND_STEPS
+  const reach = (t: number, next: number[][], weak: number[][]): number[] | null => {
+    visit += 1
+    stamp[t] = visit
+    const stack = [t]
+    const out: number[] = []
+    while (stack.length) {
+      const x = stack.pop()!
+      out.push(g.tenths[x]!)
+      if (--budget < 0) return null
+      for (const list of [next[x]!, weak[x]!]) {
+        for (const y of list) {
+          if (stamp[y] !== visit) {
+            stamp[y] = visit
+            stack.push(y)
+          }
+        }
+      }
+    }
+    return out
+  }
+  for (let t = 0; t < g.surface.length && budget > 0; t++) {
+    if (g.succs[t]!.length || g.wsuccs[t]!.length) {
+      const later = reach(t, g.succs, g.wsuccs)
+      if (later) best = Math.max(best, g.level[t]! - 1 + binsNeeded(later, m.capTenths))
+    }
+    if (g.preds[t]!.length || g.wpreds[t]!.length) {
+      const earlier = reach(t, g.preds, g.wpreds)
+      if (earlier) best = Math.max(best, g.tail[t]! + binsNeeded(earlier, m.capTenths))
+    }
+  }
+  return best
+}
+
+/** The most steps `lowerBound` takes to put chains and bags together. */
+const BOUND_STEPS = 200_000
+
+/**
+ * Martello and Toth's lower bound L2 for packing sizes into bins of `cap` (all whole tenths; a size
+ * over cap counts a bin of its own). For each a from 0 to cap/2: the sizes over cap - a each need a
+ * bin; those over cap/2 each need one too and leave cap - size free in it; the sizes from a to cap/2
+ * then need what they do not fit in that free room, over cap. The largest over a is the bound; at
+ * a = 0 it is at least the bags over cap, rounded up.
+ */
+function binsNeeded(tenths: readonly number[], cap: number): number {
+  const w = [...tenths].sort((x, y) => x - y)
+  const n = w.length
+  const prefix = new Array<number>(n + 1).fill(0)
+  for (let i = 0; i < n; i++) prefix[i + 1] = prefix[i]! + w[i]!
+  /** How many sizes are at most x. */
+  const atMost = (x: number): number => {
+    let lo = 0
+    let hi = n
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1
+      if (w[mid]! <= x) lo = mid + 1
+      else hi = mid
+    }
+    return lo
+  }
+  const half = Math.floor(cap / 2)
+  const iHalf = atMost(half)
+  let best = 0
+  const candidates = [0, ...new Set(w.filter(x => x > 0 && x <= half))]
+  for (const a of candidates) {
+    const iBig = atMost(cap - a)
+    const n1 = n - iBig
+    const n2 = iBig - iHalf
+    const free = n2 * cap - (prefix[iBig]! - prefix[iHalf]!)
+    const iA = atMost(a - 1)
+    const small = prefix[iHalf]! - prefix[iA]!
+    const bound = n1 + n2 + Math.max(0, Math.ceil((small - free) / cap))
+    if (bound > best) best = bound
+  }
+  return best
 }
 
 /**
@@ -692,6 +772,90 @@ function balanced(g: Graph, order: number[], cap: number, k: number): Packing | 
   return pk
 }
 
+/**
+ * Each task into the first set it may go in that has room, among exactly k sets (leaving room after
+ * it for the sets its followers need); an oversized skim only into an empty set; null when one
+ * does not fit. Where the balanced packing leaves gaps it cannot fill, this one packs tight.
+ */
+function firstInK(g: Graph, order: number[], cap: number, k: number): Packing | null {
+  const pk: Packing = { setOf: new Int32Array(g.surface.length).fill(-1), load: new Array<number>(k).fill(0), count: new Array<number>(k).fill(0) }
+  const tree = new MinTree(k)
+  for (let j = 0; j < k; j++) tree.set(j, 0)
+  for (const t of order) {
+    const b = g.tenths[t]!
+    hideApart(g, pk.setOf, tree, t)
+    const j = tree.firstAtMost(earliest(g, pk.setOf, t), k - 1 - g.tail[t]!, b > cap ? 0 : 2 * (cap - b) + 1)
+    tree.restore()
+    if (j < 0) return null
+    place(g, pk, t, j)
+    tree.set(j, 2 * pk.load[j]! + 1)
+  }
+  return pk
+}
+
+/**
+ * A search with a step budget for a packing into exactly k sets: each task in turn (in `order`)
+ * into each set it may go in that has room, backing up when one cannot go anywhere. Null when
+ * there is none, or none found within `budget` steps. For a house-sized job above the bound, where
+ * the greedy packings leave a set too many.
+ */
+function searchK(g: Graph, order: number[], cap: number, k: number, budget: number): Packing | null {
+  const n = order.length
+  const pk: Packing = { setOf: new Int32Array(g.surface.length).fill(-1), load: new Array<number>(k).fill(0), count: new Array<number>(k).fill(0) }
+  const after = new Array<number>(n + 1).fill(0)
+  for (let i = n - 1; i >= 0; i--) after[i] = after[i + 1]! + Math.min(g.tenths[order[i]!]!, cap)
+  let steps = 0
+  /** The room the sets have left, kept as tasks come and go. */
+  let room = k * cap
+  const roomIn = (j: number): number => Math.max(0, cap - pk.load[j]!)
+  const fits = (t: number, j: number): boolean => {
+    const b = g.tenths[t]!
+    if (b > cap ? pk.count[j]! > 0 : pk.load[j]! + b > cap) return false
+    if (pk.load[j]! > cap) return false
+    for (const d of g.apart[t]!) if (pk.setOf[d] === j) return false
+    for (const s of g.wsuccs[t]!) if (pk.setOf[s]! >= 0 && pk.setOf[s]! < j) return false
+    return true
+  }
+  const go = (i: number): boolean => {
+    if (i === n) return true
+    if (++steps > budget) return false
+    // what is left must fit in the room the sets have left
+    if (after[i]! > room) return false
+    const t = order[i]!
+    const hi = k - 1 - g.tail[t]!
+    // the fullest set it fits in first (best fit), then the emptier ones
+    const choices: number[] = []
+    for (let j = earliest(g, pk.setOf, t); j <= hi; j++) if (fits(t, j)) choices.push(j)
+    choices.sort((x, y) => pk.load[y]! - pk.load[x]! || x - y)
+    for (const j of choices) {
+      const before = room
+      room -= roomIn(j)
+      place(g, pk, t, j)
+      room += roomIn(j)
+      if (go(i + 1)) return true
+      pk.setOf[t] = -1
+      pk.load[j]! -= g.tenths[t]!
+      pk.count[j]! -= 1
+      room = before
+      if (steps > budget) return false
+    }
+    return false
+  }
+  return go(0) ? pk : null
+}
+
+/** mulberry32: a small generator of numbers in [0, 1) from a seed, the same every time. */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0
+  return () => {
+    a = (a + 0x6D2B79F5) >>> 0
+    let t = a
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296
+  }
+}
+
 /** Drops empty sets and numbers the rest 0.. in order. */
 function compact(pk: Packing): Packing {
   const map = new Int32Array(pk.load.length).fill(-1)
@@ -786,6 +950,10 @@ function mayGo(g: Graph, pk: Packing, t: number, j: number, other: number, other
   return true
 }
 
+/** Jobs up to this many tasks are searched (within SEARCH_STEPS steps) when the greedy packings stay above the bound. */
+const SEARCH_UP_TO = 300
+const SEARCH_STEPS = 20_000
+
 /** Jobs up to this many tasks also try swaps between the heaviest (or lightest) set and every other. */
 const WIDE_SWAPS_UP_TO = 600
 
@@ -859,9 +1027,13 @@ function pack(g: Graph, m: Model): Packing {
   let lo = Math.max(lowerBound(g, m), 1)
   let hi = ff.load.length - 1
   let best: Packing | null = null
+  const tryK = (k: number): Packing | null => balanced(g, order, cap, k) ?? firstInK(g, order, cap, k)
+  // the bound and the few sets above it one by one (where most plans are), then halving the rest
+  for (const stop = Math.min(hi, lo + 2); lo <= stop && !best; lo++) best = tryK(lo)
+  if (best) hi = -1
   while (lo <= hi) {
     const mid = Math.floor((lo + hi) / 2)
-    const p = balanced(g, order, cap, mid)
+    const p = tryK(mid)
     if (p) {
       best = p
       hi = mid - 1
@@ -871,6 +1043,36 @@ function pack(g: Graph, m: Model): Packing {
     }
   }
   let pk = compact(best ?? balanced(g, order, cap, ff.load.length) ?? ff)
+  // Still above the bound: try again one set fewer with the tasks of each level in other orders
+  // (shuffled by a fixed-seed generator, so the same job always gives the same plan), a few dozen
+  // times on a house, a few on an estate.
+  const bound = Math.max(lowerBound(g, m), 1)
+  const tries = order.length <= 400 ? 60 : order.length <= 4000 ? 4 : 0
+  const rand = mulberry32(0x5e7)
+  for (let i = 0; i < tries && pk.load.length > bound; i++) {
+    const key = new Float64Array(order.length)
+    for (let t = 0; t < key.length; t++) key[t] = rand()
+    const first = (t: number): number => (g.wsuccs[t]!.length ? 0 : 1)
+    // every other try keeps the tightest tasks (longest tail) first within a level
+    const tight = i % 2 === 0 ? 1 : 0
+    const shuffled = [...order].sort((x, y) => g.level[x]! - g.level[y]! || tight * (g.tail[y]! - g.tail[x]!) || first(x) - first(y) || key[x]! - key[y]!)
+    const k = pk.load.length - 1
+    const p = firstInK(g, shuffled, cap, k) ?? balanced(g, shuffled, cap, k)
+    if (p) pk = compact(p)
+  }
+  // a house still above the bound: a search with a step budget, one set fewer at a time
+  if (order.length <= SEARCH_UP_TO && pk.load.length > bound) {
+    // the planner's order, then the biggest first within a level (as bin packing is searched)
+    const first = (t: number): number => (g.wsuccs[t]!.length ? 0 : 1)
+    const biggest = [...order].sort((x, y) => g.level[x]! - g.level[y]! || first(x) - first(y) || g.tenths[y]! - g.tenths[x]! || x - y)
+    for (const o of [order, biggest]) {
+      while (pk.load.length > bound) {
+        const p = searchK(g, o, cap, pk.load.length - 1, SEARCH_STEPS)
+        if (!p) break
+        pk = compact(p)
+      }
+    }
+  }
   for (let round = 0; round < 50; round++) {
     mergeNeighbours(g, pk, cap)
     pk = compact(pk)
