@@ -7,6 +7,7 @@ import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, RE
 import { londonDay } from '#shared/utils/dates'
 import { mayChangeLog } from '#shared/utils/set-log'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
+import { undercoatTakeoff } from '#shared/utils/materials'
 import { planSets, type PlanCorner, type PlanSurface } from '#shared/utils/set-plan'
 import { replan } from '#shared/utils/plan-moves'
 import { invoiceTotals } from '#shared/utils/tax'
@@ -113,7 +114,9 @@ export async function jobPlan(f: FirmScope, job: JobRow) {
     }
   }
   const rooms = await loadRooms(f, job.visitId)
-  const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
+  // the fill and undercoat bags from the quote's own take-off: the catalogue's undercoat at the estimate's thickness, plus the firm's waste
+  const takeoff = undercoatTakeoff(await catalogue(f), { wastePercent: book.materialsWastePercent })
+  const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 }, takeoff)
   // options stored before the floor (or written by hand) are raised to it, with a warning, never a 500
   const { options: safe, warnings: optionWarnings } = safePlanOptions(job.planOptions)
   const options = { ...safe, ceilingsFirst: book.ceilingsFirst }

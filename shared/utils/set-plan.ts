@@ -60,8 +60,8 @@ export interface PlanOptions {
   ceilingsFirst?: boolean
 }
 /** What a task does: a patch fill, an undercoat over the whole surface, a thin tight coat over scrim, or the skim. */
-export type PlanAction = 'fill' | 'undercoat' | 'tight-coat' | 'skim'
-export const PLAN_ACTIONS: readonly PlanAction[] = ['fill', 'undercoat', 'tight-coat', 'skim']
+export const PLAN_ACTIONS = ['fill', 'undercoat', 'tight-coat', 'skim'] as const
+export type PlanAction = (typeof PLAN_ACTIONS)[number]
 /** Each action in a word or two, for the screens. */
 export const PLAN_ACTION_WORDS: Record<PlanAction, string> = { 'fill': 'Fill', 'tight-coat': 'Tight coat', 'undercoat': 'Undercoat', 'skim': 'Skim' }
 export interface PlanTask { surfaceId: string, action: PlanAction, bags: number, reason: string }
@@ -825,7 +825,9 @@ function searchK(g: Graph, order: number[], cap: number, k: number, budget: numb
     const hi = k - 1 - g.tail[t]!
     // the fullest set it fits in first (best fit), then the emptier ones
     const choices: number[] = []
-    for (let j = earliest(g, pk.setOf, t); j <= hi; j++) if (fits(t, j)) choices.push(j)
+    const lo = earliest(g, pk.setOf, t)
+    steps += Math.max(0, hi - lo + 1)
+    for (let j = lo; j <= hi; j++) if (fits(t, j)) choices.push(j)
     choices.sort((x, y) => pk.load[y]! - pk.load[x]! || x - y)
     for (const j of choices) {
       const before = room
@@ -1047,7 +1049,7 @@ function pack(g: Graph, m: Model): Packing {
   // (shuffled by a fixed-seed generator, so the same job always gives the same plan), a few dozen
   // times on a house, a few on an estate.
   const bound = Math.max(lowerBound(g, m), 1)
-  const tries = order.length <= 400 ? 60 : order.length <= 4000 ? 4 : 0
+  const tries = order.length <= 400 ? 24 : order.length <= 4000 ? 4 : 0
   const rand = mulberry32(0x5e7)
   for (let i = 0; i < tries && pk.load.length > bound; i++) {
     const key = new Float64Array(order.length)
@@ -1169,7 +1171,7 @@ function explain(m: Model, plan: SetPlan, moved: ReadonlySet<string>): SetPlan {
     const x = skimIn(s)
     return x === undefined ? surfaces[s]!.name : `${surfaces[s]!.name} (set ${x})`
   }
-  const wallsOf = (room: string): string => (room ? `the walls of ${room}` : 'the walls')
+  const wallsOf = (room: string, other: boolean): string => `the ${other ? 'other ' : ''}walls${room ? ` of ${room}` : ''}`
 
   const before = (s: number, action: 'fill' | 'undercoat' | 'tight-coat', j: number): string => {
     const k = nth(s, action)
@@ -1245,16 +1247,16 @@ function explain(m: Model, plan: SetPlan, moved: ReadonlySet<string>): SetPlan {
     if (sf.ceiling && m.ceilingsFirst) {
       const walls = rel.ceilingWalls[s]!.filter(w => skimIn(w) !== undefined)
       const earlierWalls = walls.filter(w => setOf(w) < j)
+      const overruled = rel.overruledWalls[s]!
       if (walls.length && !earlierWalls.length) {
         const first = walls.some(w => setOf(w) === j) ? 'first ' : ''
-        said.push(`Ceiling ${first}in set ${j}, before ${wallsOf(sf.room)}, so plaster dropped from it lands on walls not yet skimmed`)
+        said.push(`Ceiling ${first}in set ${j}, before ${wallsOf(sf.room, overruled.length > 0)}, so plaster dropped from it lands on walls not yet skimmed`)
       }
       if (earlierWalls.length) {
         said.push(`Ceiling in set ${j}, after ${nameList(earlierWalls.map(named))}: the firm does ceilings first, so plaster dropped from them lands on walls not yet skimmed (${SEE})`)
       }
-      const overruled = rel.overruledWalls[s]!
       if (overruled.length) {
-        said.push(`Not before ${nameList(overruled.map(w => surfaces[w]!.name))} as the ceilings-first rule would have it: packed-out beads need ${overruled.length === 1 ? 'that surface' : 'those surfaces'} skimmed first, and that rule wins`)
+        said.push(`Not before ${nameList(overruled.map(w => surfaces[w]!.name))}: packed-out beads need ${overruled.length === 1 ? 'that surface' : 'those surfaces'} skimmed first, and that rule wins over ceilings first`)
       }
     }
     const rules = said.length - (moved.has(sf.id) ? 1 : 0)
