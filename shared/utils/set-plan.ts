@@ -1267,10 +1267,10 @@ function explain(m: Model, plan: SetPlan, moved: ReadonlySet<string>): SetPlan {
         : `In set ${j} with other work, though at ${fmtTenths(sf.skimTenths)} bags it is more than ${peopleText(m.people)} can lay on and trowel in one set (${fmtTenths(cap)}) (${SEE})`)
     }
     else if (over) {
-      said.push(`Set ${j} now holds ${fmtTenths(load)} bags, more than ${peopleText(m.people)} can lay on and trowel (${fmtTenths(cap)}) (${SEE})`)
+      said.push(`In set ${j}, which now holds ${fmtTenths(load)} bags, more than ${peopleText(m.people)} can lay on and trowel (${fmtTenths(cap)}) (${SEE})`)
     }
     else if (moved.has(sf.id)) {
-      said[0] = `${said[0]} (${fmtTenths(load)} of ${fmtTenths(cap)} bags in the set)`
+      if (rules === 0) said[0] = `${said[0]} (${fmtTenths(load)} of ${fmtTenths(cap)} bags in the set)`
     }
     else if (rules === 0) {
       const room = load < cap ? ' with room to spare' : ', which it fills'
