@@ -293,7 +293,7 @@ describe('applyMoves: properties of random moves on random plans (our product\'s
         expect(w).not.toMatch(/numbered|is empty|but its tasks add up to|gives no reason|not skimmed in any set|skimmed \d+ times/)
       }
     }), { numRuns: 500 })
-  })
+  }, 60_000)
 
   it('moving every surface to the set it is in changes nothing', () => {
     fc.assert(fc.property(roomArb, ({ surfaces, corners, options }) => {
@@ -301,7 +301,7 @@ describe('applyMoves: properties of random moves on random plans (our product\'s
       const stay = Object.fromEntries(surfaces.map(s => [s.id, skimSet(plan, s.id)]))
       expect(applyMoves(plan, stay)).toEqual(plan)
     }), { numRuns: 200 })
-  })
+  }, 60_000)
 })
 
 describe('plannerSetNumber', () => {

@@ -652,7 +652,7 @@ describe('planSets: properties of every plan', () => {
       const plan = planSets(room.surfaces, room.corners, room.options)
       expect(broken(room, plan)).toEqual([])
     }), { numRuns: 600 })
-  })
+  }, 60_000)
 
   it('checkPlan finds nothing wrong with a fresh plan but the oversized-skim warnings', () => {
     fc.assert(fc.property(roomArb, (room) => {
@@ -662,7 +662,7 @@ describe('planSets: properties of every plan', () => {
         expect(plan.warnings).toContain(w)
       }
     }), { numRuns: 400 })
-  })
+  }, 60_000)
 
   it('the same input gives the same plan, and the input is not changed', () => {
     fc.assert(fc.property(roomArb, (room) => {
@@ -671,13 +671,13 @@ describe('planSets: properties of every plan', () => {
       expect(room).toEqual(before)
       expect(planSets(before.surfaces, before.corners, before.options)).toEqual(plan)
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 
   it('no two neighbouring sets could be one (as few sets as the rules allow, pair by pair)', () => {
     fc.assert(fc.property(roomArb, (room) => {
       expect(mergeable(room, planSets(room.surfaces, room.corners, room.options))).toEqual([])
     }), { numRuns: 400 })
-  })
+  }, 60_000)
 
   it('plain rooms are balanced: the heaviest and lightest sets differ by no more than the smallest job in the heaviest', () => {
     const plainArb = fc.record({
@@ -692,7 +692,7 @@ describe('planSets: properties of every plan', () => {
       const smallest = Math.min(...heaviest.tasks.map(t => tenthsOf(t.bags)).filter(b => b > 0))
       expect(Math.max(...loads) - Math.min(...loads)).toBeLessThanOrEqual(smallest)
     }), { numRuns: 400 })
-  })
+  }, 60_000)
 
   it('moving a surface onto its difficult corner\'s set is caught by checkPlan', () => {
     fc.assert(fc.property(roomArb, (room) => {
@@ -708,7 +708,7 @@ describe('planSets: properties of every plan', () => {
         expect(said.some(w => w.includes('share a difficult corner') && mentions(w, c.a) && mentions(w, c.b))).toBe(true)
       }
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 
   it('a ring of packed beads warns and still plans, whatever else is in the room', () => {
     const ringArb = fc.record({ n: fc.integer({ min: 2, max: 8 }), extra: fc.array(cornersOf(IDS.slice(0, 8)), { maxLength: 6 }), options: optionsArb })
@@ -719,7 +719,7 @@ describe('planSets: properties of every plan', () => {
       expect(plan.warnings.some(w => w.includes('round in a circle'))).toBe(true)
       expect(broken({ surfaces, corners, options }, plan)).toEqual([])
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 
   it('bad numbers throw an Error naming the field, wherever they are', () => {
     const badArb = fc.constantFrom(Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, -1, -0.01)
@@ -735,5 +735,5 @@ describe('planSets: properties of every plan', () => {
       const name = field === 'patch' ? /patches\[0\]\.areaM2/ : new RegExp(field)
       expect(() => planSets(surfaces, room.corners, options)).toThrow(name)
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 })
