@@ -9,6 +9,11 @@
 // - a gap bridged with scrim takes thin tight coats in at least two earlier sets before the
 //   surface is skimmed;
 // - on a packed-out bead the face is skimmed before its return, so the set plaster holds the bead;
+// - a surface back to masonry or the undercoat all over takes its undercoat in an earlier set;
+// - the firm's rule "ceilings first" (options.ceilingsFirst, on unless false): in each room (`room`;
+//   surfaces with none are one room) a ceiling is skimmed in a set no later than every other
+//   surface of the room, and first in a set it shares, so plaster dropped from it lands on walls not
+//   yet skimmed; a packed-out bead that needs a wall first overrules it, with a warning;
 // - a set is no bigger than the people can lay on and trowel (people x bagsPerPersonPerSet bags),
 //   sets are kept even, and there are as few of them as the rules allow.
 // It is a rule of thumb for the day, not a promise about setting or drying: the plasterer
@@ -18,21 +23,34 @@
 // 1. Check the numbers (a bad one throws, naming the field) and tidy the room: a corner naming an
 //    unknown surface, a corner from a surface to itself, a repeated surface id and a circle of
 //    packed-out beads are left out with a warning, never an exception.
-// 2. Make tasks: a skim per surface, a patch fill before it (split into parts when it is more
-//    than one set can take), two thin tight coats before a scrimmed surface. Bags are counted in
-//    whole tenths, so 0.1 + 0.2 is 0.3 and never 0.30000000000000004.
-// 3. Join the tasks by "must be in an earlier set" edges (fill -> skim, coat 1 -> coat 2 -> skim,
-//    face -> return). That graph has no cycles, so a longest path gives each task the earliest
-//    set it can go in (its level) and how many sets must follow it (its tail). Difficult corners
-//    are "not in the same set" pairs, not edges, so a ring of four walls needs two sets, not four.
+// 2. Make tasks: a skim per surface, a patch fill and a whole-surface undercoat before it (each
+//    split into parts when it is more than one set can take; their bags are the take-off's,
+//    fillBags / undercoatBags, when given, else the patches' area at the skim's coverage), two
+//    thin tight coats before a scrimmed surface. Bags are counted in whole tenths, so 0.1 + 0.2 is
+//    0.3 and never 0.30000000000000004.
+// 3. Join the tasks by "must be in an earlier set" edges (fill -> skim, undercoat -> skim, coat 1
+//    -> coat 2 -> skim, face -> return) and "no later" edges (ceiling -> each wall of its room;
+//    an earlier-set edge where the two also share a difficult corner; pairs on a circle with a
+//    packed-out bead are overruled, strongly connected components). That graph has no cycles, so
+//    a longest path (an earlier-set edge counting one set, a no-later edge none) gives each task
+//    the earliest set it can go in (its level) and how many sets must follow it (its tail).
+//    Difficult corners are "not in the same set" pairs, not edges, so a ring of four walls needs
+//    two sets, not four.
 // 4. Pack. First fit in level order always succeeds (a new set is opened when nothing fits) and
-//    gives an upper bound on the sets. Then, between the lower bound (levels, and total bags over
-//    what one set takes) and that, a binary search looks for the fewest sets that a balanced
-//    packing (each task into the least-loaded set it may go in) fills.
+//    gives an upper bound on the sets. The lower bound (`setLowerBound`: the longest chain, a
+//    difficult corner counting a step; the bags over one set by bin packing's bound L2; and the two
+//    together, what must follow a task packed from its level on) is tried first, then the next
+//    sets up, then a binary search, each with a balanced packing (each task into the least-loaded
+//    set it may go in) and a tight one (the first set with room). Still above the bound, two dozen
+//    shuffles of each level's order (fixed seed) and, on a house, a search with a step budget try
+//    one set fewer.
 // 5. Even out: neighbouring sets that can be one are merged, single tasks move from heavier to
 //    lighter sets, and pairs of tasks swap between the heaviest or lightest set and another, each
 //    only while every rule still holds, until nothing helps. Empty sets are dropped.
-// 6. Each task gets a reason in plain words naming its set and why.
+// 6. Each task gets a reason in plain words naming its set and why, worked out from where the
+//    tasks are (`explain`), so the same words serve a plan after moves by hand (`reasonsForPlan`):
+//    a reason names only its own task's set and those of the tasks it names, and a rule a move
+//    broke is said as broken.
 // Everything is in input order with fixed tie-breaks, so the same input gives the same plan.
 // "Least-loaded set in a range" is a segment tree over the sets, so each pass is about
 // tasks x log(sets): a house takes a few milliseconds, a 2,000-surface estate a fraction of a second.
@@ -1026,7 +1044,8 @@ function pack(g: Graph, m: Model): Packing {
   const order = placeOrder(g)
   if (order.length === 0) return { setOf: new Int32Array(0), load: [], count: [] }
   const ff = compact(firstFit(g, order, cap))
-  let lo = Math.max(lowerBound(g, m), 1)
+  const bound = Math.max(lowerBound(g, m), 1)
+  let lo = bound
   let hi = ff.load.length - 1
   let best: Packing | null = null
   const tryK = (k: number): Packing | null => balanced(g, order, cap, k) ?? firstInK(g, order, cap, k)
@@ -1046,10 +1065,9 @@ function pack(g: Graph, m: Model): Packing {
   }
   let pk = compact(best ?? balanced(g, order, cap, ff.load.length) ?? ff)
   // Still above the bound: try again one set fewer with the tasks of each level in other orders
-  // (shuffled by a fixed-seed generator, so the same job always gives the same plan), a few dozen
-  // times on a house, a few on an estate.
-  const bound = Math.max(lowerBound(g, m), 1)
-  const tries = order.length <= 400 ? 24 : order.length <= 4000 ? 4 : 0
+  // (shuffled by a fixed-seed generator, so the same job always gives the same plan), two dozen
+  // times on a house-sized job (an estate keeps what it has: the time is not worth it there).
+  const tries = order.length <= 400 ? 24 : 0
   const rand = mulberry32(0x5e7)
   for (let i = 0; i < tries && pk.load.length > bound; i++) {
     const key = new Float64Array(order.length)
