@@ -42,8 +42,8 @@
 //    together, what must follow a task packed from its level on) is tried first, then the next
 //    sets up, then a binary search, each with a balanced packing (each task into the least-loaded
 //    set it may go in) and a tight one (the first set with room). Still above the bound, two dozen
-//    shuffles of each level's order (fixed seed) and, on a house, a search with a step budget try
-//    one set fewer.
+//    shuffles of each level's order (fixed seed) and, on a house, emptying a light set by moving
+//    its tasks elsewhere and a search with a step budget try one set fewer.
 // 5. Even out: neighbouring sets that can be one are merged, single tasks move from heavier to
 //    lighter sets, and pairs of tasks swap between the heaviest or lightest set and another, each
 //    only while every rule still holds, until nothing helps. Empty sets are dropped.
@@ -864,6 +864,87 @@ function searchK(g: Graph, order: number[], cap: number, k: number, budget: numb
   return go(0) ? pk : null
 }
 
+/** The sets task t may go in now, given where the others are: [lo, hi], less its difficult-corner partners' sets (checked by `allowed`). */
+function windowOf(g: Graph, pk: Packing, t: number): [number, number] {
+  let lo = 0
+  let hi = pk.load.length - 1
+  for (const p of g.preds[t]!) lo = Math.max(lo, pk.setOf[p]! + 1)
+  for (const p of g.wpreds[t]!) lo = Math.max(lo, pk.setOf[p]!)
+  for (const s of g.succs[t]!) hi = Math.min(hi, pk.setOf[s]! - 1)
+  for (const s of g.wsuccs[t]!) hi = Math.min(hi, pk.setOf[s]!)
+  return [lo, hi]
+}
+
+function move(g: Graph, pk: Packing, members: number[][], t: number, to: number): void {
+  const from = pk.setOf[t]!
+  pk.load[from]! -= g.tenths[t]!
+  pk.count[from]! -= 1
+  members[from]!.splice(members[from]!.indexOf(t), 1)
+  place(g, pk, t, to)
+  members[to]!.push(t)
+}
+
+/**
+ * Tries to empty one of the lighter sets by moving each of its tasks to another set it may go in
+ * that has room (the fullest first), or, failing that, by first moving one task out of such a set
+ * to a third one to make room. All or nothing: a set that cannot be emptied is left as it was.
+ * True when a set was emptied (compact it after).
+ */
+function emptyOneSet(g: Graph, pk: Packing, cap: number): boolean {
+  const k = pk.load.length
+  const members: number[][] = pk.load.map(() => [])
+  pk.setOf.forEach((j, t) => members[j]!.push(t))
+  const fitsIn = (t: number, x: number, skip: number): boolean => {
+    if (x === skip || pk.count[x] === 0 || pk.load[x]! > cap || pk.load[x]! + g.tenths[t]! > cap) return false
+    return g.apart[t]!.every(d => pk.setOf[d] !== x)
+  }
+  const relocate = (t: number, skip: number): boolean => {
+    const [lo, hi] = windowOf(g, pk, t)
+    let best = -1
+    for (let x = lo; x <= hi; x++) if (fitsIn(t, x, skip) && (best < 0 || pk.load[x]! > pk.load[best]!)) best = x
+    if (best >= 0) {
+      move(g, pk, members, t, best)
+      return true
+    }
+    // make room: move one task u out of a set x t may go in, to a third set y
+    for (let x = lo; x <= hi; x++) {
+      if (x === skip || pk.count[x] === 0 || pk.load[x]! > cap || !g.apart[t]!.every(d => pk.setOf[d] !== x)) continue
+      for (const u of [...members[x]!]) {
+        if (pk.load[x]! - g.tenths[u]! + g.tenths[t]! > cap || g.apart[t]!.includes(u)) continue
+        const [ulo, uhi] = windowOf(g, pk, u)
+        for (let y = ulo; y <= uhi; y++) {
+          if (y === x || !fitsIn(u, y, skip)) continue
+          move(g, pk, members, u, y)
+          // t's window may have changed with u gone (u may be one of its neighbours)
+          const [tlo, thi] = windowOf(g, pk, t)
+          if (x >= tlo && x <= thi && fitsIn(t, x, skip)) {
+            move(g, pk, members, t, x)
+            return true
+          }
+          move(g, pk, members, u, x)
+        }
+      }
+    }
+    return false
+  }
+  const lightest = [...Array(k).keys()].filter(j => pk.count[j]! > 0).sort((x, y) => pk.load[x]! - pk.load[y]! || x - y).slice(0, 3)
+  for (const j of lightest) {
+    const setOf = pk.setOf.slice()
+    const load = [...pk.load]
+    const count = [...pk.count]
+    const before = members.map(list => [...list])
+    const tasks = [...members[j]!].sort((x, y) => g.tenths[y]! - g.tenths[x]! || x - y)
+    if (tasks.every(t => relocate(t, j))) return true
+    pk.setOf.set(setOf)
+    pk.load.splice(0, k, ...load)
+    pk.count.splice(0, k, ...count)
+    before.forEach((list, i) => {
+      members[i] = list
+    })
+  }
+  return false
+}
+
 /** mulberry32: a small generator of numbers in [0, 1) from a seed, the same every time. */
 function mulberry32(seed: number): () => number {
   let a = seed >>> 0
@@ -1080,7 +1161,8 @@ function pack(g: Graph, m: Model): Packing {
     const p = firstInK(g, shuffled, cap, k) ?? balanced(g, shuffled, cap, k)
     if (p) pk = compact(p)
   }
-  // a house still above the bound: a search with a step budget, one set fewer at a time
+  // a house still above the bound: empty a light set by moving its tasks, then a search with a step budget, one set fewer at a time
+  while (order.length <= SEARCH_UP_TO && pk.load.length > bound && emptyOneSet(g, pk, cap)) pk = compact(pk)
   if (order.length <= SEARCH_UP_TO && pk.load.length > bound) {
     // the planner's order, then the biggest first within a level (as bin packing is searched)
     const first = (t: number): number => (g.wsuccs[t]!.length ? 0 : 1)
