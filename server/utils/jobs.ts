@@ -172,11 +172,12 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   // coat on the day it was done in Britain (a set finished at 00:30 BST is that day, not the one before)
   const roomNames = [...new Set(planned.surfaces.map(s => s.roomName))]
   // an entry with the plan's tasks ticked is read task by task (a skim is the surface's final coat,
-  // a fill or tight coat is that); one made before entries carried tasks, by its coat
+  // a fill or tight coat is that, an undercoat a fill: both dry by the undercoat days); one made
+  // before entries carried tasks, by its coat
   const coatLogs = logs.filter(l => l.kind === 'set' && l.coat).flatMap((l) => {
     const day = londonDay(l.endedAt ?? l.startedAt ?? l.createdAt)
     if (!l.tasks.length) return [{ day, coat: l.coat!, coldOrDamp: l.coldOrDamp, surfaceIds: l.surfaceIds, setNumber: l.setNumber }]
-    return l.tasks.map(t => ({ day, coat: (t.action === 'skim' ? 'second' : t.action) as LogCoat, coldOrDamp: l.coldOrDamp, surfaceIds: [t.surfaceId], setNumber: l.setNumber }))
+    return l.tasks.map(t => ({ day, coat: (t.action === 'skim' ? 'second' : t.action === 'undercoat' ? 'fill' : t.action) as LogCoat, coldOrDamp: l.coldOrDamp, surfaceIds: [t.surfaceId], setNumber: l.setNumber }))
   })
   const ready = roomNames.map((room) => {
     const ids = planned.surfaces.filter(s => s.roomName === room).map(s => s.id)
