@@ -10,7 +10,8 @@
 // 3. Server rendering of the dashboard and the invoice list.
 // 4. The CSV export of all 100,000 invoices against COPY of the same query through psql, and the
 //    server's peak memory during it against its memory at rest.
-// 5. The set planner on 30, 300 and 2,000 surfaces.
+// 5. The set planner on 30, 300 and 2,000 surfaces, and on 1,000 random jobs of rooms how often it
+//    meets the lower bound (setLowerBound: the fewest sets the rules allow) and the most it is above.
 // 6. Gzipped JavaScript loaded by the sign-in page, the dashboard and an invoice page on a phone.
 // 7. Working with no signal: what the service worker precaches (files, bytes, gzipped), and how
 //    long Today takes to open on a throttled phone (4x slower CPU, a slow 3G line) from what the
@@ -27,7 +28,8 @@ import { gzipSync } from 'node:zlib'
 import autocannon from 'autocannon'
 import pg from 'pg'
 import { chromium } from 'playwright-core'
-import { planSets, type PlanCorner, type PlanSurface } from '../shared/utils/set-plan'
+import { planSets, setLowerBound, type PlanCorner, type PlanSurface } from '../shared/utils/set-plan'
+import { randomJob, seeded } from '../tests/support/plan-rooms'
 import { DEMO_PEOPLE } from '../seeds/demo'
 
 const env = await import('./lib/env.mjs')
@@ -253,6 +255,21 @@ function planner(surfaceCount: number, runs: number, budgetMs?: number) {
   add({ group: 'planner', name: `${surfaceCount} surfaces, median of ${runs}`, value: median, unit: 'ms', budget: budgetMs ? `< ${budgetMs} ms` : undefined, met: budgetMs ? median < budgetMs : undefined, note: `worst ${times.at(-1)!.toFixed(2)} ms` })
 }
 
+/** On 1,000 random jobs of rooms (seeded), how often the plan has exactly the lower bound's sets, and the most it is above it. */
+function plannerAgainstBound(jobs = 1000, seed = 16) {
+  const rand = seeded(seed)
+  let met = 0
+  let most = 0
+  for (let i = 0; i < jobs; i++) {
+    const job = randomJob(rand)
+    const above = planSets(job.surfaces, job.corners, job.options).sets.length - setLowerBound(job.surfaces, job.corners, job.options)
+    if (above === 0) met += 1
+    most = Math.max(most, above)
+  }
+  add({ group: 'planner', name: `meets the lower bound, ${jobs} random jobs`, value: 100 * met / jobs, unit: '%', note: `at most ${most} set${most === 1 ? '' : 's'} above it` })
+  add({ group: 'planner', name: `most sets above the lower bound, ${jobs} random jobs`, value: most, unit: 'sets', budget: '<= 1', met: most <= 1 })
+}
+
 // ---------------------------------------------------------------------------------------------
 
 async function main() {
@@ -261,6 +278,7 @@ async function main() {
   planner(30, 200, 50)
   planner(300, 50)
   planner(2000, 10, 1000)
+  plannerAgainstBound()
 
   if (!existsSync(join(env.root, outputDir, 'server/index.mjs'))) runLib.nuxtBuild()
   const { demoId } = await seed()

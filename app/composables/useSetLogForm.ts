@@ -8,11 +8,12 @@ import {
   coatForSet, inTheFuture, loggedTasks, MAX_PACKS_X1000, plannedBags, setLogFieldErrors, setLogTimes, setProgress, setToLog,
   setTooLong, taskKey, tasksToTick, type LogTask,
 } from '#shared/utils/set-log'
+import { PLAN_ACTION_WORDS } from '#shared/utils/set-plan'
 
 type Job = ApiResponse<'/api/jobs/:id'>
 type Entry = Job['logs'][number]
 
-const ACTION_WORDS: Record<LogTask['action'], string> = { 'fill': 'Fill', 'tight-coat': 'Tight coat', 'skim': 'Skim' }
+const ACTION_WORDS: Record<LogTask['action'], string> = PLAN_ACTION_WORDS
 
 /** The form as an entry already logged fills it, to correct it. */
 function formFromEntry(entry: Entry) {

@@ -7,6 +7,7 @@ import { canMoveJob, daysWorked, JOB_STATUS_LABELS, materialsAgainstEstimate, RE
 import { londonDay } from '#shared/utils/dates'
 import { mayChangeLog } from '#shared/utils/set-log'
 import { planInputsFromRooms } from '#shared/utils/set-plan-inputs'
+import { undercoatTakeoff } from '#shared/utils/materials'
 import { planSets, type PlanCorner, type PlanSurface } from '#shared/utils/set-plan'
 import { replan } from '#shared/utils/plan-moves'
 import { invoiceTotals } from '#shared/utils/tax'
@@ -113,7 +114,9 @@ export async function jobPlan(f: FirmScope, job: JobRow) {
     }
   }
   const rooms = await loadRooms(f, job.visitId)
-  const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
+  // the fill and undercoat bags from the quote's own take-off: the catalogue's undercoat at the estimate's thickness, plus the firm's waste
+  const takeoff = undercoatTakeoff(await catalogue(f), { wastePercent: book.materialsWastePercent })
+  const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 }, takeoff)
   // options stored before the floor (or written by hand) are raised to it, with a warning, never a 500
   const { options: safe, warnings: optionWarnings } = safePlanOptions(job.planOptions)
   const options = { ...safe, ceilingsFirst: book.ceilingsFirst }
@@ -169,11 +172,12 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   // coat on the day it was done in Britain (a set finished at 00:30 BST is that day, not the one before)
   const roomNames = [...new Set(planned.surfaces.map(s => s.roomName))]
   // an entry with the plan's tasks ticked is read task by task (a skim is the surface's final coat,
-  // a fill or tight coat is that); one made before entries carried tasks, by its coat
+  // a fill or tight coat is that, an undercoat a fill: both dry by the undercoat days); one made
+  // before entries carried tasks, by its coat
   const coatLogs = logs.filter(l => l.kind === 'set' && l.coat).flatMap((l) => {
     const day = londonDay(l.endedAt ?? l.startedAt ?? l.createdAt)
     if (!l.tasks.length) return [{ day, coat: l.coat!, coldOrDamp: l.coldOrDamp, surfaceIds: l.surfaceIds, setNumber: l.setNumber }]
-    return l.tasks.map(t => ({ day, coat: (t.action === 'skim' ? 'second' : t.action) as LogCoat, coldOrDamp: l.coldOrDamp, surfaceIds: [t.surfaceId], setNumber: l.setNumber }))
+    return l.tasks.map(t => ({ day, coat: (t.action === 'skim' ? 'second' : t.action === 'undercoat' ? 'fill' : t.action) as LogCoat, coldOrDamp: l.coldOrDamp, surfaceIds: [t.surfaceId], setNumber: l.setNumber }))
   })
   const ready = roomNames.map((room) => {
     const ids = planned.surfaces.filter(s => s.roomName === room).map(s => s.id)

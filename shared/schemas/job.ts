@@ -3,6 +3,7 @@ import { isoDate, isoDateTime, queryWholeNumber, text, whenObject } from './comm
 import { daysBetween } from '../utils/dates'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 import { inTheFuture, MAX_PACKS_X1000, setTooLong } from '../utils/set-log'
+import { PLAN_ACTIONS } from '../utils/set-plan'
 
 const pickDate = isoDate('Pick a date.')
 const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
@@ -86,7 +87,7 @@ export const setLogSchema = z.object({
   /** The plan's tasks of the set ticked as done (each on that set of the plan, checked by the route). */
   tasks: z.array(z.object({
     surfaceId: z.uuid({ error: 'That surface is not on this job.' }),
-    action: z.enum(['fill', 'tight-coat', 'skim'], { error: 'Choose fill, tight coat or skim.' }),
+    action: z.enum(PLAN_ACTIONS, { error: 'Choose fill, undercoat, tight coat or skim.' }),
   })).max(400).default([]),
   /** Made on the phone when the form opened: a resend of the same entry is stored once (POST only). */
   clientId: z.uuid({ error: 'The entry\'s id from the phone is not an id.' }).nullable().default(null),

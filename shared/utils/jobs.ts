@@ -2,6 +2,7 @@
 // materials used against the estimate, and the "ready to decorate from" date. Pure.
 import { JOB_CAUTIONS } from './cautions'
 import { addDays } from './dates'
+import type { PlanAction } from './set-plan'
 
 export const JOB_STATUSES = ['booked', 'in-progress', 'finished', 'invoiced', 'paid', 'cancelled'] as const
 export type JobStatus = (typeof JOB_STATUSES)[number]
@@ -166,7 +167,7 @@ export function readyToDecorateFrom(coats: readonly { day: string, coat: LogCoat
 /** A set log as the drying date reads it: the day it was done (londonDay), its coat, the surfaces, the set. */
 export interface RoomLog { day: string, coat: LogCoat, coldOrDamp: boolean, surfaceIds: readonly string[], setNumber: number | null }
 /** The parts of a set plan the drying date needs: what each set does to each surface. */
-export interface PlanTasks { sets: readonly { number: number, tasks: readonly { surfaceId: string, action: 'fill' | 'tight-coat' | 'skim' }[] }[] }
+export interface PlanTasks { sets: readonly { number: number, tasks: readonly { surfaceId: string, action: PlanAction }[] }[] }
 export interface RoomReady {
   /** The day the room can be decorated from; null until every surface in it has its final skim coat logged. */
   from: string | null
@@ -194,7 +195,7 @@ export function roomReadyToDecorate(surfaceIds: readonly string[], logs: readonl
       const planned = set?.tasks.filter(t => t.surfaceId === id) ?? []
       let coat = log.coat
       if ((coat === 'first' || coat === 'second') && planned.length && !planned.some(t => t.action === 'skim')) {
-        coat = planned.some(t => t.action === 'fill') ? 'fill' : 'tight-coat'
+        coat = planned.some(t => t.action === 'fill' || t.action === 'undercoat') ? 'fill' : 'tight-coat'
       }
       if (coat === 'second') skimmed.add(id)
       coats.push({ day: log.day, coat, coldOrDamp: log.coldOrDamp })

@@ -166,20 +166,65 @@ function firstAreaMaterial(catalogue: readonly Material[], types: readonly Mater
   return undefined
 }
 
+/** An exact number of bags, num / den (den > 0). */
+export interface ExactBags { num: bigint, den: bigint }
+
+/**
+ * The exact bags (not rounded) of an area material over `areaCm2` (whole cm²) at `thicknessMm`,
+ * for a pack covering `coverage.m2PerPack` at `coverage.atThicknessMm`, plus `wastePercent`:
+ * areaM2 x thicknessMm / atThicknessMm / m2PerPack x (1 + waste / 100). The quote's materials
+ * (estimateMaterials, through areaLine) and the set plan's fill and undercoat bags
+ * (planInputsFromRooms) are both this one sum; the quote rounds up to whole packs once, the plan
+ * rounds each surface up to tenths of a bag. `what` names the material in a RangeError.
+ */
+export function areaBags(areaCm2: number, thicknessMm: number, coverage: { m2PerPack: number, atThicknessMm: number }, wastePercent: number, what = 'the material'): ExactBags {
+  if (!Number.isSafeInteger(areaCm2) || areaCm2 < 0) throw new RangeError(`areaCm2 must be a whole number of cm², 0 or more, got ${areaCm2}`)
+  const p: PackSum = {
+    area: BigInt(areaCm2),
+    thickness: scaled(thicknessMm, 3, 'thickness'),
+    at: scaled(coverage.atThicknessMm, 3, 'atThicknessMm'),
+    coverage: scaled(coverage.m2PerPack, 4, 'm2PerPack'),
+    waste: scaled(wastePercent, 3, 'wastePercent'),
+  }
+  if (p.at === 0n || p.coverage === 0n) throw new RangeError(`${what}: coverage must be more than 0`)
+  return packRatio(p)
+}
+
+/** Exact bags rounded up to whole tenths of a bag, as a count of tenths: 0.605 -> 7 (0.7 bag). */
+export function tenthsUp(bags: ExactBags): number {
+  return Number(ceilDiv(bags.num * 10n, bags.den))
+}
+
+/** The undercoat the estimate takes for undercoat areas (UNDERCOAT_TYPES, in that order), or undefined when the catalogue has none. */
+export function undercoatMaterial(catalogue: readonly Material[]): Material | undefined {
+  return firstAreaMaterial(catalogue, UNDERCOAT_TYPES)
+}
+
+/** What the set plan needs from the take-off to count its undercoat bags as the quote does (planInputsFromRooms' `takeoff`). */
+export interface UndercoatTakeoff {
+  /** The catalogue's undercoat's coverage (undercoatMaterial); null when it has none. */
+  coverage: { m2PerPack: number, atThicknessMm: number } | null
+  thicknessMm: number
+  wastePercent: number
+}
+
+/** The undercoat figures of the materials estimate (the same material, thickness and waste as estimateMaterials). */
+export function undercoatTakeoff(catalogue: readonly Material[], options: Partial<EstimateOptions> = {}): UndercoatTakeoff {
+  const o = { ...DEFAULT_ESTIMATE_OPTIONS, ...options }
+  const m = undercoatMaterial(catalogue)
+  return {
+    coverage: m && m.coverage.kind === 'area' ? { m2PerPack: m.coverage.m2PerPack, atThicknessMm: m.coverage.atThicknessMm } : null,
+    thicknessMm: o.undercoatThicknessMm,
+    wastePercent: o.wastePercent,
+  }
+}
+
 function areaLine(what: string, types: readonly MaterialType[], areaCm2: number, thicknessMm: number, catalogue: readonly Material[], wastePercent: number): MaterialLine {
   const m = firstAreaMaterial(catalogue, types)
   if (!m || m.coverage.kind !== 'area') {
     return { materialKey: null, name: what, packs: 0, packLabel: '', costPence: 0, derivation: `${formatSquareMetres(areaCm2)} m² needs ${what.toLowerCase()}, but the catalogue has none: add one to estimate it.` }
   }
-  const p: PackSum = {
-    area: BigInt(areaCm2),
-    thickness: scaled(thicknessMm, 3, 'thickness'),
-    at: scaled(m.coverage.atThicknessMm, 3, 'atThicknessMm'),
-    coverage: scaled(m.coverage.m2PerPack, 4, 'm2PerPack'),
-    waste: scaled(wastePercent, 3, 'wastePercent'),
-  }
-  if (p.at === 0n || p.coverage === 0n) throw new RangeError(`${m.name}: coverage must be more than 0`)
-  const { num, den } = packRatio(p)
+  const { num, den } = areaBags(areaCm2, thicknessMm, m.coverage, wastePercent, m.name)
   const packs = Number(ceilDiv(num, den))
   return {
     materialKey: m.key, name: m.name, packs, packLabel: m.packLabel, costPence: packs * m.costPence,

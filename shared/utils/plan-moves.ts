@@ -1,23 +1,33 @@
-// The plasterer moves a surface to another set by hand: its skim goes to that set (its fill and
-// tight coats stay where the planner put them), empty sets close up, and the plan is then checked
-// again (checkPlan in ./set-plan.ts) so each rule the move breaks shows as a warning. Not blocked:
-// the plasterer decides.
+// The plasterer moves a surface to another set by hand: its skim goes to that set (its fill,
+// undercoat and tight coats stay where the planner put them), empty sets close up, every task's
+// reason is worked out again from the plan as it now stands (reasonsForPlan in ./set-plan.ts), and
+// the plan is checked again (checkPlan) so each rule the move breaks shows as a warning. Not
+// blocked: the plasterer decides.
 import type { PlanCorner, PlannedSet, PlanOptions, PlanSurface, PlanTask, SetPlan } from './set-plan'
-import { checkPlan } from './set-plan'
+import { checkPlan, reasonsForPlan } from './set-plan'
 
 /** What the plan was made from: `replan` reads it to work every reason out again. */
 export interface PlanMoveInputs { surfaces: PlanSurface[], corners: PlanCorner[], options: PlanOptions, labels: Record<string, string> }
 
 /**
  * The planner's plan with the plasterer's moves (surface id -> set number in the planner's
- * numbering) applied, checked again: each rule a move breaks is a warning. Used alike by the
- * server and by the phone, so the picture and the list update at once.
+ * numbering) applied: empty sets close up, every task's reason is worked out again from where the
+ * tasks are now (a moved skim says it was moved by hand, and what holds where it is), and each
+ * rule a move breaks is a warning. Used alike by the server and by the phone, so the picture and
+ * the list update at once. No moves: the planner's plan as it is.
  */
 export function replan(planner: SetPlan, moves: Record<string, number>, inputs: PlanMoveInputs): SetPlan {
   if (!Object.keys(moves).length) return planner
-  const plan = applyMoves(planner, moves, inputs.labels)
-  const broken = checkPlan(inputs.surfaces, inputs.corners, inputs.options, plan, inputs.labels)
-  return { ...plan, warnings: [...new Set([...plan.warnings, ...broken])] }
+  const { sets, warnings, movedFrom } = placeSkims(planner, moves, inputs.labels)
+  const kept = sets.filter(s => s.tasks.length)
+  const plan: SetPlan = {
+    sets: kept.map((s, i) => ({ number: i + 1, tasks: s.tasks, bags: s.tasks.reduce((sum, t) => sum + tenths(t.bags), 0) / 10 })),
+    warnings: [...planner.warnings, ...warnings],
+  }
+  const moved = [...movedFrom.keys()].map(t => t.surfaceId)
+  const explained = reasonsForPlan(inputs.surfaces, inputs.corners, inputs.options, plan, inputs.labels, moved)
+  const broken = checkPlan(inputs.surfaces, inputs.corners, inputs.options, explained, inputs.labels)
+  return { ...explained, warnings: [...new Set([...explained.warnings, ...broken])] }
 }
 
 const tenths = (bags: number) => Math.round(bags * 10)

@@ -2,15 +2,17 @@
 // the plan is logged as, and the two times typed on site as instants.
 import { addDays, londonDay, londonInstant, londonTime, shortDay } from './dates'
 import type { LogCoat } from './jobs'
+import type { PlanAction } from './set-plan'
 
 /**
  * The coat a set on the plan is logged as. A set is both coats laid on and trowelled up in one go,
  * so a set with a skim is logged as its second (final) coat (the room's "ready to decorate" date
- * waits for every surface's second coat); a set of fills is a fill; the rest a tight coat.
+ * waits for every surface's second coat); a set of fills or undercoats is a fill (both are
+ * undercoat, and dry as one: the firm's undercoat days); the rest a tight coat.
  */
-export function coatForSet(tasks: readonly { action: 'fill' | 'tight-coat' | 'skim' }[]): LogCoat {
+export function coatForSet(tasks: readonly { action: PlanAction }[]): LogCoat {
   if (tasks.some(t => t.action === 'skim')) return 'second'
-  if (tasks.some(t => t.action === 'fill')) return 'fill'
+  if (tasks.some(t => t.action === 'fill' || t.action === 'undercoat')) return 'fill'
   return 'tight-coat'
 }
 
@@ -71,7 +73,7 @@ export function setLogFieldErrors(fields: Record<string, string>, sent: readonly
   return out
 }
 
-type Action = 'fill' | 'tight-coat' | 'skim'
+type Action = PlanAction
 /** One task of a set on the plan, as a log entry records it: a surface and what was done to it. */
 export interface LogTask { surfaceId: string, action: Action }
 interface PlannedSet { number: number, tasks: readonly { surfaceId?: string, action: Action }[] }

@@ -13,9 +13,20 @@
 // - a packed-out bead becomes `packedBead`, its face being the surface with the larger area.
 // A surface back to masonry or to the undercoat all over takes undercoat over the whole surface
 // before it is skimmed (as the take-off counts it); its patches are under that undercoat, so they
-// are not filled on their own, and a note says so. Pure: no database, no Vue.
+// are not filled on their own.
+//
+// One source for quantities: given the take-off's undercoat figures (`undercoatTakeoff` in
+// ./materials.ts: the catalogue's undercoat, its thickness and the firm's waste), each surface's
+// patch fill (`fillBags`) and whole-surface undercoat (`undercoatBags`, a task of its own in an
+// earlier set than the skim) are the quote's own sum (`areaBags`) over that surface's take-off
+// lines, rounded UP to tenths of a bag per surface (the quote rounds its total up to whole packs
+// once): a 0.5 m² patch the quote counts as 0.61 bag of undercoat is 0.7 bag in the plan. Without
+// those figures (or with no undercoat in the catalogue) a patch fill is counted at the skim's
+// coverage by the planner, and a whole-surface undercoat is left to a note. Pure: no database, no Vue.
 import type { Background, ConditionKind, CornerKind, OpeningKind, SurfaceKind } from './ledger'
 import { BACKGROUND_LABELS, SURFACE_KIND_LABELS } from './ledger'
+import type { UndercoatTakeoff } from './materials'
+import { areaBags, tenthsUp } from './materials'
 import type { PlanCorner, PlanSurface } from './set-plan'
 import { takeoffRoom } from './takeoff'
 
@@ -95,20 +106,32 @@ function labelsFor(room: PlanInputRoom): string[] {
   })
 }
 
-/** Net skim area of each surface in cm², in the room's order, exactly as the take-off works it out. */
-function netAreasCm2(room: PlanInputRoom, minDeductCm2: number): number[] {
-  // corners are left out: only the surface lines are wanted, and each surface gives exactly one area line first
+/** Each surface's net skim area, patch fill area and whole-surface undercoat area in cm², in the room's order, exactly as the take-off works them out. */
+function takeoffAreasCm2(room: PlanInputRoom, minDeductCm2: number): { net: number, fill: number, undercoat: number }[] {
+  // corners are left out: only the surface lines are wanted; each surface gives exactly one area
+  // line first, then its undercoat and patch lines
   const lines = takeoffRoom({ name: room.name, surfaces: room.surfaces, corners: [] }, { minDeductCm2 })
-  return lines.filter(l => AREA_KEYS.has(l.key)).map(l => (l.key === 'reveals-lm' ? l.areaCm2 ?? 0 : l.quantity))
+  const out: { net: number, fill: number, undercoat: number }[] = []
+  for (const l of lines) {
+    if (AREA_KEYS.has(l.key)) out.push({ net: l.key === 'reveals-lm' ? l.areaCm2 ?? 0 : l.quantity, fill: 0, undercoat: 0 })
+    else if (l.key === 'fill-patches' && out.length) out[out.length - 1]!.fill += l.quantity
+    else if (l.key === 'undercoat' && out.length) out[out.length - 1]!.undercoat += l.quantity
+  }
+  return out
 }
 
 /**
- * The planner's surfaces, corners and labels for a job's rooms. Throws a RangeError naming the
- * field for a bad rule (or a bad measurement, from the take-off); a corner naming a surface that
- * is not there is passed on, for `planSets` to warn about.
+ * The planner's surfaces, corners and labels for a job's rooms. With `takeoff` (the quote's
+ * undercoat figures, `undercoatTakeoff`), the patch fill and whole-surface undercoat bags are the
+ * quote's (see the file's note). Throws a RangeError naming the field for a bad rule (or a bad
+ * measurement, from the take-off); a corner naming a surface that is not there is passed on, for
+ * `planSets` to warn about.
  */
-export function planInputsFromRooms(rooms: PlanInputRoom[], rules: PlanInputRules): PlanInputs {
+export function planInputsFromRooms(rooms: PlanInputRoom[], rules: PlanInputRules, takeoff?: UndercoatTakeoff): PlanInputs {
   checkRules(rules)
+  const coverage = takeoff?.coverage ?? null
+  /** Bags of undercoat over an area, as the quote counts them, rounded up to tenths. */
+  const undercoatBags = (cm2: number): number => tenthsUp(areaBags(cm2, takeoff!.thicknessMm, coverage!, takeoff!.wastePercent, 'The undercoat')) / 10
   const minDeductCm2 = rules.minDeductCm2 ?? 0
   const surfaces: PlanSurface[] = []
   const corners: PlanCorner[] = []
@@ -119,9 +142,9 @@ export function planInputsFromRooms(rooms: PlanInputRoom[], rules: PlanInputRule
 
   for (const room of rooms) {
     const names = labelsFor(room)
-    const areas = netAreasCm2(room, minDeductCm2)
+    const areas = takeoffAreasCm2(room, minDeductCm2)
     room.surfaces.forEach((s, i) => {
-      const net = areas[i] ?? 0
+      const net = areas[i]?.net ?? 0
       const name = names[i]!
       if (!(s.id in labels)) labels[s.id] = name
       if (!areaCm2.has(s.id)) areaCm2.set(s.id, net)
@@ -133,12 +156,14 @@ export function planInputsFromRooms(rooms: PlanInputRoom[], rules: PlanInputRule
       const whole = s.background !== undefined && WHOLE_UNDERCOAT.includes(s.background)
       const patches = conditions.filter(c => c.kind.startsWith('patch-') && c.areaCm2).map(c => ({ areaM2: c.areaCm2! / 10_000 }))
       const scrimmed = conditions.some(c => (c.kind === 'frame-gap' || c.kind === 'crack') && c.scrimmed === true)
-      if (whole) {
+      if (whole && !coverage) {
         const back = BACKGROUND_LABELS[s.background!].toLowerCase()
         notes.push(`${name} is ${back}: undercoat the whole surface before these sets (as the quote counts it)${patches.length ? '; its patches go under that undercoat, so they are not filled on their own' : ''}.`)
       }
       const out: PlanSurface = { id: s.id, areaM2: net / 10_000, kind: s.kind, room: room.name }
       if (patches.length && !whole) out.patches = patches
+      if (coverage && patches.length && !whole && (areas[i]?.fill ?? 0) > 0) out.fillBags = undercoatBags(areas[i]!.fill)
+      if (coverage && whole && (areas[i]?.undercoat ?? 0) > 0) out.undercoatBags = undercoatBags(areas[i]!.undercoat)
       if (scrimmed) out.scrimmedGap = true
       surfaces.push(out)
     })

@@ -9,8 +9,12 @@ import { setLogSchema } from '../../shared/schemas/job'
 // trowelled up in one go); the clocks, The Summer Time Act 1972 / Summer Time Order 2002 (BST from
 // 01:00 GMT on the last Sunday of March to 01:00 GMT on the last Sunday of October).
 describe('coatForSet: the coat a set on the plan is logged as', () => {
-  it.each<[string, ('fill' | 'tight-coat' | 'skim')[], string]>([
+  it.each<[string, ('fill' | 'undercoat' | 'tight-coat' | 'skim')[], string]>([
     ['a skim with its fills is the second coat', ['fill', 'skim'], 'second'],
+    // an undercoat over a whole surface is undercoat like a patch fill, and dries as one (the firm's undercoat days)
+    ['an undercoat is a fill', ['undercoat'], 'fill'],
+    ['an undercoat with a tight coat is a fill', ['tight-coat', 'undercoat'], 'fill'],
+    ['a skim with an undercoat in the set is the second coat', ['undercoat', 'skim'], 'second'],
     ['a skim alone is the second coat', ['skim'], 'second'],
     ['fills only are a fill', ['fill', 'fill'], 'fill'],
     ['a fill with a tight coat is a fill', ['tight-coat', 'fill'], 'fill'],
@@ -162,6 +166,12 @@ describe('inTheFuture and the schema: a set is logged once it is done (a few min
     const t = { surfaceId: '00000000-0000-4000-8000-00000000000a', action: 'fill' }
     const r = setLogSchema.safeParse({ kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: [t.surfaceId], tasks: [t, t] })
     expect(r.error!.issues.map(i => i.path.join('.'))).toEqual(['tasks'])
+  })
+  it('the schema takes an undercoat task (the plan\'s undercoat over a whole surface), and refuses an action the plan does not have', () => {
+    const surfaceId = '00000000-0000-4000-8000-00000000000a'
+    expect(setLogSchema.safeParse({ kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: [surfaceId], tasks: [{ surfaceId, action: 'undercoat' }] }).success).toBe(true)
+    const r = setLogSchema.safeParse({ kind: 'set', setNumber: 1, coat: 'fill', surfaceIds: [surfaceId], tasks: [{ surfaceId, action: 'render' }] })
+    expect(r.error!.issues.map(i => [i.path.join('.'), i.message])).toEqual([['tasks.0.action', 'Choose fill, undercoat, tight coat or skim.']])
   })
 })
 

@@ -3,6 +3,8 @@ import { roomSchema } from '../../shared/schemas/room'
 import type { PlanInputCorner, PlanInputRoom, PlanInputRules, PlanInputSurface } from '../../shared/utils/set-plan-inputs'
 import { planInputsFromRooms } from '../../shared/utils/set-plan-inputs'
 import { checkPlan, planSets } from '../../shared/utils/set-plan'
+import { areaBags, DEFAULT_MATERIALS, estimateMaterials, tenthsUp, undercoatTakeoff, type Material } from '../../shared/utils/materials'
+import { takeoffRoom } from '../../shared/utils/takeoff'
 
 // Sources. What makes a corner difficult, a patch low-suction and a bead packed out is common
 // practice (../shared/DOMAIN.md, "Planning the sets"); the trowel width and the out-of-true
@@ -65,7 +67,8 @@ describe('planInputsFromRooms: surfaces', () => {
     // common practice (as the take-off counts it): back to masonry all over takes undercoat over the whole surface, so its patches are under that
     ['a wall back to masonry all over', surface('s', { background: 'masonry', conditions: [{ kind: 'patch-masonry', areaCm2: 6000 }] }), {}, { id: 's', areaM2: 9.6 }],
   ])('%s', (_what, s, more, expected) => {
-    expect(planInputsFromRooms([room([s])], { ...rules, ...more }).surfaces).toEqual([expected])
+    // each surface carries its kind and room, for the ceilings-first rule
+    expect(planInputsFromRooms([room([s])], { ...rules, ...more }).surfaces).toEqual([{ kind: s.kind, room: 'Front bedroom', ...expected }])
   })
 
   it('notes a whole-surface undercoat the plan does not cover', () => {
@@ -134,7 +137,7 @@ describe('planInputsFromRooms: a saved room to a plan', () => {
   it('follows every rule, with the labels in the reasons', () => {
     const inputs = planInputsFromRooms([saved], rules)
     // 3.60 x 2.40 - 1.20 x 1.20 = 8.64 - 1.44 = 7.20 m²
-    expect(inputs.surfaces[0]).toEqual({ id: id(1), areaM2: 7.2, scrimmedGap: true })
+    expect(inputs.surfaces[0]).toEqual({ id: id(1), areaM2: 7.2, scrimmedGap: true, kind: 'wall', room: 'Front bedroom' })
     // wall 2 is 14 mm out, beyond 10 mm: the corner is difficult; the breast (2.88 m²) is the face of its side (0.72 m²)
     expect(inputs.corners).toEqual([
       { a: id(1), b: id(2), kind: 'internal', dryCorner: true },
@@ -147,5 +150,68 @@ describe('planInputsFromRooms: a saved room to a plan', () => {
     const reasons = plan.sets.flatMap(s => s.tasks.map(t => t.reason)).join('\n')
     expect(reasons).toContain('Front bedroom · Wall 2')
     expect(reasons).toContain('Front bedroom · Narrow strip (breast side)')
+  })
+})
+
+describe('planInputsFromRooms: one source for quantities (the quote\'s undercoat)', () => {
+  // Sources. The undercoat sum is the quote's own (shared/utils/materials.ts estimateMaterials: the
+  // catalogue's first bonding undercoat, at the estimate's 11 mm, plus the firm's waste; coverage
+  // figures in DEFAULT_MATERIALS are common practice, DOMAIN.md "Coverage"). Our own rule: the plan
+  // rounds each surface UP to tenths of a bag, the quote its total up to whole packs, once.
+  const takeoff = undercoatTakeoff(DEFAULT_MATERIALS, { wastePercent: 10 })
+  /** The quote's unrounded undercoat ratio for a room, as its materials line writes it ("= 0.61, rounded up to ..."). */
+  const quoteRatio = (r: PlanInputRoom, catalogue: readonly Material[] = DEFAULT_MATERIALS): number => {
+    const line = estimateMaterials(takeoffRoom({ ...r, corners: [] }, {}), catalogue, { wastePercent: 10 }).find(l => l.name.toLowerCase().includes('undercoat'))!
+    return Number(/= (\d+\.\d+), rounded up/.exec(line.derivation)![1])
+  }
+
+  it('uses the catalogue\'s undercoat, the estimate\'s thickness and the firm\'s waste', () => {
+    expect(takeoff).toEqual({ coverage: { m2PerPack: 3, atThicknessMm: 10 }, thicknessMm: 11, wastePercent: 10 })
+  })
+
+  it('the demo-like case: a 0.5 m² patch gives the quote\'s undercoat in the plan, rounded up to tenths', () => {
+    // 0.5 m² x 11 mm / 10 mm / 3 m² a bag x 1.1 = 0.2017 bag (the quote writes 0.20 and orders 1 bag); the plan: 0.3
+    const r = room([surface('s', { conditions: [{ kind: 'patch-masonry', areaCm2: 5000 }] })])
+    const out = planInputsFromRooms([r], rules, takeoff)
+    expect(quoteRatio(r)).toBe(0.2)
+    expect(out.surfaces[0]!.fillBags).toBe(0.3)
+    expect(out.surfaces[0]!.fillBags).toBe(tenthsUp(areaBags(5000, 11, { m2PerPack: 3, atThicknessMm: 10 }, 10)) / 10)
+    // the plan's fill task carries those bags, not the patch at the skim's coverage (0.5 / 10 = 0.05 -> 0.1)
+    const plan = planSets(out.surfaces, out.corners, { people: 1, bagsPerPersonPerSet: 3, coverageM2PerBag: 10 })
+    expect(plan.sets[0]!.tasks).toEqual([expect.objectContaining({ action: 'fill', bags: 0.3 })])
+    expect(planInputsFromRooms([r], rules).surfaces[0]!.fillBags).toBeUndefined()
+  })
+
+  it('0.61 bag of undercoat in the quote is 0.7 in the plan', () => {
+    // a bonding undercoat covering 1 m² at 10 mm (an invented figure, to make the issue's numbers):
+    // 0.5 m² x 11 / 10 / 1 x 1.1 = 0.605 -> the quote writes 0.61; the plan rounds up to 0.7
+    const catalogue: Material[] = [{ ...DEFAULT_MATERIALS.find(m => m.type === 'bonding-undercoat')!, coverage: { kind: 'area', m2PerPack: 1, atThicknessMm: 10 } }]
+    const r = room([surface('s', { conditions: [{ kind: 'patch-undercoat', areaCm2: 5000 }] })])
+    expect(quoteRatio(r, catalogue)).toBe(0.61)
+    expect(planInputsFromRooms([r], rules, undercoatTakeoff(catalogue, { wastePercent: 10 })).surfaces[0]!.fillBags).toBe(0.7)
+  })
+
+  it('two patches on one surface are summed before rounding, as the quote sums them', () => {
+    // (0.6 + 0.25) m² x 11 / 10 / 3 x 1.1 = 0.3428 -> 0.4 (not 0.3 + 0.2 = 0.5)
+    const r = room([surface('s', { conditions: [{ kind: 'patch-masonry', areaCm2: 6000 }, { kind: 'patch-undercoat', areaCm2: 2500 }] })])
+    expect(planInputsFromRooms([r], rules, takeoff).surfaces[0]!.fillBags).toBe(0.4)
+  })
+
+  it('a surface back to masonry all over gets an undercoat task before its skim, and no note', () => {
+    // 4.00 x 2.40 = 9.60 m² x 11 / 10 / 3 x 1.1 = 3.872 -> 3.9 bags; its patch is under that undercoat
+    const r = room([surface('s', { background: 'masonry', conditions: [{ kind: 'patch-masonry', areaCm2: 6000 }] })])
+    const out = planInputsFromRooms([r], rules, takeoff)
+    expect(out.surfaces).toEqual([{ id: 's', areaM2: 9.6, kind: 'wall', room: 'Front bedroom', undercoatBags: 3.9 }])
+    expect(out.notes).toEqual([])
+    const plan = planSets(out.surfaces, out.corners, { people: 2, bagsPerPersonPerSet: 3, coverageM2PerBag: 10 })
+    expect(plan.sets.map(s => s.tasks.map(t => `${t.action}:${t.bags}`))).toEqual([['undercoat:3.9'], ['skim:1']])
+  })
+
+  it('with no undercoat in the catalogue, the plan falls back to today\'s rule and the note', () => {
+    const none = undercoatTakeoff(DEFAULT_MATERIALS.filter(m => m.type !== 'bonding-undercoat'))
+    expect(none.coverage).toBeNull()
+    const out = planInputsFromRooms([room([surface('s', { background: 'masonry' }), surface('t', { conditions: [{ kind: 'patch-masonry', areaCm2: 5000 }] })])], rules, none)
+    expect(out.surfaces.map(s => [s.fillBags, s.undercoatBags])).toEqual([[undefined, undefined], [undefined, undefined]])
+    expect(out.notes).toHaveLength(1)
   })
 })

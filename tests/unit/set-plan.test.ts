@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import type { PlanCorner, PlanOptions, PlanSurface, SetPlan } from '../../shared/utils/set-plan'
-import { checkPlan, planSets } from '../../shared/utils/set-plan'
+import { checkPlan, PLAN_ACTION_WORDS, PLAN_ACTIONS, planSets, setLowerBound } from '../../shared/utils/set-plan'
+import { randomJob, seeded } from '../support/plan-rooms'
 
 // Sources. The order rules are common practice (../shared/DOMAIN.md, "Planning the sets"): split
 // the faces of a difficult internal corner across sets; fill low-suction patches in an earlier set
@@ -20,13 +21,23 @@ const setOf = (plan: SetPlan, surfaceId: string, action = 'skim'): number[] =>
   plan.sets.filter(s => s.tasks.some(t => t.surfaceId === surfaceId && t.action === action)).map(s => s.number)
 const task = (plan: SetPlan, surfaceId: string, action = 'skim') => plan.sets.flatMap(s => s.tasks).find(t => t.surfaceId === surfaceId && t.action === action)!
 
+/**
+ * planSets, and the plan has as few sets as the rules allow: exactly the lower bound (our own
+ * rule: the longest chain of "must be earlier" steps, or the bags over what one set takes).
+ */
+function planned(surfaces: PlanSurface[], corners: PlanCorner[], options: PlanOptions, labels?: Record<string, string>): SetPlan {
+  const plan = planSets(surfaces, corners, options, labels)
+  expect(plan.sets.length, 'the plan meets the lower bound').toBe(setLowerBound(surfaces, corners, options))
+  return plan
+}
+
 describe('planSets: hand-built rooms', () => {
   it('four walls and a ceiling with one difficult internal corner', () => {
     // common practice (DOMAIN.md, Planning the sets): the two faces of a difficult corner go in different sets.
     // At 4 m² a bag: W1 9.6 -> 2.4, W2 7.2 -> 1.8, W3 9.6 -> 2.4, W4 7.2 -> 1.8, ceiling 12 -> 3.0; 11.4 bags in all.
     // 2 people x 4 bags = 8 a set, so at least 2 sets. With W1 and W2 apart, the most even split of 11.4 is
     // {W1, C} = 5.4 against {W2, W3, W4} = 6.0 (W1 + W3 + W4 = 6.6 against 4.8 is worse).
-    const plan = planSets(
+    const plan = planned(
       [wall('W1', 9.6), wall('W2', 7.2), wall('W3', 9.6), wall('W4', 7.2), wall('C', 12)],
       [dry('W1', 'W2'), { a: 'W2', b: 'W3', kind: 'internal' }],
       { people: 2, bagsPerPersonPerSet: 4, coverageM2PerBag: 4 },
@@ -43,7 +54,7 @@ describe('planSets: hand-built rooms', () => {
   it('a wall with a patch back to masonry', () => {
     // common practice: the patch is filled a set before the skim so the wall has even suction.
     // 9.6 m² at 4 m² a bag = 2.4 bags; the 0.6 m² patch = 0.15 -> 0.2 bags (half up to one decimal).
-    const plan = planSets([wall('W', 9.6, { patches: [{ areaM2: 0.6 }] })], [], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
+    const plan = planned([wall('W', 9.6, { patches: [{ areaM2: 0.6 }] })], [], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
     expect(layout(plan)).toEqual([['fill:W'], ['skim:W']])
     expect(plan.sets.map(s => s.bags)).toEqual([0.2, 2.4])
     expect(task(plan, 'W', 'fill').reason).toBe('Patch filled in set 1 so the skim over it in set 2 has even suction')
@@ -53,7 +64,7 @@ describe('planSets: hand-built rooms', () => {
   it('a window reveal with a scrimmed gap, beside its window wall', () => {
     // common practice: thin tight coats over the scrim in two earlier sets, then the skim: 3 sets, and no fewer.
     // The window wall (8.4 m² -> 2.1 bags) has no rule on it and goes where the load is lightest.
-    const plan = planSets([wall('WW', 8.4), wall('R', 0.36, { scrimmedGap: true })], [{ a: 'WW', b: 'R', kind: 'external' }], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
+    const plan = planned([wall('WW', 8.4), wall('R', 0.36, { scrimmedGap: true })], [{ a: 'WW', b: 'R', kind: 'external' }], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
     expect(plan.sets).toHaveLength(3)
     expect(setOf(plan, 'R', 'tight-coat')).toEqual([1, 2])
     expect(setOf(plan, 'R')).toEqual([3])
@@ -67,7 +78,7 @@ describe('planSets: hand-built rooms', () => {
     // common practice: the face first, so the set plaster holds the bead, then the return in a later set.
     // Face 1.2 x 2.4 = 2.88 m² -> 0.72 -> 0.7 bags; return 0.3 x 2.4 = 0.72 m² -> 0.18 -> 0.2 bags.
     const labels = { CB: 'Chimney breast', CR: 'Chimney return' }
-    const plan = planSets([wall('CB', 2.88), wall('CR', 0.72)], [packed('CB', 'CR')], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }, labels)
+    const plan = planned([wall('CB', 2.88), wall('CR', 0.72)], [packed('CB', 'CR')], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }, labels)
     expect(layout(plan)).toEqual([['skim:CB'], ['skim:CR']])
     expect(task(plan, 'CB').reason).toBe('Face of the packed-out bead, skimmed in set 1 before its return (Chimney return in set 2) so the set plaster holds the bead')
     expect(task(plan, 'CR').reason).toBe('Return of the packed-out bead, skimmed in set 2 after its face (Chimney breast in set 1) so the bead is already held')
@@ -75,20 +86,20 @@ describe('planSets: hand-built rooms', () => {
 
   it('a corner that is both difficult and packed out takes both rules', () => {
     // the brief: both apply; the face-before-return order already puts them in different sets
-    const plan = planSets([wall('F', 4), wall('R', 1)], [{ a: 'R', b: 'F', kind: 'internal', dryCorner: true, packedBead: { face: 'F' } }], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
+    const plan = planned([wall('F', 4), wall('R', 1)], [{ a: 'R', b: 'F', kind: 'internal', dryCorner: true, packedBead: { face: 'F' } }], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
     expect(layout(plan)).toEqual([['skim:F'], ['skim:R']])
     expect(checkPlan([wall('F', 4), wall('R', 1)], [{ a: 'R', b: 'F', kind: 'internal', dryCorner: true, packedBead: { face: 'F' } }], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }, plan)).toEqual([])
   })
 
   it('a ring of four walls with a difficult corner at each needs two sets, not four', () => {
     // common practice: opposite walls can share a set (they share no corner); each wall 8 m² -> 2 bags
-    const plan = planSets([wall('W1', 8), wall('W2', 8), wall('W3', 8), wall('W4', 8)], [dry('W1', 'W2'), dry('W2', 'W3'), dry('W3', 'W4'), dry('W4', 'W1')], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
+    const plan = planned([wall('W1', 8), wall('W2', 8), wall('W3', 8), wall('W4', 8)], [dry('W1', 'W2'), dry('W2', 'W3'), dry('W3', 'W4'), dry('W4', 'W1')], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
     expect(layout(plan)).toEqual([['skim:W1', 'skim:W3'], ['skim:W2', 'skim:W4']])
   })
 
   it('everything in one set when it fits', () => {
     // 8 + 8.8 = 16.8 m² at 4 m² a bag = 2 + 2.2 = 4.2 bags, under 2 x 6 = 12
-    const plan = planSets([wall('A', 8), wall('B', 8.8)], [], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
+    const plan = planned([wall('A', 8), wall('B', 8.8)], [], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
     expect(layout(plan)).toEqual([['skim:A', 'skim:B']])
     expect(plan.sets[0]!.bags).toBe(4.2)
     expect(task(plan, 'A').reason).toBe('Fits in set 1 with room to spare (4.2 of 12 bags)')
@@ -97,20 +108,20 @@ describe('planSets: hand-built rooms', () => {
   it('keeps sets even rather than one full and one light', () => {
     // 5 + 1 + 1 + 1 + 1 = 9 bags, 6 a set: 2 sets. First fit would give {5, 1} = 6 and {1, 1, 1} = 3;
     // the even split is {5} = 5 and {1, 1, 1, 1} = 4.
-    const plan = planSets([wall('A', 20), wall('B', 4), wall('C', 4), wall('D', 4), wall('E', 4)], [], { people: 1, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
+    const plan = planned([wall('A', 20), wall('B', 4), wall('C', 4), wall('D', 4), wall('E', 4)], [], { people: 1, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
     expect(plan.sets.map(s => s.bags)).toEqual([5, 4])
   })
 
   it('splits walls across sets by what the people can lay on', () => {
     // 4 walls x 3 bags = 12, 6 a set: 2 sets of exactly 6
-    const plan = planSets([wall('A', 12), wall('B', 12), wall('C', 12), wall('D', 12)], [], { people: 1, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
+    const plan = planned([wall('A', 12), wall('B', 12), wall('C', 12), wall('D', 12)], [], { people: 1, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
     expect(plan.sets.map(s => s.bags)).toEqual([6, 6])
     expect(task(plan, 'A').reason).toBe('Fits in set 1, which it fills (6 of 6 bags)')
   })
 
   it('gives a skim bigger than a set a set to itself, with a warning', () => {
     // 60 m² at 4 m² a bag = 15 bags, more than 2 x 6 = 12; the other wall (2 bags) goes in a set of its own
-    const plan = planSets([wall('Big', 60), wall('Small', 8)], [], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
+    const plan = planned([wall('Big', 60), wall('Small', 8)], [], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 })
     expect(layout(plan)).toEqual([['skim:Big'], ['skim:Small']])
     expect(plan.warnings).toEqual(['Big needs 15 bags, more than 2 people can lay on and trowel in one set (12), so it has a set to itself. Split it at a natural break or bring more hands.'])
     expect(task(plan, 'Big').reason).toBe('On its own in set 1: at 15 bags it is more than 2 people can lay on and trowel in one set (12)')
@@ -118,7 +129,7 @@ describe('planSets: hand-built rooms', () => {
 
   it('splits a patch fill bigger than a set into parts, all before the skim', () => {
     // patches 18 + 12 = 30 m² at 4 m² a bag = 7.5 bags, 3 a set: 3 parts of 2.5; the skim (20 m² = 5 bags) is oversized
-    const plan = planSets([wall('W', 20, { patches: [{ areaM2: 18 }, { areaM2: 12 }] })], [], { people: 1, bagsPerPersonPerSet: 3, coverageM2PerBag: 4 })
+    const plan = planned([wall('W', 20, { patches: [{ areaM2: 18 }, { areaM2: 12 }] })], [], { people: 1, bagsPerPersonPerSet: 3, coverageM2PerBag: 4 })
     expect(layout(plan)).toEqual([['fill:W'], ['fill:W'], ['fill:W'], ['skim:W']])
     expect(plan.sets.map(s => s.bags)).toEqual([2.5, 2.5, 2.5, 5])
     expect(plan.sets[1]!.tasks[0]!.reason).toBe('Patch fill, part 2 of 3, in set 2 so the skim over it in set 4 has even suction')
@@ -126,7 +137,7 @@ describe('planSets: hand-built rooms', () => {
 
   it('adds tenths without floating-point dust', () => {
     // 0.4 m² and 0.8 m² at 4 m² a bag: 0.1 + 0.2 bags, and the set holds 0.3, not 0.30000000000000004
-    const plan = planSets([wall('A', 0.4), wall('B', 0.8)], [], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
+    const plan = planned([wall('A', 0.4), wall('B', 0.8)], [], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 })
     expect(plan.sets[0]!.bags).toBe(0.3)
   })
 
@@ -139,10 +150,10 @@ describe('planSets: hand-built rooms', () => {
     [10, 3, 3.3],
     [5, 3, 1.7],
   ])('a %f m² skim at %f m² a bag is %f bags', (areaM2, coverageM2PerBag, bags) => {
-    expect(task(planSets([wall('A', areaM2)], [], { people: 1, bagsPerPersonPerSet: 100, coverageM2PerBag }), 'A').bags).toBe(bags)
+    expect(task(planned([wall('A', areaM2)], [], { people: 1, bagsPerPersonPerSet: 100, coverageM2PerBag }), 'A').bags).toBe(bags)
   })
 
-  it('an empty room plans no sets', () => expect(planSets([], [], { people: 1, bagsPerPersonPerSet: 1, coverageM2PerBag: 1 })).toEqual({ sets: [], warnings: [] }))
+  it('an empty room plans no sets', () => expect(planned([], [], { people: 1, bagsPerPersonPerSet: 1, coverageM2PerBag: 1 })).toEqual({ sets: [], warnings: [] }))
 })
 
 describe('planSets: muddled rooms warn instead of throwing', () => {
@@ -160,13 +171,13 @@ describe('planSets: muddled rooms warn instead of throwing', () => {
     ['a circle of packed beads is broken at the corner that closes it', [wall('A', 4), wall('B', 4), wall('C', 4)], [packed('A', 'B'), packed('B', 'C'), packed('C', 'A')],
       ['The packed-out bead between C and A would have C skimmed before A, but other packed-out beads already put A first: the beads go round in a circle, so this one is planned as if it were not packed out. Check the order on site.']],
   ])('%s', (_what, surfaces, corners, warnings) => {
-    const plan = planSets(surfaces, corners, o)
+    const plan = planned(surfaces, corners, o)
     expect(plan.warnings).toEqual(warnings)
     expect(checkPlan(surfaces, corners, o, plan)).toEqual([])
   })
 
   it('the circle: A before B before C', () => {
-    const plan = planSets([wall('A', 4), wall('B', 4), wall('C', 4)], [packed('A', 'B'), packed('B', 'C'), packed('C', 'A')], o)
+    const plan = planned([wall('A', 4), wall('B', 4), wall('C', 4)], [packed('A', 'B'), packed('B', 'C'), packed('C', 'A')], o)
     expect(layout(plan)).toEqual([['skim:A'], ['skim:B'], ['skim:C']])
   })
 })
@@ -191,6 +202,175 @@ describe('planSets: bad numbers throw, naming the field', () => {
   ])('%s', (_what, surfaces, options, field) => {
     expect(() => planSets(surfaces, [], options)).toThrow(field)
     expect(() => planSets(surfaces, [], options)).toThrow(Error)
+  })
+})
+
+describe('planSets: ceilings before walls (the firm\'s rule, on unless false)', () => {
+  // Sources. Common practice (issue 16, DOMAIN.md "Planning the sets"): a ceiling skimmed after the
+  // walls drops plaster on finished walls, so most plasterers do each room's ceiling first. Our own
+  // rule for how it fits the others: no later than every other surface of its room (the same set is
+  // fine, the ceiling listed first), unless a rule that must hold (a packed-out bead) orders it the
+  // other way; then that rule wins and a warning says so. Areas and bags are invented inputs.
+  const room = 'Front bedroom'
+  const w = (id: string, areaM2: number, more: Partial<PlanSurface> = {}): PlanSurface => ({ id, areaM2, kind: 'wall', room, ...more })
+  const c = (id: string, areaM2: number, more: Partial<PlanSurface> = {}): PlanSurface => ({ id, areaM2, kind: 'ceiling', room, ...more })
+  const one: PlanOptions = { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }
+  const fourWalls = [w('W1', 9.6), w('W2', 7.2), w('W3', 9.6), w('W4', 7.2), c('C', 12)]
+  const twoByFour: PlanOptions = { people: 2, bagsPerPersonPerSet: 4, coverageM2PerBag: 4 }
+
+  it.each<[string, PlanSurface[], PlanCorner[], PlanOptions, string[][], Record<string, string>, string[]]>([
+    // common practice: with the rule the ceiling goes in set 1 with the walls it fits beside (W1 and W2 kept apart
+    // by their difficult corner); 12 m² at 4 m² a bag = 3 bags, + W2 1.8 + W4 1.8 = 6.6 against W1 + W3 = 4.8
+    ['the four walls and ceiling of the first hand-built room', fourWalls, [dry('W1', 'W2')], twoByFour,
+      [['skim:C', 'skim:W2', 'skim:W4'], ['skim:W1', 'skim:W3']],
+      { C: 'Ceiling first in set 1, before the walls of Front bedroom, so plaster dropped from it lands on walls not yet skimmed' }, []],
+    // our own rule: off, the planner only keeps the sets even, and the ceiling may end up last
+    ['the same room with the rule off', fourWalls, [dry('W1', 'W2')], { ...twoByFour, ceilingsFirst: false },
+      [['skim:W2', 'skim:W3', 'skim:W4'], ['skim:W1', 'skim:C']],
+      { C: 'In set 2 to keep the sets even (5.4 of 8 bags)' }, []],
+    // common practice: in one set the ceiling is listed (and done) first, whatever order the surfaces came in
+    ['one set: the ceiling first', [w('W1', 8), c('C', 8)], [], one, [['skim:C', 'skim:W1']],
+      { C: 'Ceiling first in set 1, before the walls of Front bedroom, so plaster dropped from it lands on walls not yet skimmed' }, []],
+    // common practice: a patch in the ceiling is filled first; the walls wait for the ceiling's skim, not for its fill
+    ['a ceiling with a patch: its fill, then the ceiling with the walls', [w('W1', 8), c('C', 8, { patches: [{ areaM2: 1 }] })], [], one,
+      [['fill:C'], ['skim:C', 'skim:W1']],
+      { C: 'Skimmed in set 2, after the patch fill in set 1, so the whole surface has even suction; Ceiling first in set 2, before the walls of Front bedroom, so plaster dropped from it lands on walls not yet skimmed' }, []],
+    // common practice for the corner (DOMAIN.md): its two faces in different sets, so the ceiling goes earlier
+    ['a difficult corner between the ceiling and a wall', [w('W1', 8), c('C', 8)], [{ a: 'W1', b: 'C', kind: 'internal', dryCorner: true }], one,
+      [['skim:C'], ['skim:W1']],
+      { C: 'Skimmed in set 1, before W1 (set 2), so that difficult corner is not worked with both faces wet; Ceiling in set 1, before the walls of Front bedroom, so plaster dropped from it lands on walls not yet skimmed' }, []],
+    // common practice (DOMAIN.md): the face of a packed-out bead before its return; it must hold, so it wins
+    ['a packed-out bead with the wall as its face: the hard rule wins', [w('W1', 8), c('C', 8), w('W2', 8)], [{ a: 'W1', b: 'C', kind: 'external', packedBead: { face: 'W1' } }], one,
+      [['skim:W1'], ['skim:C', 'skim:W2']],
+      { C: 'Return of the packed-out bead, skimmed in set 2 after its face (W1 in set 1) so the bead is already held; Ceiling first in set 2, before the other walls of Front bedroom, so plaster dropped from it lands on walls not yet skimmed; Not before W1: packed-out beads need that surface skimmed first, and that rule wins over ceilings first' },
+      ['C cannot go before W1 (Front bedroom) as the firm\'s ceilings-first rule says: packed-out beads need that surface skimmed first, and that rule wins. Cover the finished surface below while the ceiling is skimmed.']],
+    // our own rule: room by room; a 40 m² ceiling (10 bags, a full set) does not hold back the hall's wall, only its own room's
+    ['room by room', [w('H1', 8, { room: 'Hall' }), c('C', 40), w('W1', 8)], [], one, [['skim:C'], ['skim:H1', 'skim:W1']], {}, []],
+    // our own rule: surfaces with no room are one room
+    ['surfaces with no room count as one room', [{ id: 'W1', areaM2: 8, kind: 'wall' }, { id: 'C', areaM2: 8, kind: 'ceiling' }], [], { people: 1, bagsPerPersonPerSet: 2, coverageM2PerBag: 4 },
+      [['skim:C'], ['skim:W1']],
+      { C: 'Ceiling in set 1, before the walls, so plaster dropped from it lands on walls not yet skimmed' }, []],
+  ])('%s', (_what, surfaces, corners, options, sets, reasons, warnings) => {
+    const plan = planned(surfaces, corners, options)
+    expect(layout(plan)).toEqual(sets)
+    for (const [id, reason] of Object.entries(reasons)) expect(task(plan, id).reason).toBe(reason)
+    expect(plan.warnings).toEqual(warnings)
+    expect(checkPlan(surfaces, corners, options, plan)).toEqual([])
+  })
+
+  it('checkPlan says when a ceiling is moved after a wall of its room, and only when the rule is on', () => {
+    // common practice (as above); our own words. 8 m² at 4 m² a bag = 2 bags each, one set of 10 holds both
+    const surfaces = [w('W1', 8), c('C', 8)]
+    const labels = { W1: 'Front bedroom · Wall 1', C: 'Front bedroom · Ceiling' }
+    const plan = planned(surfaces, [], one, labels)
+    const after: SetPlan = { ...plan, sets: [{ number: 1, tasks: [task(plan, 'W1')], bags: 2 }, { number: 2, tasks: [task(plan, 'C')], bags: 2 }] }
+    expect(checkPlan(surfaces, [], one, after, labels)).toEqual(['Front bedroom · Ceiling is skimmed in set 2, after Front bedroom · Wall 1 (set 1): the firm does ceilings before the walls of Front bedroom, so plaster dropped from the ceiling does not mark a finished wall.'])
+    expect(checkPlan(surfaces, [], { ...one, ceilingsFirst: false }, after, labels)).toEqual([])
+    // the same set is no later: nothing to say
+    expect(checkPlan(surfaces, [], one, { ...plan, sets: [{ number: 1, tasks: [task(plan, 'W1'), task(plan, 'C')], bags: 4 }] }, labels)).toEqual([])
+  })
+
+  it('on random jobs of rooms, every ceiling is no later than the walls of its room unless a packed-out bead overrules it', () => {
+    const rand = seeded(1605)
+    for (let i = 0; i < 200; i++) {
+      const job = randomJob(rand)
+      const plan = planSets(job.surfaces, job.corners, job.options, job.labels)
+      const at = new Map(plan.sets.flatMap(s => s.tasks.filter(t => t.action === 'skim').map(t => [t.surfaceId, s.number] as const)))
+      for (const ceiling of job.surfaces.filter(s => s.kind === 'ceiling')) {
+        for (const other of job.surfaces.filter(s => s.room === ceiling.room && s.kind !== 'ceiling')) {
+          if (job.options.ceilingsFirst === false || at.get(ceiling.id)! <= at.get(other.id)!) continue
+          // only a packed-out bead may put a wall first, and then the warning names both
+          expect(plan.warnings.some(x => x.includes(job.labels[ceiling.id]!) && x.includes(job.labels[other.id]!) && x.includes('packed-out beads'))).toBe(true)
+        }
+        const set = plan.sets.find(s => s.tasks.some(t => t.surfaceId === ceiling.id && t.action === 'skim'))!
+        if (job.options.ceilingsFirst !== false) expect(set.tasks.findIndex(t => t.surfaceId === ceiling.id) <= set.tasks.findIndex(t => t.surfaceId !== ceiling.id && job.surfaces.find(s => s.id === t.surfaceId)?.kind !== 'ceiling') || set.tasks.every(t => t.surfaceId === ceiling.id || job.surfaces.find(s => s.id === t.surfaceId)?.kind === 'ceiling')).toBe(true)
+      }
+    }
+  })
+})
+
+describe('setLowerBound: the fewest sets the rules allow (our own rule)', () => {
+  it.each<[string, PlanSurface[], PlanCorner[], PlanOptions, number]>([
+    // nothing to plan
+    ['no surfaces', [], [], { people: 1, bagsPerPersonPerSet: 1, coverageM2PerBag: 1 }, 0],
+    // bags: 4 walls x 3 bags = 12 over 6 a set = 2
+    ['bags over one set', [wall('A', 12), wall('B', 12), wall('C', 12), wall('D', 12)], [], { people: 1, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 }, 2],
+    // bags, counted as bin packing does: three walls of 1.2 bags (4.8 m² at 4 m² a bag) cannot share sets of 2 bags: 3, not ceil(3.6 / 2) = 2
+    ['walls of more than half a set each need one', [wall('A', 4.8), wall('B', 4.8), wall('C', 4.8)], [], { people: 1, bagsPerPersonPerSet: 2, coverageM2PerBag: 4 }, 3],
+    // an oversized skim counts a set of its own: 15 bags alone + 2 bags = 2
+    ['an oversized skim has a set to itself', [wall('Big', 60), wall('Small', 8)], [], { people: 2, bagsPerPersonPerSet: 6, coverageM2PerBag: 4 }, 2],
+    // the chain: two tight coats and the skim = 3 sets, however few bags
+    ['a chain of must-be-earlier steps', [wall('R', 0.4, { scrimmedGap: true })], [], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }, 3],
+    // a difficult corner is a step one way or the other: 2 sets, though 4 bags fit in one
+    ['a difficult corner', [wall('A', 8), wall('B', 8)], [dry('A', 'B')], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }, 2],
+    // a fill, then the ceiling, then a wall's packed-out return: ceiling first adds no set of its own, but
+    // carries the chain: fill (1) -> ceiling (2) <= wall face (2) -> its return (3)
+    ['ceilings first carries a chain', [wall('C', 8, { kind: 'ceiling', room: 'R', patches: [{ areaM2: 1 }] }), wall('F', 8, { room: 'R' }), wall('S', 2, { room: 'R' })], [packed('F', 'S')], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }, 3],
+    ['the same with the rule off', [wall('C', 8, { kind: 'ceiling', room: 'R', patches: [{ areaM2: 1 }] }), wall('F', 8, { room: 'R' }), wall('S', 2, { room: 'R' })], [packed('F', 'S')], { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4, ceilingsFirst: false }, 2],
+  ])('%s: %i', (_what, surfaces, corners, options, bound) => {
+    expect(setLowerBound(surfaces, corners, options)).toBe(bound)
+    expect(planned(surfaces, corners, options).sets).toHaveLength(bound)
+  })
+
+  it('throws like planSets for a bad number', () => {
+    expect(() => setLowerBound([wall('A', -1)], [], { people: 1, bagsPerPersonPerSet: 1, coverageM2PerBag: 1 })).toThrow(/surfaces\[0\]\.areaM2/)
+  })
+
+  it('on 1,000 random jobs of rooms the planner is never below the bound (it is one) and never more than one set above it', () => {
+    // seeded (tests/support/plan-rooms.ts), so a failure can be repeated
+    const rand = seeded(16)
+    let met = 0
+    for (let i = 0; i < 1000; i++) {
+      const job = randomJob(rand)
+      const plan = planSets(job.surfaces, job.corners, job.options)
+      const bound = setLowerBound(job.surfaces, job.corners, job.options)
+      // the plan keeps every rule (only an oversized skim or a packed-out bead over ceilings first may warn)
+      for (const w of checkPlan(job.surfaces, job.corners, job.options, plan)) expect(w).toContain('a set to itself')
+      expect(plan.sets.length).toBeGreaterThanOrEqual(bound)
+      expect(plan.sets.length - bound, `job ${i}`).toBeLessThanOrEqual(1)
+      if (plan.sets.length === bound) met += 1
+    }
+    // the figure the benchmark prints; here only that the bound is met most of the time
+    expect(met).toBeGreaterThan(800)
+  }, 60_000)
+})
+
+describe('plan actions for the screens', () => {
+  it('has words for every action', () => {
+    expect(PLAN_ACTION_WORDS).toEqual({ 'fill': 'Fill', 'undercoat': 'Undercoat', 'tight-coat': 'Tight coat', 'skim': 'Skim' })
+    expect(Object.keys(PLAN_ACTION_WORDS).sort()).toEqual([...PLAN_ACTIONS].sort())
+  })
+})
+
+describe('planSets: fill and undercoat bags from the take-off', () => {
+  const o: PlanOptions = { people: 1, bagsPerPersonPerSet: 10, coverageM2PerBag: 4 }
+  it('takes the fill bags given, rounded up to tenths, instead of the patches at the skim\'s coverage', () => {
+    // the quote's undercoat for the patch: 0.61 bag -> 0.7 in the plan (the patch at skim coverage would be 0.5 / 4 = 0.125 -> 0.1)
+    const surfaces = [wall('W', 9.6, { patches: [{ areaM2: 0.5 }], fillBags: 0.61 })]
+    const plan = planned(surfaces, [], o)
+    expect(layout(plan)).toEqual([['fill:W'], ['skim:W']])
+    expect(task(plan, 'W', 'fill').bags).toBe(0.7)
+    expect(checkPlan(surfaces, [], o, plan)).toEqual([])
+  })
+
+  it('plans an undercoat over the whole surface in an earlier set than its skim', () => {
+    // back to masonry all over: 3.5 bags of undercoat (take-off), split in two as one person lays on 2 bags a set
+    const surfaces = [wall('W', 8, { undercoatBags: 3.5 })]
+    const options = { people: 1, bagsPerPersonPerSet: 2, coverageM2PerBag: 4 }
+    const plan = planned(surfaces, [], options)
+    expect(layout(plan)).toEqual([['undercoat:W'], ['undercoat:W'], ['skim:W']])
+    expect(plan.sets.map(s => s.bags)).toEqual([1.8, 1.7, 2])
+    expect(plan.sets[0]!.tasks[0]!.reason).toBe('Undercoat over the whole surface, part 1 of 2, in set 1, to firm up before the skim over it in set 3')
+    expect(task(plan, 'W').reason).toBe('Skimmed in set 3, after the undercoat over the whole surface in set 1 and set 2')
+    expect(checkPlan(surfaces, [], options, plan)).toEqual([])
+    // moved after its skim, checkPlan says so
+    const moved: SetPlan = { ...plan, sets: [plan.sets[0]!, { ...plan.sets[2]!, number: 2 }, { ...plan.sets[1]!, number: 3 }] }
+    expect(checkPlan(surfaces, [], options, moved)).toEqual(['The undercoat for W in set 3 is not before its skim in set 2.'])
+  })
+
+  it('bad fill or undercoat bags throw, naming the field', () => {
+    expect(() => planSets([wall('W', 1, { fillBags: -1 })], [], o)).toThrow(/surfaces\[0\]\.fillBags/)
+    expect(() => planSets([wall('W', 1, { undercoatBags: Number.NaN })], [], o)).toThrow(/surfaces\[0\]\.undercoatBags/)
   })
 })
 
@@ -472,7 +652,7 @@ describe('planSets: properties of every plan', () => {
       const plan = planSets(room.surfaces, room.corners, room.options)
       expect(broken(room, plan)).toEqual([])
     }), { numRuns: 600 })
-  })
+  }, 60_000)
 
   it('checkPlan finds nothing wrong with a fresh plan but the oversized-skim warnings', () => {
     fc.assert(fc.property(roomArb, (room) => {
@@ -482,7 +662,7 @@ describe('planSets: properties of every plan', () => {
         expect(plan.warnings).toContain(w)
       }
     }), { numRuns: 400 })
-  })
+  }, 60_000)
 
   it('the same input gives the same plan, and the input is not changed', () => {
     fc.assert(fc.property(roomArb, (room) => {
@@ -491,13 +671,13 @@ describe('planSets: properties of every plan', () => {
       expect(room).toEqual(before)
       expect(planSets(before.surfaces, before.corners, before.options)).toEqual(plan)
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 
   it('no two neighbouring sets could be one (as few sets as the rules allow, pair by pair)', () => {
     fc.assert(fc.property(roomArb, (room) => {
       expect(mergeable(room, planSets(room.surfaces, room.corners, room.options))).toEqual([])
     }), { numRuns: 400 })
-  })
+  }, 60_000)
 
   it('plain rooms are balanced: the heaviest and lightest sets differ by no more than the smallest job in the heaviest', () => {
     const plainArb = fc.record({
@@ -512,7 +692,7 @@ describe('planSets: properties of every plan', () => {
       const smallest = Math.min(...heaviest.tasks.map(t => tenthsOf(t.bags)).filter(b => b > 0))
       expect(Math.max(...loads) - Math.min(...loads)).toBeLessThanOrEqual(smallest)
     }), { numRuns: 400 })
-  })
+  }, 60_000)
 
   it('moving a surface onto its difficult corner\'s set is caught by checkPlan', () => {
     fc.assert(fc.property(roomArb, (room) => {
@@ -528,7 +708,7 @@ describe('planSets: properties of every plan', () => {
         expect(said.some(w => w.includes('share a difficult corner') && mentions(w, c.a) && mentions(w, c.b))).toBe(true)
       }
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 
   it('a ring of packed beads warns and still plans, whatever else is in the room', () => {
     const ringArb = fc.record({ n: fc.integer({ min: 2, max: 8 }), extra: fc.array(cornersOf(IDS.slice(0, 8)), { maxLength: 6 }), options: optionsArb })
@@ -539,7 +719,7 @@ describe('planSets: properties of every plan', () => {
       expect(plan.warnings.some(w => w.includes('round in a circle'))).toBe(true)
       expect(broken({ surfaces, corners, options }, plan)).toEqual([])
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 
   it('bad numbers throw an Error naming the field, wherever they are', () => {
     const badArb = fc.constantFrom(Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, -1, -0.01)
@@ -555,5 +735,5 @@ describe('planSets: properties of every plan', () => {
       const name = field === 'patch' ? /patches\[0\]\.areaM2/ : new RegExp(field)
       expect(() => planSets(surfaces, room.corners, options)).toThrow(name)
     }), { numRuns: 300 })
-  })
+  }, 60_000)
 })

@@ -8,6 +8,7 @@ import { firmColumn, sameFirm, timestamps } from './common'
 import { firms } from './firms'
 import { customers, sites } from './ledger'
 import { users } from './users'
+import type { PlanAction } from '../../../shared/utils/set-plan'
 import { photos, visits } from './visits'
 import { materials, quotes, quoteVersions } from './quotes'
 import { JOB_STATUSES, LOG_COATS, DAY_PORTIONS } from '../../../shared/utils/jobs'
@@ -116,7 +117,7 @@ export const setLogs = pgTable('set_logs', {
   notes: text().notNull().default(''),
   loggedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
   /** The plan's tasks this entry carries out (surface and action), ticked on the phone. */
-  tasks: jsonb().$type<{ surfaceId: string, action: 'fill' | 'tight-coat' | 'skim' }[]>().notNull().default([]),
+  tasks: jsonb().$type<{ surfaceId: string, action: PlanAction }[]>().notNull().default([]),
   /** Made on the phone when the entry was started: a resend of the same entry (after a lost answer or from the offline queue) is stored once. */
   clientId: uuid(),
   ...timestamps,
