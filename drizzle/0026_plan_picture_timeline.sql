@@ -6,4 +6,5 @@ ALTER TABLE "price_books" ADD COLUMN "go_off_minutes" integer DEFAULT 105 NOT NU
 ALTER TABLE "price_books" ADD COLUMN "day_start_minutes" integer DEFAULT 480 NOT NULL;--> statement-breakpoint
 ALTER TABLE "price_books" ADD COLUMN "day_end_minutes" integer DEFAULT 990 NOT NULL;--> statement-breakpoint
 ALTER TABLE "price_books" ADD COLUMN "packed_bead_per_lm_pence" integer DEFAULT 0 NOT NULL;--> statement-breakpoint
-ALTER TABLE "price_books" ADD COLUMN "narrow_return_per_lm_pence" integer DEFAULT 0 NOT NULL;
+ALTER TABLE "price_books" ADD COLUMN "narrow_return_per_lm_pence" integer DEFAULT 0 NOT NULL;--> statement-breakpoint
+ALTER TABLE "price_books" ADD COLUMN "quote_work_page" boolean DEFAULT true NOT NULL;

@@ -26,6 +26,7 @@ async function workPictures(f: FirmScope, visitId: string): Promise<RoomPicture[
   const rooms = await loadRooms(f, visitId)
   if (!rooms.length) return []
   const book = await usePriceBook(f)
+  if (!book.quoteWorkPage) return []
   try {
     const inputs = planInputsFromRooms(rooms, { cornerTrowelMm: book.cornerTrowelMm, outOfTrueToleranceMm: book.outOfTrueToleranceMm, minDeductCm2: book.minDeductCm2 })
     const plan = planSets(inputs.surfaces, inputs.corners, { ...(await defaultPlanOptions(f)), ceilingsFirst: book.ceilingsFirst }, inputs.labels)

@@ -55,6 +55,7 @@ export const priceBookSchema = z.object({
   packedBeadPerLmPence: pence('The rate for packing out a bead').optional(),
   narrowReturnPerLmPence: pence('The rate for a narrow return').optional(),
   ceilingsFirst: z.boolean({ error: 'Tick the box or leave it clear.' }).optional(),
+  quoteWorkPage: z.boolean({ error: 'Tick the box or leave it clear.' }).optional(),
   mixMinutes: z.int({ error: 'Enter whole minutes.' }).min(1, { error: 'At least 1 minute.' }).max(120, { error: 'Over 120 minutes to mix? Check the figure.' }).optional(),
   goOffMinutes: z.int({ error: 'Enter whole minutes.' }).min(20, { error: 'At least 20 minutes: check the figure.' }).max(360, { error: 'Over 6 hours (360 minutes)? Check the figure.' }).optional(),
   dayStartMinutes: dayTime('the start').optional(),

@@ -44,6 +44,12 @@ export const CEILINGS_FIRST_FIELD = {
   hint: 'Common practice: plaster dropped from a ceiling spoils walls already skimmed, so each room\'s ceiling goes in a set no later than its walls',
 } as const
 
+/** Whether the quote's PDF shows each measured room drawn set by set. */
+export const QUOTE_WORK_PAGE_FIELD = {
+  key: 'quoteWorkPage', label: 'Show "How we\'ll do the work" on quotes',
+  hint: 'A page on the quote\'s PDF with each measured room drawn set by set, as the planner would do it',
+} as const
+
 /** The day's timeline: minutes, whole numbers (rules of thumb the firm sets). */
 export const PRICE_BOOK_TIMELINE = [
   { key: 'mixMinutes', label: 'Mixing a set (minutes)', hint: 'From the water in the bucket to ready to lay on: your own pace' },
@@ -64,6 +70,7 @@ type SiteRuleKey = (typeof PRICE_BOOK_SITE_RULES)[number]['key']
 
 export type PriceBookFigures = Record<RateKey | TakeOffKey | SiteRuleKey | TimelineKey | DayKey, number> & {
   ceilingsFirst: boolean
+  quoteWorkPage: boolean
   minDeductCm2: number
   beadStockLengthsMm: number[]
   makingGoodItems?: { name: string, unit: string, pricePence: number }[] | null
@@ -74,6 +81,7 @@ export interface PriceBookForm {
   takeOff: Record<TakeOffKey, string>
   site: Record<SiteRuleKey, string>
   ceilingsFirst: boolean
+  quoteWorkPage: boolean
   timeline: Record<TimelineKey, string>
   /** The day's ends as typed in a time field, 'HH:MM'. */
   day: Record<DayKey, string>
@@ -92,6 +100,7 @@ export function priceBookFormFrom(b: PriceBookFigures): PriceBookForm {
     takeOff: typed(PRICE_BOOK_TAKE_OFF, k => String(b[k])),
     site: typed(PRICE_BOOK_SITE_RULES, k => String(b[k])),
     ceilingsFirst: b.ceilingsFirst,
+    quoteWorkPage: b.quoteWorkPage,
     timeline: typed(PRICE_BOOK_TIMELINE, k => String(b[k])),
     day: typed(PRICE_BOOK_DAY, k => timeOfDay(b[k])),
     minDeductCm2: b.minDeductCm2 === 5000 ? 5000 : 0,
@@ -142,5 +151,5 @@ export function priceBookBody(form: PriceBookForm): { body: Record<string, unkno
     return { name: m.name, unit: m.unit, pricePence: pricePence ?? 0 }
   })
   if (Object.keys(errors).length) return { errors }
-  return { body: { ...figures, ceilingsFirst: form.ceilingsFirst, minDeductCm2: form.minDeductCm2, beadStockLengthsMm: stock.ok ? stock.mm : [], makingGoodItems } }
+  return { body: { ...figures, ceilingsFirst: form.ceilingsFirst, quoteWorkPage: form.quoteWorkPage, minDeductCm2: form.minDeductCm2, beadStockLengthsMm: stock.ok ? stock.mm : [], makingGoodItems } }
 }

@@ -25,7 +25,7 @@ async function currentBook(who = owner) {
   return rest as Record<string, unknown>
 }
 
-const NEW_FIGURES = ['packedBeadPerLmPence', 'narrowReturnPerLmPence', 'ceilingsFirst', 'mixMinutes', 'goOffMinutes', 'dayStartMinutes', 'dayEndMinutes'] as const
+const NEW_FIGURES = ['packedBeadPerLmPence', 'narrowReturnPerLmPence', 'ceilingsFirst', 'quoteWorkPage', 'mixMinutes', 'goOffMinutes', 'dayStartMinutes', 'dayEndMinutes'] as const
 
 describe('the price book: corner rates, ceilings first and the day\'s timeline', () => {
   it('a new firm starts with the defaults, and the owner\'s figures come back as saved', async () => {
@@ -33,9 +33,9 @@ describe('the price book: corner rates, ceilings first and the day\'s timeline',
     const start = await currentBook(fresh)
     // the columns' defaults: rates not set, ceilings first, 15 minutes to mix, 105 to go off, 08:00 to 16:30
     expect(Object.fromEntries(NEW_FIGURES.map(k => [k, start[k]]))).toEqual({
-      packedBeadPerLmPence: 0, narrowReturnPerLmPence: 0, ceilingsFirst: true, mixMinutes: 15, goOffMinutes: 105, dayStartMinutes: 480, dayEndMinutes: 990,
+      packedBeadPerLmPence: 0, narrowReturnPerLmPence: 0, ceilingsFirst: true, quoteWorkPage: true, mixMinutes: 15, goOffMinutes: 105, dayStartMinutes: 480, dayEndMinutes: 990,
     })
-    const figures = { packedBeadPerLmPence: 4_50, narrowReturnPerLmPence: 7_25, ceilingsFirst: false, mixMinutes: 20, goOffMinutes: 90, dayStartMinutes: 450, dayEndMinutes: 1020 }
+    const figures = { packedBeadPerLmPence: 4_50, narrowReturnPerLmPence: 7_25, ceilingsFirst: false, quoteWorkPage: false, mixMinutes: 20, goOffMinutes: 90, dayStartMinutes: 450, dayEndMinutes: 1020 }
     const put = await fresh.put('/api/price-book', { ...start, ...figures })
     expect(put.status, JSON.stringify(put.body)).toBe(200)
     expect(put.body).toMatchObject(figures)
@@ -66,6 +66,7 @@ describe('the price book: corner rates, ceilings first and the day\'s timeline',
     ['no time to mix', { mixMinutes: 0 }, 'mixMinutes', /At least 1 minute/],
     ['over two hours to mix', { mixMinutes: 121 }, 'mixMinutes', /120 minutes/],
     ['ceilings first as a word', { ceilingsFirst: 'yes' }, 'ceilingsFirst', /Tick the box/],
+    ['the quote\'s work page as a number', { quoteWorkPage: 1 }, 'quoteWorkPage', /Tick the box/],
     ['a packed-out bead rate below nothing', { packedBeadPerLmPence: -1 }, 'packedBeadPerLmPence', /cannot be negative/],
     ['a packed-out bead rate in pounds with pence', { packedBeadPerLmPence: 4.5 }, 'packedBeadPerLmPence', /pounds and pence/],
     ['a narrow return rate far too high', { narrowReturnPerLmPence: 100_000_01 }, 'narrowReturnPerLmPence', /too high/],

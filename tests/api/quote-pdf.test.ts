@@ -128,6 +128,23 @@ describe('the PDF of a quote', () => {
     expect(Buffer.from(res.bytes).toString('latin1')).not.toMatch(/https?:\/\/|\/URI\b|\/Launch\b|\/JavaScript\b/)
   })
 
+  it('leaves out "How we\'ll do the work" when the firm has turned it off, and shows it again when turned on', async () => {
+    const { id } = await measuredQuote({ kind: 'homeowner', name: 'Odile Penhallow' })
+    const book = (await owner.get('/api/price-book')).body
+    const { updatedAt: _u, firmId: _f, createdAt: _c, ...figures } = book
+    try {
+      expect((await owner.put('/api/price-book', { ...figures, quoteWorkPage: false })).status).toBe(200)
+      const off = await pdfText((await getBytes(`/quotes/${id}/pdf`, owner)).bytes)
+      expect(off.text).toContain('Odile Penhallow')
+      expect(off.text).not.toContain('How we\'ll do the work')
+    }
+    finally {
+      expect((await owner.put('/api/price-book', { ...figures, quoteWorkPage: true })).status).toBe(200)
+    }
+    const on = await pdfText((await getBytes(`/quotes/${id}/pdf`, owner)).bytes)
+    expect(on.text).toContain('How we\'ll do the work')
+  })
+
   it('gives the customer the same PDF by their link, with the reverse charge and CIS spelt out', async () => {
     const { id, email } = await measuredQuote({ kind: 'builder', name: 'Corbel Build Ltd', vatRegistered: true, vatNumber: 'GB 999 9999 73', paysUnderCis: true, cisRatePercent: 20 })
     const q = (await owner.get(`/api/quotes/${id}`)).body

@@ -8,7 +8,7 @@ const book: PriceBookFigures = {
   skimWallsPerM2Pence: 1800, skimCeilingsPerM2Pence: 2000, undercoatPerM2Pence: 1200, revealsPerLmPence: 900, beadsPerLmPence: 350, scrimPerLmPence: 150,
   materialsMarkupPercent: 10, narrowMaxMm: 300, beadWastePercent: 10, materialsWastePercent: 10, m2PerDay: 40,
   drySkimDays: 7, dryUndercoatDays: 14, dryColdOrDampExtraDays: 7, cornerTrowelMm: 100, outOfTrueToleranceMm: 10, bagsPerPersonPerSet: 3,
-  packedBeadPerLmPence: 450, narrowReturnPerLmPence: 700, ceilingsFirst: true,
+  packedBeadPerLmPence: 450, narrowReturnPerLmPence: 700, ceilingsFirst: true, quoteWorkPage: true,
   mixMinutes: 15, goOffMinutes: 105, dayStartMinutes: 480, dayEndMinutes: 990,
   minDeductCm2: 5000, beadStockLengthsMm: [2500, 3000], makingGoodItems: [{ name: 'Make good round a socket', unit: 'item', pricePence: 3500 }],
 }

@@ -67,6 +67,8 @@ export const priceBooks = pgTable('price_books', {
   packedBeadPerLmPence: integer().notNull().default(0),
   /** Making good a narrow return (narrower than the corner trowel), per metre of corner. */
   narrowReturnPerLmPence: integer().notNull().default(0),
+  /** The quote's PDF carries "How we'll do the work": each measured room drawn set by set (the firm can leave it off). */
+  quoteWorkPage: boolean().notNull().default(true),
   ...timestamps,
 }, () => [firmPolicy('price_books')]).enableRLS()
 
