@@ -145,6 +145,11 @@ describe('the picture of a room', () => {
       expect(await sheet.getByRole('button', { name: 'Zoom in' }).isVisible()).toBe(false)
       const patterns = await sheetSvg.locator('pattern:not([id$="-none"])').evaluateAll(ps => ps.map(p => p.innerHTML.replace(/fill="[^"]*"|stroke="[^"]*"/g, '')))
       expect(new Set(patterns).size).toBe(patterns.length)
+      // ...and the day's timeline prints with it: a bar per person and each set's times in words
+      const timeline = firstDay.getByTestId('day-timeline')
+      await expectVisible(timeline)
+      expect(await timeline.locator('[data-testid^="timeline-person-"]').count()).toBeGreaterThan(0)
+      expect(await timeline.getByTestId('timeline-words').innerText()).toMatch(/set \d/i)
       const shot = await screenshot(page, 'day-sheet-picture-print')
       await sharp(shot).grayscale().toFile(shot.replace(/\.png$/, '-grey.png'))
       const pdf = await page.pdf({ format: 'A4', printBackground: true })
