@@ -75,5 +75,5 @@ export function limitPasswordCheck(event: H3Event, email: string) {
 /** Count one public enquiry from this address: 429 past 5 an hour. */
 export function limitPublicForm(event: H3Event) {
   return takeLimits(event, [{ key: `enquiry-form:${clientAddress(event)}`, max: PUBLIC_FORM_MAX, windowSeconds: PUBLIC_FORM_WINDOW_SECONDS }],
-    () => 'Thank you, we have your enquiries. Please wait a while before sending another, or give us a ring.')
+    minutes => `This enquiry has not been sent: too many have come from this connection in the last hour. What you typed is still here: please send it again in ${minutes >= 60 ? 'an hour' : `${minutes} minute${minutes === 1 ? '' : 's'}`}, or give us a ring.`)
 }

@@ -221,13 +221,22 @@ describe('the public enquiry form', () => {
     expect((await owner.get('/api/customers?q=honey bot')).body.total).toBe(0)
   })
 
-  it('limits one address to 5 an hour with 429 and Retry-After', async () => {
-    // two sends so far from this address in this file (the enquiry and the honeypot)
+  it('limits one address to 5 an hour with a 429 that says it was not sent (never a thank-you); failed checks do not count', async () => {
+    // two sends so far from this address in this file (the enquiry and the honeypot); the bad
+    // bodies of the 400 test did not count, nor do these
     const anon = new Client(app.url)
+    for (let i = 0; i < 4; i++) expect((await anon.post(`/api/public/enquiry-forms/${key}`, form({ postcode: '' }))).status).toBe(400)
     for (let i = 0; i < 3; i++) expect((await anon.post(`/api/public/enquiry-forms/${key}`, form())).status).toBe(201)
-    const limited = await anon.post(`/api/public/enquiry-forms/${key}`, form())
+    const before = (await owner.get('/api/enquiries')).body.total
+    const limited = await anon.post(`/api/public/enquiry-forms/${key}`, form({ name: 'Tamsin Over-Limit' }))
     expect(limited.status).toBe(429)
     expect(Number(limited.headers.get('retry-after'))).toBeGreaterThan(59 * 60)
+    // a refusal in words: not sent, nothing lost, try later or ring; no thanks for what was not stored
+    expect(limited.body.data.message).toMatch(/has not been sent/)
+    expect(limited.body.data.message).toMatch(/again in (an hour|\d+ minutes?), or give us a ring/)
+    expect(limited.body.data.message).not.toMatch(/thank/i)
+    expect((await owner.get('/api/enquiries')).body.total).toBe(before)
+    expect((await owner.get('/api/customers?q=Tamsin Over-Limit')).body.total).toBe(0)
   })
 
   it('stops the old link when the owner makes a new one', async () => {

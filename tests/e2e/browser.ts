@@ -204,12 +204,12 @@ export function expectCleanRun(person: Person) {
  * a test, closed after it. When a test fails, each open page is screenshotted to the artefacts
  * and the page errors and the end of the server's output are printed.
  */
-export function useE2E() {
+export function useE2E(extraEnv: Record<string, string> = {}) {
   let app: TestApp | undefined
   const people: Person[] = []
 
   beforeAll(async () => {
-    app = await startApp()
+    app = await startApp(extraEnv)
   })
 
   afterEach(async (ctx) => {
