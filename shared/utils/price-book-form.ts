@@ -1,6 +1,7 @@
 // Between the price book form (figures as typed) and the API (pence, whole numbers, bead lengths in
 // millimetres): read the book into the form, and the form back into a body, naming each figure that
 // is not right beside its field (the server checks again). Pure.
+import { clockTime } from './set-timeline'
 import { parsePounds, penceToDecimal } from './money'
 import { formatStockLength, parseStockLengths } from './takeoff'
 
@@ -113,7 +114,7 @@ const whole = (s: string) => (/^\d+$/.test(s.trim()) ? Number(s.trim()) : null)
 
 /** Minutes after midnight as a time field shows it: 480 -> '08:00', 990 -> '16:30'. */
 export function timeOfDay(minutes: number): string {
-  return `${String(Math.floor(minutes / 60)).padStart(2, '0')}:${String(minutes % 60).padStart(2, '0')}`
+  return clockTime(minutes)
 }
 
 /** A time as typed ('08:00', '8:00', '16.30') to minutes after midnight, or null when it is not one. */
