@@ -24,12 +24,27 @@ export const firms = pgTable('firms', {
   utr: text(),
   dayRatePence: integer().notNull().default(0),
   paymentTermsDays: integer().notNull().default(30),
-  invoicePrefix: text().notNull().default('INV-'),
+  /**
+   * The firm's letters at the front of its references (shared/utils/references.ts): the initials of
+   * the trading name when the firm is made ("Brackenridge Plastering" gives BP), which the owner can change.
+   */
+  referenceLetters: text().notNull().default(''),
+  /** Blank means the firm's letters then a dash: BP-12 (shared/utils/references.ts invoicePrefixOf). */
+  invoicePrefix: text().notNull().default(''),
   /** Credit notes numbered with the invoices ('shared') or in a series of their own ('own', with their prefix). */
   creditNoteNumbering: text().$type<'shared' | 'own'>().notNull().default('own'),
-  creditNotePrefix: text().notNull().default('CN-'),
-  /** How the firm is paid by transfer, printed on invoices. */
+  /** Blank means the firm's letters then -C: BP-C3. */
+  creditNotePrefix: text().notNull().default(''),
+  /** How the firm is paid by transfer, printed on invoices. Old free text, read into the fields below by migration 0027 (sort code and account number where plain to see). */
   bankDetails: text().notNull().default(''),
+  /** Whether invoices offer payment by bank transfer: then the three fields below must be filled in before one is issued. */
+  takesTransfer: boolean().notNull().default(true),
+  /** The name on the firm's bank account, as a payer's bank checks it. */
+  bankAccountName: text().notNull().default(''),
+  /** Six digits, kept without dashes (shared/utils/bank-details.ts). */
+  bankSortCode: text().notNull().default(''),
+  /** Eight digits. */
+  bankAccountNumber: text().notNull().default(''),
   /** The secret part of the firm's public enquiry form link; the owner can reset it. */
   enquiryFormKey: text().notNull().unique('firms_enquiry_form_key_unique').default(sql`replace(gen_random_uuid()::text, '-', '')`),
   ...timestamps,
