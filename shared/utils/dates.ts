@@ -241,3 +241,21 @@ export function whenSaid(at: Date, now: Date = new Date()): string {
   if (day === addDays(today, -1)) return `at ${time} yesterday`
   return `at ${time} on ${day.slice(0, 4) === today.slice(0, 4) ? dayAndMonth(at) : fullDate(at)}`
 }
+
+// ---------------------------------------------------------------------------------------------
+// Words for e-mails and letters (helper A, issue 17): no ISO date or timestamp reaches a person.
+
+/** "at 14:22": the London time of an instant, as a sentence says it. */
+export function atLondonTime(at: Date): string {
+  return `at ${londonTime(at)}`
+}
+
+/** "Thursday 3 December 2026 at 14:22": an instant as its London day and time (a quote accepted, a payment received). */
+export function fullDateAtTime(at: Date): string {
+  return `${fullDate(at)} ${atLondonTime(at)}`
+}
+
+/** "1 day", "40 days": a count of days in words for a sentence. */
+export function daysInWords(days: number): string {
+  return `${days} ${Math.abs(days) === 1 ? 'day' : 'days'}`
+}

@@ -2,6 +2,8 @@ import type Stripe from 'stripe'
 import { eq, lt, sql } from 'drizzle-orm'
 import { customers, firms, invoices, payments, stripeEvents } from '../../db/schema'
 import { stripePaymentMetadataSchema } from '#shared/schemas/invoice'
+import { fullDate } from '#shared/utils/dates'
+import type { FirmContact } from '../../utils/mail'
 
 /**
  * Stripe's webhook. The raw body is checked against the Stripe-Signature header (400 otherwise,
@@ -27,7 +29,7 @@ export default defineEventHandler(async (event) => {
   if (!meta.success) return { received: true, outcome: 'not ours' }
   const { firmId, invoiceId } = meta.data
 
-  let receipt: { to: string, name: string, reference: string, amountPence: number, firmName: string } | null = null
+  let receipt: { to: string, name: string, reference: string, amountPence: number, firm: FirmContact } | null = null
   const outcome = await withFirm({ firmId, userId: null }, async (f) => {
     const [firm] = await f.tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, firmId))
     if (!firm) return 'not ours'
@@ -85,16 +87,16 @@ export default defineEventHandler(async (event) => {
     }
     await recordPayment(f, invoiceId, { method: 'card', amountPence: amount, receivedOn: todayIso(), reference: intentId, stripePaymentIntentId: intentId })
     const [customer] = await f.tx.select({ email: customers.email, name: customers.name, contactName: customers.contactName }).from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
-    if (customer?.email) receipt = { to: customer.email, name: customer.contactName || customer.name, reference: inv.reference ?? '', amountPence: amount, firmName: firm.tradingName }
+    if (customer?.email) receipt = { to: customer.email, name: customer.contactName || customer.name, reference: inv.reference ?? '', amountPence: amount, firm: await firmContact(f) }
     return done('payment recorded')
   })
   // the receipt goes once: only the delivery that recorded the payment gets here with one
   if (receipt) {
-    const r = receipt as { to: string, name: string, reference: string, amountPence: number, firmName: string }
-    await sendMail({
+    const r = receipt as { to: string, name: string, reference: string, amountPence: number, firm: FirmContact }
+    await sendFirmMail(r.firm, {
       to: r.to,
       subject: `Receipt: ${formatPence(r.amountPence)} for invoice ${r.reference}`,
-      text: [`Hello ${r.name},`, '', `Thank you: ${r.firmName} has received ${formatPence(r.amountPence)} by card for invoice ${r.reference}.`].join('\n'),
+      text: [`Hello ${r.name},`, '', `Thank you: ${r.firm.tradingName} has received ${formatPence(r.amountPence)} by card for invoice ${r.reference} on ${fullDate(todayIso())}.`].join('\n'),
     }).catch(err => console.error('[mail] receipt not sent:', (err as Error).message))
   }
   return { received: true, outcome }

@@ -17,14 +17,14 @@ export default defineEventHandler(async (event) => {
     if (inv.kind !== 'credit-note' && !customer!.email) throw fieldError({ email: `${customer!.name} has no e-mail address: add one on their page first.` })
     const { token } = await issueInvoice(f, id)
     const detail = await invoiceDetail(f, id)
-    const [firm] = await f.tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, f.firmId))
-    return { detail, customer: customer!, token, firmName: firm!.tradingName }
+    const [bank] = await f.tx.select({ takesTransfer: firms.takesTransfer, bankAccountName: firms.bankAccountName, bankSortCode: firms.bankSortCode, bankAccountNumber: firms.bankAccountNumber }).from(firms).where(eq(firms.id, f.firmId))
+    return { detail, customer: customer!, token, firm: await firmContact(f), bank }
   })
   const d = issued.detail
   let warning: string | null = null
   if (d.kind !== 'credit-note') {
     try {
-      await sendMail(invoiceMail({ customer: issued.customer, firmName: issued.firmName, token: issued.token, invoice: { ...d, totals: d.totals as Record<string, number> } }))
+      await sendMail(invoiceMail({ customer: issued.customer, firm: issued.firm, bank: issued.bank, token: issued.token, invoice: { ...d, totals: d.totals as Record<string, number> } }))
     }
     catch (err) {
       console.error('[mail] invoice not sent:', (err as Error).message)

@@ -17,12 +17,13 @@ export default defineEventHandler(async (event) => {
     }
     const [customer] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, inv.customerId)))
     if (!customer?.email) throw fieldError({ email: `${customer?.name ?? 'The customer'} has no e-mail address: add one on their page first.` })
-    const [firm] = await f.tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, f.firmId))
+    const [bank] = await f.tx.select({ takesTransfer: firms.takesTransfer, bankAccountName: firms.bankAccountName, bankSortCode: firms.bankSortCode, bankAccountNumber: firms.bankAccountNumber }).from(firms).where(eq(firms.id, f.firmId))
+    const firm = await firmContact(f)
     const token = newToken()
     await f.tx.update(invoices).set({ tokenHash: hashToken(token), updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, id)))
     await f.audit('invoice.resent', 'invoice', id, { to: customer.email })
     try {
-      await sendMail(invoiceMail({ customer, firmName: firm!.tradingName, token, invoice: { ...inv, totals: inv.totals }, again: true }))
+      await sendMail(invoiceMail({ customer, firm, bank, token, invoice: { ...inv, totals: inv.totals }, again: true }))
     }
     catch (err) {
       console.error('[mail] invoice not sent again:', (err as Error).message)

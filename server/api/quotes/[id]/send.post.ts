@@ -1,6 +1,7 @@
 import { and, eq, ne, sql } from 'drizzle-orm'
 import { customers, enquiries, quotes, quoteVersions } from '../../../db/schema'
 import { idParam } from '#shared/schemas/common'
+import { fullDate } from '#shared/utils/dates'
 
 /**
  * Send the draft: it becomes the version the customer sees, can no longer change, and gets a
@@ -39,20 +40,19 @@ export default defineEventHandler(async (event) => {
     }
     await f.audit('quote.sent', 'quote', id, { version: version.version, totalPence: totals.grossPence })
     const detail = await quoteDetail(f, id)
-    const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/q/${token}`
+    const firm = await firmContact(f)
     try {
-      await sendMail({
+      await sendFirmMail(firm, {
         to: customer!.email,
-        subject: `Your quote ${detail.reference} from ${detail.firmName}`,
+        subject: `Your quote ${detail.reference} from ${firm.tradingName}`,
         text: [
           `Hello ${customer!.contactName || customer!.name},`,
           '',
-          `${detail.firmName} has sent you quote ${detail.reference} for ${formatPence(totals.grossPence)}${totals.reverseChargeVatPence ? ' (reverse charge: you account for the VAT)' : ''}.`,
-          `It is good until ${version.validUntil}. Open it, download it, and accept or decline it here:`,
-          link,
-          '',
-          'The link is for you only; please do not forward it.',
+          `${firm.tradingName} has sent you quote ${detail.reference} for ${formatPence(totals.grossPence)}${totals.reverseChargeVatPence ? ' (reverse charge: you account for the VAT)' : ''}.`,
+          `It is good until ${fullDate(version.validUntil)}.`,
         ].join('\n'),
+        links: [{ label: 'Open it, download it, and accept or decline it here', url: appLink(`/q/${token}`) }],
+        after: 'The link is for you only; please do not forward it. Any questions, reply to this e-mail.',
       })
     }
     catch (err) {

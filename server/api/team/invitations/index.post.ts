@@ -2,6 +2,7 @@ import { eq, isNull, sql } from 'drizzle-orm'
 import { firms, invitations, memberships, users } from '../../../db/schema'
 import { inviteSchema } from '#shared/schemas/auth'
 import { ROLE_LABELS, ROLE_SUMMARIES } from '#shared/utils/roles'
+import { fullDateAtTime } from '#shared/utils/dates'
 
 export const INVITATION_DAYS = 7
 
@@ -33,6 +34,8 @@ export default defineEventHandler(async (event) => {
   const link = `${useRuntimeConfig().appUrl.replace(/\/$/, '')}/invite/${token}`
   await sendMail({
     to: input.email,
+    // a question about the invitation goes to the person who sent it
+    replyTo: auth.email,
     subject: `${auth.name} invited you to ${firmName} on Setwell`,
     text: [
       `Hello,`,
@@ -40,7 +43,7 @@ export default defineEventHandler(async (event) => {
       `${auth.name} has invited you to join ${firmName} on Setwell as ${ROLE_LABELS[input.role].toLowerCase()}.`,
       `${ROLE_LABELS[input.role]}: ${ROLE_SUMMARIES[input.role]}`,
       ``,
-      `Open this link to join (it works once, for ${INVITATION_DAYS} days):`,
+      `Open this link to join (it works once, until ${fullDateAtTime(invitation.expiresAt)}):`,
       link,
       ``,
       `If you were not expecting this, ignore this e-mail.`,

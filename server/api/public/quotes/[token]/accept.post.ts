@@ -1,5 +1,6 @@
 import { eq, sql } from 'drizzle-orm'
-import { enquiries, quoteVersions } from '../../../../db/schema'
+import { customers, enquiries, quoteVersions } from '../../../../db/schema'
+import { fullDateAtTime } from '#shared/utils/dates'
 import { acceptQuoteSchema } from '#shared/schemas/quote'
 import { quoteTokenParam } from '#shared/schemas/links'
 
@@ -35,12 +36,15 @@ export default defineEventHandler(async (event) => {
     }
     await f.audit('quote.accepted', 'quote', quote.id, { version: version.version, name })
     const [v] = await tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
-    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f, ['owner', 'office']) }
+    const [customer] = await tx.select({ email: customers.email }).from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
+    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f, ['owner', 'office']), customerEmail: customer?.email ?? '', at: v!.respondedAt ?? new Date() }
   })
+  // to the firm's own people; a reply goes to the customer
   await sendMail({
     to: result.to.join(', '),
+    ...(result.customerEmail ? { replyTo: result.customerEmail } : {}),
     subject: `Quote ${result.view.reference} accepted by ${result.view.customer.name}`,
-    text: `${name} accepted quote ${result.view.reference} (version ${result.view.version}) for ${formatPence(result.view.totals.grossPence ?? 0)} at ${new Date().toISOString()}.`,
+    text: `${name} accepted quote ${result.view.reference} (version ${result.view.version}) for ${formatPence(result.view.totals.grossPence ?? 0)} on ${fullDateAtTime(result.at)}.${result.customerEmail ? `\n\nReply to this e-mail to write to ${result.view.customer.name} (${result.customerEmail}).` : ''}`,
   }).catch(err => console.error('[mail] acceptance notice not sent:', err.message))
   return result.view
 })

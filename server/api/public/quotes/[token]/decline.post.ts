@@ -1,5 +1,6 @@
 import { eq, sql } from 'drizzle-orm'
-import { enquiries, quoteVersions } from '../../../../db/schema'
+import { customers, enquiries, quoteVersions } from '../../../../db/schema'
+import { fullDateAtTime } from '#shared/utils/dates'
 import { declineQuoteSchema } from '#shared/schemas/quote'
 import { quoteTokenParam } from '#shared/schemas/links'
 
@@ -18,12 +19,15 @@ export default defineEventHandler(async (event) => {
     }
     await f.audit('quote.declined', 'quote', quote.id, { version: version.version })
     const [v] = await tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
-    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f, ['owner', 'office']) }
+    const [customer] = await tx.select({ email: customers.email }).from(customers).where(f.where(customers, eq(customers.id, quote.customerId)))
+    return { view: await publicQuoteView(f, quote, v!), to: await firmRecipients(f, ['owner', 'office']), customerEmail: customer?.email ?? '', at: v!.respondedAt ?? new Date() }
   })
+  // to the firm's own people; a reply goes to the customer
   await sendMail({
     to: result.to.join(', '),
+    ...(result.customerEmail ? { replyTo: result.customerEmail } : {}),
     subject: `Quote ${result.view.reference} declined by ${result.view.customer.name}`,
-    text: `${result.view.customer.name} declined quote ${result.view.reference}: ${reason}`,
+    text: `${result.view.customer.name} declined quote ${result.view.reference} on ${fullDateAtTime(result.at)}: ${reason}`,
   }).catch(err => console.error('[mail] decline notice not sent:', err.message))
   return result.view
 })
