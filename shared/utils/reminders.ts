@@ -22,7 +22,7 @@ export const DEFAULT_REMINDERS: ReminderRule[] = [
   { offsetDays: 0, subject: 'Invoice {reference} is due today', body: 'Hello {customer},\n\nInvoice {reference} for {amount} is due today, {due}. If you have already paid, thank you, and please ignore this.\n\nThank you,' },
   { offsetDays: 7, subject: 'Invoice {reference} is overdue', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}: {amount} is still to pay. Please pay it, or let us know if something is wrong.\n\nThank you,' },
   { offsetDays: 14, subject: 'Invoice {reference} is still unpaid', body: 'Hello {customer},\n\nInvoice {reference} is now {overdue} and {amount} is still to pay. Please pay it this week, or give us a ring to agree a date.\n\nThank you,' },
-  { offsetDays: 30, subject: 'Invoice {reference}: please pay now', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}. {amount} is still to pay: please pay it now, or ring us today.\n\nRegards,' },
+  { offsetDays: 30, subject: 'Invoice {reference}: please pay now', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}. {amount} is still to pay: please pay it now, or give us a ring.\n\nRegards,' },
 ]
 
 export const TEMPLATE_FIELDS = ['customer', 'reference', 'amount', 'due', 'days', 'overdue', 'firm', 'phone', 'bank'] as const

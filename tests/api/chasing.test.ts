@@ -3,7 +3,8 @@ import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { londonToday } from '../../shared/utils/dates'
+import { fullDate, londonToday } from '../../shared/utils/dates'
+import { formatPence } from '../../shared/utils/money'
 import { latePaymentClaim } from '../../shared/utils/late-payment'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
@@ -59,10 +60,10 @@ describe('reminders', () => {
     const [a, b] = await Promise.all([owner.post('/api/reminders/run'), owner.post('/api/reminders/run')])
     expect(a.status).toBe(200)
     expect(b.status).toBe(200)
-    await app.waitForMail(email, /a month overdue/)
+    await app.waitForMail(email, /please pay now/)
     expect((await owner.post('/api/reminders/run')).body.results.filter((r: any) => r.invoiceId === invoice.id)).toEqual([])
     await new Promise(r => setTimeout(r, 300))
-    expect(remindersTo(email).map(m => m.subject)).toEqual([`Invoice ${invoice.reference}: a month overdue`])
+    expect(remindersTo(email).map(m => m.subject)).toEqual([`Invoice ${invoice.reference}: please pay now`])
     const detail = (await owner.get(`/api/invoices/${invoice.id}`)).body
     expect(detail.chase.filter((c: any) => c.kind === 'reminder')).toHaveLength(1)
     expect(detail.status).toBe('overdue')
@@ -119,9 +120,10 @@ describe('an empty schedule', () => {
       await new Promise(r => setTimeout(r, 500))
       expect(remindersTo(email)).toEqual([])
       expect((await owner.get('/api/reminders')).body).toEqual([])
-      // one by hand still goes, in the default words
+      // one by hand still goes, in the default words for where the invoice stands (8 days late)
       expect((await owner.post(`/api/invoices/${invoice.id}/reminders`)).status).toBe(200)
-      await app.waitForMail(email, new RegExp(`${invoice.reference} is due today`))
+      const mail = await app.waitForMail(email, new RegExp(`${invoice.reference} is overdue`))
+      expect(mail.text).toContain('8 days overdue')
     }
     finally {
       await owner.put('/api/reminders', { rules: rules.map(({ offsetDays, subject, body }: any) => ({ offsetDays, subject, body })) })
@@ -185,7 +187,7 @@ describe('the background jobs', () => {
     try {
       // the same job twice, as a retry after a lost answer would be
       for (let i = 0; i < 2; i++) await boss.send('reminder-send', { firmId, invoiceId: invoice.id, offsetDays: 7 })
-      await app.waitForMail(email, /a week overdue/, 20_000)
+      await app.waitForMail(email, /is overdue/, 20_000)
       const sent = async () => (await owner.get(`/api/invoices/${invoice.id}`)).body.chase.filter((c: any) => c.kind === 'reminder' && c.sentAt)
       await expect.poll(async () => (await boss.getQueueSize('reminder-send')), { timeout: 20_000, interval: 500 }).toBe(0)
       await new Promise(r => setTimeout(r, 2500))
@@ -222,7 +224,10 @@ describe('the statutory claim', () => {
     const pdf = await fetch(`${app.url}/invoices/${invoice.id}/claim/pdf`, { headers: { cookie: owner.cookieHeader() } })
     expect(pdf.status).toBe(200)
     const text = (await extractText(await getDocumentProxy(new Uint8Array(await pdf.arrayBuffer())), { mergePages: true })).text.replace(/\s+/g, ' ')
-    for (const s of ['Late Payment of Commercial Debts (Interest) Act 1998', 'Greywether Lettings Ltd', invoice.reference, '£70.00', 'not legal advice', 'accountant or solicitor']) expect(text).toContain(s)
+    for (const s of ['Late Payment of Commercial Debts (Interest) Act 1998', 'Greywether Lettings Ltd', invoice.reference, '£70.00', '£2,400.00', `${res.body.days} days`, `${res.body.ratePercent}% a year`, formatPence(res.body.interestPence), formatPence(res.body.totalPence), 'Thursday 1 October 2026', 'Friday 2 October 2026', fullDate(today)]) expect(text).toContain(s)
+    // the firm's caution stays on its own screen: the letter is to the customer
+    expect(text).not.toMatch(/legal advice|solicitor|rule of thumb/i)
+    expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}/)
 
     // the owner keeps the Bank Rate table; bad tables are refused by field
     const bad = await owner.put('/api/bank-rates', { rates: [{ fromDate: '2026-01-01', rateBp: -1 }, { fromDate: '2026-01-01', rateBp: 400 }] })

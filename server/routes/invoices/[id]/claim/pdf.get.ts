@@ -3,7 +3,6 @@ import { firms } from '../../../../db/schema'
 import { idParam } from '#shared/schemas/common'
 import { bankAccountLines, hasBankAccount } from '#shared/utils/bank-details'
 import { fullDate } from '#shared/utils/dates'
-import { formatPence } from '#shared/utils/money'
 import { makePdf, sendPdf } from '../../../../pdf/document'
 
 /**
