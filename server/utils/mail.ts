@@ -57,9 +57,9 @@ export async function firmContact(f: FirmScope): Promise<FirmContact> {
   return { tradingName: firm?.tradingName ?? '', email, phone: firm?.phone.trim() ?? '' }
 }
 
-/** The firm's sign-off under every e-mail to a customer: its name, phone and e-mail. */
+/** The firm's sign-off under every e-mail to a customer: thanks, its name, phone and e-mail. */
 export function firmSignOff(firm: FirmContact): string {
-  return [firm.tradingName, firm.phone && `Phone: ${firm.phone}`, firm.email && `E-mail: ${firm.email}`].filter(Boolean).join('\n')
+  return ['Thank you,', firm.tradingName, firm.phone && `Phone: ${firm.phone}`, firm.email && `E-mail: ${firm.email}`].filter(Boolean).join('\n')
 }
 
 /** A link a customer needs, with the words before it ("View and pay the invoice"). */

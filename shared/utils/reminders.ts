@@ -15,14 +15,14 @@ export type ReminderStage = 'before' | 'on' | 'overdue'
  * sent: a step stays in use until the next one, and "send now" may pick an overdue step before its
  * day, so the overdue words say how late the invoice is with {overdue} ("40 days overdue"), never
  * "a week" or "a month". The firm's name, phone and e-mail, the pay link and the bank details are
- * added under the words (server/utils/mail.ts), so the words end with a greeting only.
+ * added under the words with a "Thank you," (server/utils/mail.ts), so the words need no sign-off.
  */
 export const DEFAULT_REMINDERS: ReminderRule[] = [
-  { offsetDays: -3, subject: 'Invoice {reference} is due on {due}', body: 'Hello {customer},\n\nA friendly note that invoice {reference} for {amount} is due on {due}. If you have already paid, thank you, and please ignore this.\n\nThank you,' },
-  { offsetDays: 0, subject: 'Invoice {reference} is due today', body: 'Hello {customer},\n\nInvoice {reference} for {amount} is due today, {due}. If you have already paid, thank you, and please ignore this.\n\nThank you,' },
-  { offsetDays: 7, subject: 'Invoice {reference} is overdue', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}: {amount} is still to pay. Please pay it, or let us know if something is wrong.\n\nThank you,' },
-  { offsetDays: 14, subject: 'Invoice {reference} is still unpaid', body: 'Hello {customer},\n\nInvoice {reference} is now {overdue} and {amount} is still to pay. Please pay it this week, or give us a ring to agree a date.\n\nThank you,' },
-  { offsetDays: 30, subject: 'Invoice {reference}: please pay now', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}. {amount} is still to pay: please pay it now, or give us a ring.\n\nRegards,' },
+  { offsetDays: -3, subject: 'Invoice {reference} is due on {due}', body: 'Hello {customer},\n\nA friendly note that invoice {reference} for {amount} is due on {due}. If you have already paid, thank you, and please ignore this.' },
+  { offsetDays: 0, subject: 'Invoice {reference} is due today', body: 'Hello {customer},\n\nInvoice {reference} for {amount} is due today, {due}. If you have already paid, thank you, and please ignore this.' },
+  { offsetDays: 7, subject: 'Invoice {reference} is overdue', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}: {amount} is still to pay. Please pay it, or let us know if something is wrong.' },
+  { offsetDays: 14, subject: 'Invoice {reference} is still unpaid', body: 'Hello {customer},\n\nInvoice {reference} is now {overdue} and {amount} is still to pay. Please pay it this week, or give us a ring to agree a date.' },
+  { offsetDays: 30, subject: 'Invoice {reference}: please pay now', body: 'Hello {customer},\n\nInvoice {reference} was due on {due} and is now {overdue}. {amount} is still to pay: please pay it now, or give us a ring.' },
 ]
 
 export const TEMPLATE_FIELDS = ['customer', 'reference', 'amount', 'due', 'days', 'overdue', 'firm', 'phone', 'bank'] as const

@@ -221,10 +221,22 @@ describe('the statutory claim', () => {
     // £2,400 is under £10,000: a fixed sum of £70 (Act s.5A); interest starts the day after the due date
     expect(res.body).toMatchObject({ interestStart: '2026-10-02', fixedSumPence: 70_00 })
     expect(res.body.caution).toMatch(/not legal advice.*accountant or solicitor/)
+    // the bank account from the firm's three fields
+    const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
+    await db.connect()
+    try {
+      await db.query('begin')
+      await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+      await db.query(`update firms set takes_transfer = true, bank_account_name = 'Chasing Firm', bank_sort_code = '608371', bank_account_number = '31926819' where id = $1`, [firmId])
+      await db.query('commit')
+    }
+    finally {
+      await db.end()
+    }
     const pdf = await fetch(`${app.url}/invoices/${invoice.id}/claim/pdf`, { headers: { cookie: owner.cookieHeader() } })
     expect(pdf.status).toBe(200)
     const text = (await extractText(await getDocumentProxy(new Uint8Array(await pdf.arrayBuffer())), { mergePages: true })).text.replace(/\s+/g, ' ')
-    for (const s of ['Late Payment of Commercial Debts (Interest) Act 1998', 'Greywether Lettings Ltd', invoice.reference, '£70.00', '£2,400.00', `${res.body.days} days`, `${res.body.ratePercent}% a year`, formatPence(res.body.interestPence), formatPence(res.body.totalPence), 'Thursday 1 October 2026', 'Friday 2 October 2026', fullDate(today)]) expect(text).toContain(s)
+    for (const s of ['Late Payment of Commercial Debts (Interest) Act 1998', 'Greywether Lettings Ltd', invoice.reference, '£70.00', '£2,400.00', `${res.body.days} days`, `${res.body.ratePercent}% a year`, formatPence(res.body.interestPence), formatPence(res.body.totalPence), 'Thursday 1 October 2026', 'Friday 2 October 2026', fullDate(today), 'Sort code: 60-83-71', 'Account number: 31926819']) expect(text).toContain(s)
     // the firm's caution stays on its own screen: the letter is to the customer
     expect(text).not.toMatch(/legal advice|solicitor|rule of thumb/i)
     expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}/)
