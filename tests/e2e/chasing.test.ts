@@ -33,6 +33,7 @@ describe('chasing what is owed', () => {
     await expectVisible(claim.getByText(/Interest, \d+ days at \d+(\.\d+)?% from/))
     await expectVisible(claim.getByText(/not legal advice/))
     await expectVisible(claim.getByRole('link', { name: 'Download the claim letter' }))
+    await expectVisible(claim.getByText(/it is not in the letter/))
     await screenshot(page, 'late-claim')
 
     // the reminders' words; a bad day is named beside its field, the rest kept
@@ -45,6 +46,9 @@ describe('chasing what is owed', () => {
     await expectVisible(page.getByRole('alert').filter({ hasText: 'Enter whole days' }))
     expect(await page.getByLabel('Subject').first().inputValue()).toBe('Invoice {reference} falls due on {due}')
     await first.fill('-2')
+    // each set of words says which stage it is for
+    await expectVisible(page.getByText('Before the due date: sent 2 days before it', { exact: true }))
+    await expectVisible(page.getByText('On the due date', { exact: true }))
     await page.getByRole('button', { name: 'Save reminders' }).click()
     await expectVisible(page.getByText('Saved.'))
     const api = new Client(e2e.url)
