@@ -2,7 +2,8 @@ import { addDays, fullDate, londonToday } from '../../shared/utils/dates'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
-import { signUpFirm, uniqueEmail, type Client } from '../support/client'
+import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { statuses, together } from '../reliability/race'
 
 // The reminder is chosen by where the invoice stands today (before its due date, on it, overdue by
 // N days), by "send now" and by the schedule alike, with the firm's starting words: never "is due
@@ -109,5 +110,33 @@ describe('the schedule sends the step for where the invoice stands', () => {
     const mail = await onlyReminder(email)
     expect(mail.subject).toBe(`Invoice ${invoice.reference}: please pay now`)
     expect(mail.text).toContain('40 days overdue')
+  })
+})
+
+describe('at most once, whatever runs at once', () => {
+  it('ten schedule runs at once send the 30-day step once: one chase note in the database, one e-mail, and its link opens the invoice', async () => {
+    const { invoice, email } = await invoiceDue(-40)
+    const runs = await together(10, () => owner.post('/api/reminders/run'))
+    expect(statuses(runs)).toEqual({ 200: 10 })
+    const sent = runs.flatMap(r => r.body.results).filter((r: any) => r.invoiceId === invoice.id && r.result === 'sent')
+    expect(sent).toHaveLength(1)
+    const mail = await onlyReminder(email)
+    await new Promise(r => setTimeout(r, 500))
+    expect(remindersTo(email)).toHaveLength(1)
+    const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
+    await db.connect()
+    try {
+      await db.query('begin')
+      await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
+      const { rows } = await db.query<{ reminder_key: string, sent: boolean }>(`select reminder_key, sent_at is not null as sent from chase_notes where firm_id = $1 and invoice_id = $2 and kind = 'reminder'`, [firmId, invoice.id])
+      await db.query('commit')
+      expect(rows).toEqual([{ reminder_key: `${invoice.id}:30`, sent: true }])
+    }
+    finally {
+      await db.end()
+    }
+    // the link in the one e-mail sent is the invoice's live link
+    const token = /\/i\/([\w-]+)/.exec(mail.text!)![1]!
+    expect((await new Client(app.url).get(`/api/public/invoices/${token}`)).status).toBe(200)
   })
 })
