@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
     p.para(`Interest from ${formatUkDate(claim.interestStart)} to ${formatUkDate(asOf)} (${claim.days} days) at ${claim.ratePercent}% a year (8% over the Bank of England reference rate): ${formatPence(claim.interestPence)}.`)
     p.para(`Fixed sum (section 5A): ${formatPence(claim.fixedSumPence)}.`)
     p.para(`Total now due: ${formatPence(claim.totalPence)}. Interest continues to run until the debt is paid.`)
-    if (view.firm.bankDetails) p.para(`Please pay by bank transfer to: ${view.firm.bankDetails}, quoting ${view.reference}.`)
+    if (view.bank) p.para(`Please pay by bank transfer, quoting ${view.reference}: ${view.bank.join(', ')}.`)
     p.heading('Please note')
     p.para(caution, MUTED)
     p.footer(title, view.firm.tradingName)
