@@ -50,6 +50,13 @@ describe('reading typed lines', () => {
     expect(sentLines([typedLine(saved)]).lines[0]).toMatchObject(saved)
   })
 
+  it('reads a line taking off what was invoiced before back as it was typed', () => {
+    const saved = { kind: 'labour' as const, description: 'Less invoiced before: BP-3', quantityX1000: 1000, unit: 'item', unitPence: -120_50, vatRatePercent: 20 }
+    expect(typedLine(saved).unitPrice).toBe('-120.50')
+    expect(sentLines([typedLine(saved)])).toEqual({ lines: [expect.objectContaining(saved)], errors: {} })
+    expect(typedLineNetPence({ quantity: '1', unitPrice: '-120.50' })).toBe(-120_50)
+  })
+
   it.each([
     ['8.4', '18.00', 151_20], // 8.4 x £18.00 = £151.20
     ['0.333', '0.10', 3], // 0.333 x 10p = 3.33p, to 3p
