@@ -2,11 +2,11 @@
 // an A4 pdfkit document in the app's own fonts (server/pdf/fonts.ts, any Latin script through
 // server/pdf/text.ts), the firm's heading with the document's particulars, the lines table, the
 // totals with the VAT, reverse-charge and CIS wording, a footer on every page, and the download.
-import { isIsoDate, longDate } from '#shared/utils/dates'
+import { fullDate, isIsoDate } from '#shared/utils/dates'
+import type { LineGroup } from '#shared/utils/line-groups'
 import PDFDocument from 'pdfkit'
 import type { H3Event } from 'h3'
 import { formatPence } from '#shared/utils/money'
-import { lineNetPence } from '#shared/utils/tax'
 import { drawAnyLatin } from './text'
 
 export const INK = '#1f2933'
@@ -15,25 +15,15 @@ export const RULE = '#cbd2d9'
 export const GREEN = '#1d6b3a'
 export const AMBER = '#7a4b00'
 
-/** '2026-12-31' or a Date as '31 December 2026'. */
+/** '2026-12-03' or a Date (its day in London) as 'Thursday 3 December 2026', as documents write dates. */
 export function formatUkDate(value: Date | string | null | undefined): string {
   if (!value) return ''
-  if (typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value)) return isIsoDate(value) ? longDate(value) : String(value)
+  if (typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value)) return isIsoDate(value) ? fullDate(value) : String(value)
   const d = new Date(value)
-  return Number.isNaN(d.getTime()) ? String(value) : longDate(d)
-}
-
-/** Thousandths of a unit: 3000 bags -> '3', 12000 m² -> '12.00', 8400 -> '8.40', 12345 -> '12.345'. */
-export function pdfQuantity(x1000: number, unit: string): string {
-  if (x1000 % 1000 === 0) return /^(m|m²|m2|lm|m³)$/.test(unit.trim()) ? `${x1000 / 1000}.00` : String(x1000 / 1000)
-  const sign = x1000 < 0 ? '-' : ''
-  const abs = Math.abs(x1000)
-  const frac = String(abs % 1000).padStart(3, '0')
-  return `${sign}${Math.floor(abs / 1000)}.${frac.endsWith('0') ? frac.slice(0, 2) : frac}`
+  return Number.isNaN(d.getTime()) ? String(value) : fullDate(d)
 }
 
 export interface PdfFirm { tradingName: string, addressLine1: string, town: string, postcode: string, email: string, phone: string, vatNumber: string | null, vatRegistered: boolean }
-export interface PdfLine { kind: 'labour' | 'materials', description: string, quantityX1000: number, unit: string, unitPence: number, vatRatePercent: number }
 export interface PdfTotals { vat: 'standard' | 'reverse-charge' | 'not-registered', cisRatePercent: number | null | undefined, totals: Record<string, number> }
 
 /** A new document; `draw` fills it in; resolves to the PDF's bytes. */
@@ -136,8 +126,12 @@ export class Pdf {
     for (const l of lines.filter(Boolean)) doc.font('regular').fontSize(10).fillColor(INK).text(l, left, doc.y, { width })
   }
 
-  /** The lines, labour first then materials; with the VAT rate of each line when `vatColumn`. */
-  linesTable(lines: readonly PdfLine[], vatColumn = false) {
+  /**
+   * The lines as the customer reads them (shared/utils/line-groups.ts groupLines: grouped by room
+   * and kind of work, identical lines merged, labour first then materials); with the VAT rate of
+   * each line when `vatColumn`.
+   */
+  linesTable(lines: readonly LineGroup[], vatColumn = false) {
     const { doc, left, width } = this
     const cols = vatColumn
       ? [
@@ -171,14 +165,11 @@ export class Pdf {
       doc.y = y + h
     }
     row(cols.map(c => c.label), 'bold', MUTED)
-    for (const kind of ['labour', 'materials'] as const) {
-      for (const l of lines.filter(x => x.kind === kind)) {
-        const net = lineNetPence({ quantity: l.quantityX1000 / 1000, unitPence: l.unitPence })
-        const cells = [l.description, `${pdfQuantity(l.quantityX1000, l.unit)} ${l.unit}`, formatPence(l.unitPence)]
-        if (vatColumn) cells.push(`${l.vatRatePercent}%`)
-        cells.push(formatPence(net))
-        row(cells, 'regular')
-      }
+    for (const l of lines) {
+      const cells = [l.description, l.quantity, l.unitPrice]
+      if (vatColumn) cells.push(`${l.vatRatePercent}%`)
+      cells.push(formatPence(l.netPence))
+      row(cells, 'regular')
     }
   }
 

@@ -1,10 +1,11 @@
 // Invoices on the server: finding, numbering under a lock, drafting from a job, issuing (frozen
 // after), credit notes, payments and the status that follows from them.
 import { and, asc, desc, eq, inArray, isNotNull, max, ne, sql } from 'drizzle-orm'
-import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, sites, type InvoiceParties, users } from '../db/schema'
-import { dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoiceKind } from '#shared/utils/invoices'
+import { chaseNotes, customers, firms, invoiceLines, invoices, jobs, payments, quoteVersions, sites, type InvoiceParties, users } from '../db/schema'
+import { dueDateFor, finalFromQuote, finalLines, INVOICE_KIND_LABELS, invoiceStatus, outstandingPence, overpaidPence, partLines, type DraftInvoiceLine, type InvoicedBefore, type InvoiceKind } from '#shared/utils/invoices'
 import { londonToday } from '#shared/utils/dates'
-import { invoiceTotals, lineNetPence } from '#shared/utils/tax'
+import { lineNetPence } from '#shared/utils/tax'
+import { linesTotals } from '#shared/utils/money-lines'
 
 export type InvoiceRow = typeof invoices.$inferSelect
 
@@ -24,7 +25,7 @@ export async function saveInvoiceLines(f: FirmScope, invoiceId: string, lines: D
 export async function refreshInvoiceTotals(f: FirmScope, invoiceId: string) {
   const [inv] = await f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.id, invoiceId)))
   const lines = await linesOf(f, invoiceId)
-  const totals = invoiceTotals(taxLines(lines), { vat: inv!.vat, cisRatePercent: (inv!.cisRatePercent ?? null) as 0 | 20 | 30 | null })
+  const totals = linesTotals(lines, inv!)
   await f.tx.update(invoices).set({ totals: { ...totals }, amountDuePence: totals.amountDuePence, updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, invoiceId)))
   return totals
 }
@@ -102,12 +103,12 @@ export async function nextInvoiceNumber(f: FirmScope, series: 'invoice' | 'credi
  * What the job's invoices claim of its price (drafts included, not this one), labour and
  * materials apart, less what issued credit notes against them gave back. Lines marked as extra
  * work are beyond the price and are not counted. Read from the lines themselves (each line's net
- * rounded half up, as the tax arithmetic does).
+ * rounded as the tax arithmetic does: half up, and half away from zero on a line taking off).
  */
 export async function invoicedForJob(f: FirmScope, jobId: string, except?: string) {
   const rows = await f.tx.select({
     kind: invoiceLines.kind,
-    net: sql<string>`coalesce(sum(case when ${invoices.kind} = 'credit-note' then -1 else 1 end * ((${invoiceLines.quantityX1000}::bigint * ${invoiceLines.unitPence} + 500) / 1000)), 0)`,
+    net: sql<string>`coalesce(sum(case when ${invoices.kind} = 'credit-note' then -1 else 1 end * round(${invoiceLines.quantityX1000}::numeric * ${invoiceLines.unitPence} / 1000)), 0)`,
   }).from(invoiceLines)
     .innerJoin(invoices, and(eq(invoices.firmId, invoiceLines.firmId), eq(invoices.id, invoiceLines.invoiceId)))
     .where(f.where(invoices, eq(invoices.jobId, jobId), eq(invoiceLines.extraWork, false), except ? ne(invoices.id, except) : undefined,
@@ -143,11 +144,61 @@ export async function assertWithinJobPrice(f: FirmScope, jobId: string) {
   }
 }
 
+/**
+ * The final invoice of a job made from an accepted quote, while the job's price is still the
+ * quote's: the quote's lines as the customer accepted them, with the quote's VAT treatment and CIS
+ * rate, less each invoice of the job before it (drafts included, less what credit notes gave back,
+ * lines of extra work apart). Totalled like the quote (invoiceTotals over the same lines), so with
+ * nothing invoiced before it is the quote to the penny. Null when the job has no accepted quote,
+ * its price was changed since, or what was invoiced before cannot be taken off the quote's lines
+ * kind by kind and rate by rate (the final is then the price less what was invoiced, as before).
+ */
+async function finalFromAcceptedQuote(f: FirmScope, job: typeof jobs.$inferSelect) {
+  if (!job.quoteVersionId) return null
+  const [version] = await f.tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, job.quoteVersionId)))
+  if (!version || version.status !== 'accepted') return null
+  const quoteTotals = version.totals as Record<string, number>
+  if (quoteTotals.labourNetPence !== job.labourNetPence || quoteTotals.materialsNetPence !== job.materialsNetPence) return null
+  const accepted = customerLines(version, await versionLines(f, version.id))
+  // what each invoice of the job claimed, by kind and rate, less what issued credit notes against it gave back
+  const rows = await f.tx.select({
+    id: invoices.id, reference: invoices.reference, kind: invoices.kind, credits: invoices.creditsInvoiceId, issuedOn: invoices.issuedOn,
+    lineKind: invoiceLines.kind, rate: invoiceLines.vatRatePercent,
+    net: sql<string>`sum(round(${invoiceLines.quantityX1000}::numeric * ${invoiceLines.unitPence} / 1000))`,
+  }).from(invoiceLines)
+    .innerJoin(invoices, and(eq(invoices.firmId, invoiceLines.firmId), eq(invoices.id, invoiceLines.invoiceId)))
+    .where(f.where(invoices, eq(invoices.jobId, job.id), eq(invoiceLines.extraWork, false)))
+    .groupBy(invoices.id, invoices.reference, invoices.kind, invoices.creditsInvoiceId, invoices.issuedOn, invoiceLines.kind, invoiceLines.vatRatePercent)
+  const claimed = new Map<string, InvoicedBefore & { at: number }>()
+  rows.forEach((r, at) => {
+    if (r.kind === 'credit-note') return
+    const reference = r.reference ?? `the draft ${INVOICE_KIND_LABELS[r.kind].toLowerCase()}`
+    claimed.set(`${r.id}|${r.lineKind}|${r.rate}`, { reference, kind: r.lineKind, vatRatePercent: r.rate, netPence: Number(r.net), at })
+  })
+  for (const r of rows) {
+    if (r.kind !== 'credit-note' || !r.issuedOn || !r.credits) continue
+    const c = claimed.get(`${r.credits}|${r.lineKind}|${r.rate}`)
+    if (c) c.netPence -= Number(r.net)
+  }
+  const lines = finalFromQuote(accepted, [...claimed.values()].sort((a, b) => a.at - b.at))
+  const cisRatePercent = (version.cisRatePercent ?? null) as 0 | 20 | 30 | null
+  try {
+    const t = linesTotals(lines, { vat: version.vat, cisRatePercent })
+    if (t.netPence <= 0) return null
+  }
+  catch (err) {
+    if (err instanceof RangeError) return null
+    throw err
+  }
+  return { lines, vat: version.vat, cisRatePercent }
+}
+
 /** A new draft: blank for a customer, or from a job (deposit, stage or final). The VAT treatment and CIS rate are suggested from the firm and the customer. */
 export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKind, 'credit-note'>, customerId?: string | null, jobId?: string | null, percent?: number | null, amountPence?: number | null }) {
   let customerId = input.customerId ?? null
   let siteId: string | null = null
   let lines: DraftInvoiceLine[] = []
+  let fromQuote: Awaited<ReturnType<typeof finalFromAcceptedQuote>> = null
   if (input.jobId) {
     // the job is locked first: deposits drafted at once are counted one after another
     const job = await lockJob(f, input.jobId)
@@ -157,7 +208,8 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
     siteId = job.siteId
     const price = { reference: jobReference(job.number), labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence }
     if (input.kind === 'final') {
-      lines = finalLines(price, await invoicedForJob(f, job.id))
+      fromQuote = await finalFromAcceptedQuote(f, job)
+      lines = fromQuote?.lines ?? finalLines(price, await invoicedForJob(f, job.id))
       if (!lines.length) throw createError({ statusCode: 409, statusMessage: 'Nothing left', data: { message: 'Everything on this job has been invoiced already.' } })
     }
     else if (input.kind === 'deposit' || input.kind === 'stage') {
@@ -184,10 +236,13 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
   const [customer] = await f.tx.select().from(customers).where(f.where(customers, eq(customers.id, customerId)))
   if (!customer) throw fieldError({ customerId: 'Choose one of your customers.' })
   const [firm] = await f.tx.select().from(firms).where(eq(firms.id, f.firmId))
-  const vat = suggestedVat(firm!, customer)
-  const cis = customer.paysUnderCis ? ((customer.cisRatePercent ?? 20) as 0 | 20 | 30) : null
-  if (vat !== 'standard') lines = lines.map(l => ({ ...l, vatRatePercent: vat === 'not-registered' ? 0 : l.vatRatePercent }))
-  const [row] = await f.tx.insert(invoices).values(f.values({ kind: input.kind, customerId, siteId, jobId: input.jobId ?? null, vat, cisRatePercent: cis, createdBy: f.userId })).returning()
+  const suggested = suggestedVat(firm!, customer)
+  // made from the accepted quote: its VAT treatment and CIS rate, as its totals were worked out
+  const vat = fromQuote?.vat ?? suggested
+  const cis = fromQuote ? fromQuote.cisRatePercent : customer.paysUnderCis ? ((customer.cisRatePercent ?? 20) as 0 | 20 | 30) : null
+  const vatReason = vat !== suggested ? 'As on the accepted quote.' : ''
+  if (vat !== 'standard' && !fromQuote) lines = lines.map(l => ({ ...l, vatRatePercent: vat === 'not-registered' ? 0 : l.vatRatePercent }))
+  const [row] = await f.tx.insert(invoices).values(f.values({ kind: input.kind, customerId, siteId, jobId: input.jobId ?? null, vat, vatReason, cisRatePercent: cis, createdBy: f.userId })).returning()
   await saveInvoiceLines(f, row!.id, lines)
   await refreshInvoiceTotals(f, row!.id)
   await f.audit('invoice.drafted', 'invoice', row!.id, { kind: input.kind, jobId: input.jobId ?? null })

@@ -1,5 +1,6 @@
 import { and, eq, gt, inArray } from 'drizzle-orm'
 import { customers, firms, quotes, quoteVersions, sites } from '../db/schema'
+import { groupLines } from '#shared/utils/line-groups'
 
 const GONE = 'This quote link has expired or is not right. Ask the firm to send it again.'
 
@@ -52,5 +53,7 @@ export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferS
     respondedAt: version.respondedAt,
     acceptedName: version.acceptedName,
     lines: lines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, derivation }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent, derivation })),
+    /** The lines as the customer reads them: grouped by room and kind of work, identical lines merged. */
+    groups: groupLines(lines),
   }
 }

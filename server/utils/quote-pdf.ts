@@ -63,7 +63,7 @@ export async function renderQuotePdf(view: QuotePdfView): Promise<Buffer> {
     pdf.firmHeading(firm, title, [view.issuedAt ? `Date ${formatUkDate(view.issuedAt)}` : '', `Valid until ${formatUkDate(view.validUntil)}`], statusStamp(view))
     pdf.party('For', view.customer.name, view.site ? [`Site: ${[view.site.line1, view.site.town, view.site.postcode].filter(Boolean).join(', ')}`] : [])
     pdf.heading('The work')
-    pdf.linesTable(view.lines)
+    pdf.linesTable(view.groups)
     pdf.totals({ vat: view.vat, cisRatePercent: view.cisRatePercent, totals: view.totals as Record<string, number> }, firm.tradingName)
 
     // time, rules and cautions
@@ -111,5 +111,5 @@ function statusStamp(view: QuotePdfView): { text: string, color: string } | null
 
 /** Answer with the PDF as a download named after the quote's reference only. */
 export async function sendQuotePdf(event: H3Event, view: QuotePdfView) {
-  return sendPdf(event, await renderQuotePdf(view), /^Q-\d+$/.test(view.reference) ? view.reference : 'quote')
+  return sendPdf(event, await renderQuotePdf(view), /^[\w-]+$/.test(view.reference) ? view.reference : 'quote')
 }

@@ -2,9 +2,10 @@ import { asc, desc, eq, max, sql } from 'drizzle-orm'
 import { customers, firms, jobs, quoteLines, quotes, quoteVersions } from '../db/schema'
 import type { TaxLine } from '#shared/utils/tax'
 import { pricedLines, type PricedLine } from '#shared/utils/quote-pricing'
+import { linesTotals } from '#shared/utils/money-lines'
 
 export const DRYING_CAUTION = 'Drying times are estimates: a skim coat needs about a week before decorating, longer for undercoats and in cold or damp rooms.'
-export const RULE_OF_THUMB = 'Quantities and materials are rules of thumb from the measurements; they are checked on the day. Work follows local building regulations.'
+export const RULE_OF_THUMB = 'Quantities and materials are rules of thumb from the measurements; they are checked on the day. Work follows the Building Regulations where they apply.'
 
 export type QuoteLineRow = typeof quoteLines.$inferSelect
 
@@ -87,7 +88,7 @@ export function customerLinesOrWorking(version: Parameters<typeof customerLines>
 export async function refreshTotals(f: FirmScope, versionId: string) {
   const [v] = await f.tx.select().from(quoteVersions).where(f.where(quoteVersions, eq(quoteVersions.id, versionId)))
   const lines = customerLines(v!, await versionLines(f, versionId))
-  const totals = invoiceTotals(taxLines(lines), { vat: v!.vat, cisRatePercent: (v!.cisRatePercent ?? null) as 0 | 20 | 30 | null })
+  const totals = linesTotals(lines, v!)
   await f.tx.update(quoteVersions).set({ totals: { ...totals } }).where(f.where(quoteVersions, eq(quoteVersions.id, versionId)))
   return totals
 }

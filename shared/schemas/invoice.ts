@@ -40,10 +40,10 @@ export const invoiceDraftSchema = z.object({
     // each line, then the whole invoice with its VAT, within what an invoice can come to; zod runs
     // this even when a line has its own errors, so lines that are not whole numbers are left to them
     const whole = (n: unknown) => Number.isSafeInteger(n) && (n as number) >= 0
-    if (!Array.isArray(v.lines) || !v.lines.every(l => whole(l?.quantityX1000) && whole(l?.unitPence))) return
+    if (!Array.isArray(v.lines) || !v.lines.every(l => whole(l?.quantityX1000) && Number.isSafeInteger(l?.unitPence))) return
     let tooBig = false
     v.lines.forEach((l, i) => {
-      const net = (BigInt(l.quantityX1000) * BigInt(l.unitPence) + 500n) / 1000n
+      const net = (BigInt(l.quantityX1000) * BigInt(Math.abs(l.unitPence)) + 500n) / 1000n
       if (net > BigInt(MAX_INVOICE_PENCE)) {
         tooBig = true
         ctx.addIssue({ code: 'custom', path: ['lines', i, 'unitPence'], message: `This line comes to more than ${formatPence(MAX_INVOICE_PENCE)}, the most an invoice can be: check the quantity and the price.` })
@@ -54,7 +54,12 @@ export const invoiceDraftSchema = z.object({
     try {
       totals = invoiceTotals(v.lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent })), { vat: v.vat, cisRatePercent: v.cisRatePercent })
     }
-    catch {
+    catch (err) {
+      // lines taking off more than the invoice charges (labour, materials or VAT below 0)
+      if (err instanceof RangeError && /taking off/.test(err.message)) {
+        const first = v.lines.findIndex(l => l.unitPence < 0)
+        ctx.addIssue({ code: 'custom', path: ['lines', Math.max(0, first), 'unitPence'], message: 'A line taking off what was invoiced before may not come to more than the work on this invoice: check the amounts.' })
+      }
       return // a treatment or rate that is wrong has its own message
     }
     if (totals.grossPence > MAX_INVOICE_PENCE) {

@@ -33,8 +33,15 @@ export type MoneyLineInput = z.input<typeof moneyLineSchema>
 /** A quote's line: the money line with how it was worked out, never extra work (a quote is the price). */
 export const quoteLineSchema = moneyLineSchema.omit({ extraWork: true })
 
-/** An invoice's line: the money line with its extra-work flag (an invoice keeps no working). */
-export const invoiceLineSchema = moneyLineSchema.omit({ derivation: true })
+/**
+ * An invoice's line: the money line with its extra-work flag (an invoice keeps no working). Its unit
+ * price may be negative on a line taking off what was invoiced before (a final invoice made from a
+ * quote: "Less invoiced before: BP-3"); the invoice's own check keeps labour, materials and VAT at
+ * 0 or more (shared/schemas/invoice.ts).
+ */
+export const invoiceLineSchema = moneyLineSchema.omit({ derivation: true }).extend({
+  unitPence: z.int({ error: 'Enter the unit price in pounds and pence.' }).min(-MAX_UNIT_PENCE, { error: 'The amount taken off looks too high.' }).max(MAX_UNIT_PENCE, { error: 'The unit price looks too high.' }),
+})
 
 /** The most a quote may come to with its VAT, as an invoice may (MAX_INVOICE_PENCE): what a job's totals can hold. */
 export const MAX_QUOTE_PENCE = 20_000_000_00

@@ -161,3 +161,29 @@ export function finalLines(job: JobPrice, invoiced: InvoicedSoFar, vatRatePercen
     ...(materials > 0 ? [line('materials', less ? `Materials for ${job.reference}, less invoiced before` : `Materials for ${job.reference}`, materials, vatRatePercent)] : []),
   ]
 }
+
+// ---------------------------------------------------------------------------------------------
+// The final invoice from an accepted quote
+
+/** What one invoice of the job claimed (less what credit notes gave back), by kind and VAT rate. */
+export interface InvoicedBefore { reference: string, kind: 'labour' | 'materials', vatRatePercent: number, netPence: number }
+
+/**
+ * The final invoice of a job made from an accepted quote: the quote's own lines and wording, as
+ * the customer accepted them, then one line taking off each invoice before it ("Less invoiced
+ * before: BP-3"), at that invoice's kind and VAT rate. Totalled by the same arithmetic as the
+ * quote (shared/utils/tax.ts invoiceTotals over the same lines), so with nothing invoiced before
+ * it equals the quote to the penny. An invoice that claimed both labour and materials has a line
+ * for each, told apart by its kind in brackets.
+ */
+export function finalFromQuote(quoteLines: readonly Omit<DraftInvoiceLine, 'extraWork'>[], before: readonly InvoicedBefore[]): DraftInvoiceLine[] {
+  const lines: DraftInvoiceLine[] = quoteLines.map(({ kind, description, quantityX1000, unit, unitPence, vatRatePercent }) => ({ kind, description, quantityX1000, unit, unitPence, vatRatePercent }))
+  const kindsOf = new Map<string, Set<string>>()
+  for (const b of before) if (b.netPence > 0) kindsOf.set(b.reference, (kindsOf.get(b.reference) ?? new Set()).add(b.kind))
+  for (const b of before) {
+    if (b.netPence <= 0) continue
+    const both = (kindsOf.get(b.reference)?.size ?? 0) > 1
+    lines.push({ kind: b.kind, description: `Less invoiced before: ${b.reference}${both ? ` (${b.kind})` : ''}`, quantityX1000: 1000, unit: 'item', unitPence: -b.netPence, vatRatePercent: b.vatRatePercent })
+  }
+  return lines
+}

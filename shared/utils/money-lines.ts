@@ -3,7 +3,7 @@
 // API checks what is sent with shared/schemas/line.ts.
 import { parsePounds, penceToDecimal } from './money'
 import { formatQuantity, parseQuantity } from './quantity'
-import { lineNetPence } from './tax'
+import { invoiceTotals, lineNetPence, type InvoiceTotals } from './tax'
 
 export type LineKind = 'labour' | 'materials'
 export type LineVatRate = 0 | 5 | 20
@@ -34,6 +34,18 @@ export interface SentLine {
   extraWork?: boolean
 }
 
+/**
+ * A unit price as typed: pounds, or pounds after a minus sign on an invoice's line taking off what
+ * was invoiced before ("-120.00"); null when it cannot be read. The API says whether a negative
+ * price is allowed where it is sent (only on an invoice, never more than the invoice charges).
+ */
+export function parseUnitPrice(input: string): number | null {
+  const m = /^\s*[-\u2212]\s*(.*)$/.exec(input)
+  if (!m) return parsePounds(input)
+  const pence = parsePounds(m[1]!)
+  return pence === null || pence === 0 ? null : -pence
+}
+
 export const LINE_QUANTITY_ERROR = 'Enter a quantity, like 1 or 8.40.'
 export const LINE_PRICE_ERROR = 'Enter a price in pounds, like 18.00.'
 
@@ -60,7 +72,7 @@ export function sentLines(lines: readonly TypedLine[]): { lines: Required<SentLi
   const errors: Record<string, string> = {}
   const sent = lines.map((l, i) => {
     const quantityX1000 = parseQuantity(l.quantity)
-    const unitPence = parsePounds(l.unitPrice)
+    const unitPence = parseUnitPrice(l.unitPrice)
     if (quantityX1000 === null) errors[`lines.${i}.quantityX1000`] = LINE_QUANTITY_ERROR
     if (unitPence === null) errors[`lines.${i}.unitPence`] = LINE_PRICE_ERROR
     return { kind: l.kind, description: l.description, quantityX1000: quantityX1000 ?? 0, unit: l.unit, unitPence: unitPence ?? 0, vatRatePercent: l.vatRatePercent, derivation: l.derivation, extraWork: l.extraWork }
@@ -71,6 +83,21 @@ export function sentLines(lines: readonly TypedLine[]): { lines: Required<SentLi
 /** What one typed line comes to before VAT, or null while its quantity or price cannot be read. */
 export function typedLineNetPence(l: Pick<TypedLine, 'quantity' | 'unitPrice'>): number | null {
   const quantityX1000 = parseQuantity(l.quantity)
-  const unitPence = parsePounds(l.unitPrice)
+  const unitPence = parseUnitPrice(l.unitPrice)
   return quantityX1000 === null || unitPence === null ? null : lineNetPence({ quantity: quantityX1000 / 1000, unitPence })
+}
+
+/** The VAT treatment and CIS rate a quote or an invoice is totalled under. */
+export interface LinesTreatment { vat: 'standard' | 'reverse-charge' | 'not-registered', cisRatePercent: number | null }
+
+/**
+ * The totals of a quote's or an invoice's lines: the ONE computation both use (shared/utils/tax.ts
+ * invoiceTotals: each line's net rounded, VAT on the lines' nets rate by rate, rounded down once on
+ * the total), so an invoice carrying a quote's lines under its treatment is the quote to the penny.
+ */
+export function linesTotals(lines: readonly Pick<SentLine, 'kind' | 'quantityX1000' | 'unitPence' | 'vatRatePercent'>[], treatment: LinesTreatment): InvoiceTotals {
+  return invoiceTotals(
+    lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent as 0 | 5 | 20 })),
+    { vat: treatment.vat, cisRatePercent: (treatment.cisRatePercent ?? null) as 0 | 20 | 30 | null },
+  )
 }

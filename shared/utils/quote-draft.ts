@@ -41,7 +41,7 @@ const LABOUR: Partial<Record<TakeoffKey, { description: string, rate: (p: DraftP
   'skim-walls': { description: 'Skim walls', rate: p => p.skimWallsPerM2Pence },
   'skim-ceilings': { description: 'Skim ceilings', rate: p => p.skimCeilingsPerM2Pence },
   'reveals-area': { description: 'Skim wide reveals and strips', rate: p => p.skimWallsPerM2Pence },
-  'undercoat': { description: 'Undercoat, back to the background', rate: p => p.undercoatPerM2Pence },
+  'undercoat': { description: 'Undercoat where the old plaster is off', rate: p => p.undercoatPerM2Pence },
   'fill-patches': { description: 'Fill patches in undercoat', rate: p => p.undercoatPerM2Pence },
   'reveals-lm': { description: 'Reveals and narrow strips', rate: p => p.revealsPerLmPence },
   'beads': { description: 'Fit beads', rate: p => p.beadsPerLmPence },

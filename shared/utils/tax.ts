@@ -10,10 +10,14 @@
 // HMRC's guidance decide, and the product says so where the figures are shown.
 //
 // Input rules (our decisions):
-// - quantity: finite, 0 or more, at most 3 decimals; unitPence: a whole number, 0 or more. Anything
-//   else is a RangeError. Negative lines are refused: a credit is its own document (a credit note,
-//   totalled the same way with positive lines and shown as a credit), and a discount is a lower
-//   unit price, so "round the VAT down" never has to mean rounding a negative figure.
+// - quantity: finite, 0 or more, at most 3 decimals; unitPence: a whole number. Anything else is a
+//   RangeError. A line may take off (a negative unit price) only what the same invoice charges: a
+//   final invoice made from a quote carries the quote's lines and takes off what was invoiced
+//   before ("Less invoiced before: BP-3"); labour, materials and the VAT each stay 0 or more, or it
+//   is a RangeError. A credit is its own document (a credit note, totalled the same way and shown
+//   as a credit), so "round the VAT down" never has to mean rounding a negative total. A negative
+//   line's net is rounded half away from zero, so it takes off exactly what the same positive line
+//   adds.
 // - 'reverse-charge' needs a CIS rate (0, 20 or 30): the domestic reverse charge applies only to
 //   payments reported under CIS, so a reverse charge without CIS is refused as a mistake.
 
@@ -51,10 +55,11 @@ function toSafe(n: bigint, what: string): number {
   return x
 }
 
-/** One line's net in pence: quantity x unit price, rounded half up to the penny. */
+/** One line's net in pence: quantity x unit price, rounded half up to the penny (a line taking off: half away from zero). */
 export function lineNetPence(line: Pick<TaxLine, 'quantity' | 'unitPence'>): number {
-  if (!Number.isSafeInteger(line.unitPence) || line.unitPence < 0) throw new RangeError(`unitPence must be a whole number of pence, 0 or more, got ${line.unitPence}`)
-  return toSafe((thousandths(line.quantity) * BigInt(line.unitPence) + 500n) / 1000n, 'the line net')
+  if (!Number.isSafeInteger(line.unitPence)) throw new RangeError(`unitPence must be a whole number of pence, got ${line.unitPence}`)
+  const size = (thousandths(line.quantity) * BigInt(Math.abs(line.unitPence)) + 500n) / 1000n
+  return toSafe(line.unitPence < 0 ? -size : size, 'the line net')
 }
 
 /**
@@ -84,6 +89,8 @@ export function invoiceTotals(lines: readonly TaxLine[], context: TaxContext): I
     else materials += net
     vatHundredths += net * BigInt(l.vatRatePercent)
   }
+  // lines taking off what was invoiced before never take off more than the invoice charges
+  if (labour < 0n || materials < 0n || vatHundredths < 0n) throw new RangeError('lines taking off may not come to more than the work they are taken from')
   const net = labour + materials
   const vatDue = vatHundredths / 100n // BigInt division of non-negatives rounds down
   const vat = context.vat === 'standard' ? vatDue : 0n

@@ -79,9 +79,13 @@ describe('drafting and issuing', () => {
     const c = await customer()
     const draft = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
     expect(draft).toMatchObject({ number: null, reference: null, status: 'draft' })
-    const badLines = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: '', quantityX1000: 0, unitPence: -1 }] })
+    const badLines = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: '', quantityX1000: 0, unitPence: 1.5 }] })
     expect(badLines.status).toBe(400)
     expect(Object.keys(badLines.body.data.fields).sort()).toEqual(['lines.0.description', 'lines.0.quantityX1000', 'lines.0.unitPence'])
+    // a negative price takes off what was invoiced before: never more than the invoice charges
+    const takingOff = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: 'Less invoiced before', quantityX1000: 1000, unitPence: -1 }] })
+    expect(takingOff.status).toBe(400)
+    expect(Object.keys(takingOff.body.data.fields)).toEqual(['lines.0.unitPence'])
     // 22 x £1,000,000 would not fit the amount column: a 400 on the line, not a 500 (our own limit, £20,000,000)
     const huge = await owner.put(`/api/invoices/${draft.id}/draft`, { vat: draft.vat, lines: [{ kind: 'labour', description: 'A very large skim', quantityX1000: 22_000, unitPence: 1_000_000_00 }] })
     expect(huge.status, JSON.stringify(huge.body)).toBe(400)
@@ -451,6 +455,8 @@ describe('the PDF of an invoice', () => {
     const { id: _i, createdAt: _c, updatedAt: _u, enquiryFormKey: _k, ...fields } = firm
     const patched = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankDetails: 'Invoice Firm, sort code 00-00-00, account 00000000' })
     expect(patched.status, JSON.stringify(patched.body)).toBe(200)
+    // the firm's bank account (invented), in its three parts, printed when the firm takes transfers
+    await queryAsFirm(requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL'), firmId, `update firms set takes_transfer = true, bank_account_name = 'Invoice Firm', bank_sort_code = '000000', bank_account_number = '00000000' where id = $1`, [firmId])
     const c = (await owner.post('/api/customers', { customer: { kind: 'builder', name: 'Łukasz Quarry Builds Ltd', email: uniqueEmail('lqb'), billingLine1: '9 Kiln Lane', billingTown: 'Kettlebury', billingPostcode: 'KB3 4CD', vatRegistered: true, vatNumber: 'GB999999973', paysUnderCis: true, cisRatePercent: 20 } })).body
     const draft = (await owner.post('/api/invoices', { kind: 'blank', customerId: c.id })).body
     // a VAT- and CIS-registered builder who is not the end user: the reverse charge (DOMAIN.md), CIS at 20% on labour
@@ -472,7 +478,7 @@ describe('the PDF of an invoice', () => {
     for (const expected of [
       `Invoice ${issuedRes.body.reference}`, 'Invoice Firm', '2 Lime Walk', 'GB999999973', 'Date and tax point', 'Łukasz Quarry Builds Ltd', '9 Kiln Lane',
       'Skim the first-floor flats', 'Finish plaster', '20%', '£1,000.00', '£124.00', '£1,124.00',
-      'Reverse charge: customer to pay the VAT to HMRC', '£224.80', 'deducts 20% from the labour', '£200.00', '£924.00', 'sort code 00-00-00',
+      'Reverse charge: customer to pay the VAT to HMRC', '£224.80', 'deducts 20% from the labour', '£200.00', '£924.00', 'Account name: Invoice Firm', 'Sort code: 00-00-00', 'Account number: 00000000',
     ]) expect(text, expected).toContain(expected)
 
     // issued means frozen: renaming the firm and moving the customer change neither the PDF nor the customer's view

@@ -1,5 +1,6 @@
 import { extractText, getDocumentProxy, getMeta } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { customerDescription } from '../../shared/utils/line-groups'
 import { formatPence } from '../../shared/utils/money'
 import { startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
@@ -104,7 +105,8 @@ describe('the PDF of a quote', () => {
     expect(text).toContain('Ffion Maddox')
     expect(text).toContain('3 Tanners Yard')
     expect(text).toContain('Draft: not yet sent')
-    for (const line of q.current.lines) expect(text).toContain(line.description)
+    // every line, as the customer reads it (grouped, merged: shared/utils/line-groups.ts)
+    for (const line of q.current.lines) expect(text).toContain(customerDescription(line.description))
     // 4.00 x 2.40 - 1.20 x 1.00 = 8.40 m² at £18.00 = £151.20
     expect(text).toContain('8.40 m²')
     expect(text).toContain('£151.20')
@@ -185,7 +187,7 @@ describe('the PDF of a quote', () => {
     const anon = new Client(app.url)
     expect((await anon.post(`/api/public/quotes/${token}/accept`, { name: 'Rhys Corbel' })).status).toBe(200)
     const after = await pdfText((await getBytes(`/q/${token}/pdf`)).bytes)
-    expect(after.text).toMatch(/Accepted by Rhys Corbel on \d{1,2} \w+ \d{4}/)
+    expect(after.text).toMatch(/Accepted by Rhys Corbel on [A-Z][a-z]+day \d{1,2} [A-Z][a-z]+ \d{4}/)
     // the customer's page at /q/<token> is still the page, not the PDF
     const page = await fetch(`${app.url}/q/${token}`)
     expect(page.headers.get('content-type')).toMatch(/text\/html/)

@@ -35,8 +35,11 @@ describe('invoice draft limits', () => {
 
 describe('invoice draft limits with other mistakes', () => {
   it('names the bad fields of a line and does not trip over them', () => {
-    expect(Object.keys(errors({ vat: 'standard', lines: [{ kind: 'labour', description: '', quantityX1000: 0, unitPence: -1 }] })).sort())
+    expect(Object.keys(errors({ vat: 'standard', lines: [{ kind: 'labour', description: '', quantityX1000: 0, unitPence: 1.5 }] })).sort())
       .toEqual(['lines.0.description', 'lines.0.quantityX1000', 'lines.0.unitPence'])
+    // a negative price is a line taking off what was invoiced before: refused when it takes off more than the invoice charges
+    expect(Object.keys(errors({ vat: 'standard', lines: [{ kind: 'labour', description: '', quantityX1000: 1000, unitPence: -1 }] })).sort())
+      .toEqual(['lines.0.description', 'lines.0.unitPence'])
     expect(Object.keys(errors({ vat: 'reverse-charge', lines: [line(22_000, 1_000_000_00)] })).sort()).toEqual(['cisRatePercent', 'lines.0.unitPence'])
   })
 })

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import type { AgeBucket, DraftInvoiceLine, InvoiceStatus, JobPrice, StatusInput } from '../../shared/utils/invoices'
 import { daysBetween } from '../../shared/utils/dates'
-import { ageBucket, dueDateFor, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, prefixesClash } from '../../shared/utils/invoices'
+import { ageBucket, dueDateFor, finalFromQuote, finalLines, invoiceStatus, outstandingPence, overpaidPence, partLines, prefixesClash } from '../../shared/utils/invoices'
 
 // Sources (../shared/DOMAIN.md). CIS is deducted from the labour part only, so an invoice's labour
 // net must stay apart from its materials ("Money rules", CIS: gov.uk "What you must do as a CIS
@@ -317,5 +317,31 @@ describe('prefixesClash: could an invoice and a credit note numbered apart share
   ])('%j and %j: %s (%s)', (a, b, clash) => {
     expect(prefixesClash(a, b)).toBe(clash)
     expect(prefixesClash(b, a)).toBe(clash)
+  })
+})
+
+describe('finalFromQuote: the quote\'s lines, less each invoice before, by kind and VAT rate (our own rule)', () => {
+  const quoteLines = [
+    { kind: 'labour' as const, description: 'Skim walls: Front room', quantityX1000: 6977, unit: 'm²', unitPence: 18_07, vatRatePercent: 20 },
+    { kind: 'materials' as const, description: 'Multi-finish', quantityX1000: 2000, unit: 'packs', unitPence: 11_11, vatRatePercent: 5 },
+  ]
+
+  it('is the quote\'s lines as they are when nothing was invoiced before', () => {
+    expect(finalFromQuote(quoteLines, [])).toEqual(quoteLines)
+  })
+
+  it('takes off each invoice before as a line naming it, at its kind and rate; both kinds told apart', () => {
+    const lines = finalFromQuote(quoteLines, [
+      { reference: 'BP-3', kind: 'labour', vatRatePercent: 20, netPence: 30_00 },
+      { reference: 'BP-3', kind: 'materials', vatRatePercent: 20, netPence: 5_00 },
+      { reference: 'BP-5', kind: 'labour', vatRatePercent: 20, netPence: 12_00 },
+      // credited in full: nothing to take off
+      { reference: 'BP-4', kind: 'labour', vatRatePercent: 20, netPence: 0 },
+    ])
+    expect(lines.slice(2).map(l => [l.kind, l.description, l.quantityX1000, l.unitPence, l.vatRatePercent])).toEqual([
+      ['labour', 'Less invoiced before: BP-3 (labour)', 1000, -30_00, 20],
+      ['materials', 'Less invoiced before: BP-3 (materials)', 1000, -5_00, 20],
+      ['labour', 'Less invoiced before: BP-5', 1000, -12_00, 20],
+    ])
   })
 })

@@ -23,6 +23,10 @@ describe('reading typed lines', () => {
     ['1.2345', '18', 0, 18_00, ['lines.0.quantityX1000']], // four decimals: not a quantity
     ['-1', '18', 0, 18_00, ['lines.0.quantityX1000']],
     ['2', '18.001', 2_000, 0, ['lines.0.unitPence']], // a tenth of a penny
+    ['1', '-120.00', 1_000, -120_00, []], // an invoice's line taking off what was invoiced before
+    ['1', '−£40', 1_000, -40_00, []], // the minus sign a phone may type
+    ['1', '-0', 1_000, 0, ['lines.0.unitPence']], // nothing taken off is not a line taking off
+    ['1', '--5', 1_000, 0, ['lines.0.unitPence']],
     ['', '', 0, 0, ['lines.0.quantityX1000', 'lines.0.unitPence']],
   ] as const)('%s at %s', (quantity, price, quantityX1000, unitPence, fields) => {
     const read = sentLines([typed(quantity, price)])
@@ -46,6 +50,13 @@ describe('reading typed lines', () => {
     expect(sentLines([typedLine(saved)]).lines[0]).toMatchObject(saved)
   })
 
+  it('reads a line taking off what was invoiced before back as it was typed', () => {
+    const saved = { kind: 'labour' as const, description: 'Less invoiced before: BP-3', quantityX1000: 1000, unit: 'item', unitPence: -120_50, vatRatePercent: 20 }
+    expect(typedLine(saved).unitPrice).toBe('-120.50')
+    expect(sentLines([typedLine(saved)])).toEqual({ lines: [expect.objectContaining(saved)], errors: {} })
+    expect(typedLineNetPence({ quantity: '1', unitPrice: '-120.50' })).toBe(-120_50)
+  })
+
   it.each([
     ['8.4', '18.00', 151_20], // 8.4 x £18.00 = £151.20
     ['0.333', '0.10', 3], // 0.333 x 10p = 3.33p, to 3p
@@ -63,7 +74,7 @@ describe('one line schema for quotes and invoices', () => {
   const fields = (r: { success: boolean, error?: { issues: Parameters<typeof fieldErrors>[0] } }) => r.success ? [] : Object.keys(fieldErrors(r.error!.issues))
 
   it('names the same bad fields, with the same words, on both', () => {
-    const bad = { kind: 'paint', description: ' ', quantityX1000: 0, unitPence: -1, vatRatePercent: 17 }
+    const bad = { kind: 'paint', description: ' ', quantityX1000: 0, unitPence: 1.5, vatRatePercent: 17 }
     const q = quote([bad])
     const i = invoice([bad])
     expect(fields(q).sort()).toEqual(['lines.0.description', 'lines.0.kind', 'lines.0.quantityX1000', 'lines.0.unitPence', 'lines.0.vatRatePercent'])
@@ -82,6 +93,16 @@ describe('one line schema for quotes and invoices', () => {
     expect(quote([both]).data!.lines[0]!.derivation).toBe('3 x 2 = 6 m²')
     expect(invoice([both]).data!.lines[0]).not.toHaveProperty('derivation')
     expect(invoice([both]).data!.lines[0]!.extraWork).toBe(true)
+  })
+
+  it('takes a negative unit price only on an invoice, on a line taking off no more than the invoice charges', () => {
+    const less = { ...line, description: 'Less invoiced before: BP-3', unitPence: -40_00 }
+    expect(fields(quote([line, less]))).toEqual(['lines.1.unitPence'])
+    expect(invoice([line, less]).success).toBe(true)
+    const tooMuch = invoice([line, { ...less, unitPence: -100_01 }])
+    expect(fieldErrors(tooMuch.error!.issues)).toEqual({ 'lines.1.unitPence': expect.stringMatching(/taking off/) })
+    // labour and materials are each taken off their own: materials cannot take off labour
+    expect(fields(invoice([line, { ...less, kind: 'materials' }]))).toEqual(['lines.1.unitPence'])
   })
 
   it('takes a unit price up to £1,000,000.00 and not a penny more', () => {

@@ -25,7 +25,7 @@ describe('draftLines: labour priced from the price book', () => {
     ['a wide reveal at the wall rate', line('reveals-area', 'm2', 3612), { description: 'Skim wide reveals and strips: Back bedroom', quantityX1000: 361, unit: 'm²', unitPence: 18_00 }],
     // 1.20 m of narrow reveal: 1200 mm = 1200 thousandths of a metre
     ['a narrow reveal by the metre', line('reveals-lm', 'lm', 1200, { areaCm2: 3000 }), { description: 'Reveals and narrow strips: Back bedroom', quantityX1000: 1200, unit: 'm', unitPence: 9_00 }],
-    ['undercoat by the m²', line('undercoat', 'm2', 72_000), { description: 'Undercoat, back to the background: Back bedroom', quantityX1000: 7200, unit: 'm²', unitPence: 14_00 }],
+    ['undercoat by the m²', line('undercoat', 'm2', 72_000), { description: 'Undercoat where the old plaster is off: Back bedroom', quantityX1000: 7200, unit: 'm²', unitPence: 14_00 }],
     ['patches at the undercoat rate', line('fill-patches', 'm2', 6000), { description: 'Fill patches in undercoat: Back bedroom', quantityX1000: 600, unit: 'm²', unitPence: 14_00 }],
     ['beads by the metre', line('beads', 'lm', 2400), { description: 'Fit beads: Back bedroom', quantityX1000: 2400, unit: 'm', unitPence: 6_00 }],
     ['scrim by the metre', line('scrim', 'lm', 3400), { description: 'Scrim and fill gaps round frames: Back bedroom', quantityX1000: 3400, unit: 'm', unitPence: 2_00 }],

@@ -26,6 +26,7 @@ describe('lineNetPence: quantity x unit price, half up to the penny, no float er
     [12.345, 1799, 22209], // 22208.655 -> 22209
     [1.005, 100, 101], // 100.5 -> 101 half up (a float gives 1.005 * 100 = 100.4999...)
     [2.5, 1, 3], // 2.5 -> 3 (half up, not to even)
+    [1.005, -100, -101], // a line taking off: -100.5 -> -101, exactly what the same line adds
     [0.001, 499, 0], // 0.499 -> 0
     [0.001, 500, 1], // 0.5 -> 1
     [0, 5000, 0],
@@ -59,6 +60,8 @@ describe('invoiceTotals', () => {
     ['not registered: no VAT', [labour(1, 50000), materials(1, 20000)], { vat: 'not-registered', cisRatePercent: null }, totals({ labourNetPence: 50000, materialsNetPence: 20000 })],
     ['not registered, CIS 20%', [labour(1, 50000), materials(1, 20000)], { vat: 'not-registered', cisRatePercent: 20 }, totals({ labourNetPence: 50000, materialsNetPence: 20000, cisDeductionPence: 10000 })],
     ['an empty invoice', [], std, totals({ labourNetPence: 0, materialsNetPence: 0 })],
+    // a final invoice: the quote's lines, less a deposit invoiced before (500.00 + 33.33 - 100.00 labour; 19.99 - 4.00 materials): VAT on what is left
+    ['the quote\'s lines less what was invoiced before', [labour(1, 500_00), labour(1, 33_33), labour(1, -100_00), materials(1, 19_99), materials(1, -4_00)], std, totals({ labourNetPence: 433_33, materialsNetPence: 15_99, vatPence: 89_86 })],
     ['an empty invoice under CIS', [], { vat: 'reverse-charge', cisRatePercent: 30 }, totals({ labourNetPence: 0, materialsNetPence: 0 })],
   ])('%s', (_what, lines, context, expected) => expect(invoiceTotals(lines, context)).toEqual(expected))
 
@@ -77,7 +80,8 @@ describe('invoiceTotals refuses what it cannot total exactly (our rules, see sha
     ['an infinite quantity', [labour(Number.POSITIVE_INFINITY, 100)], std],
     ['a tiny quantity written with an exponent', [labour(1e-7, 100)], std],
     ['pence with a fraction', [labour(1, 12.5)], std],
-    ['a negative unit price', [labour(1, -100)], std],
+    ['a line taking off with nothing to take it from', [labour(1, -100)], std],
+    ['a line taking off more labour than the invoice charges', [labour(1, 500), materials(1, 900), labour(1, -600)], std],
     ['a VAT rate that is not 0, 5 or 20', [{ kind: 'labour', quantity: 1, unitPence: 100, vatRatePercent: 17.5 as 20 }], std],
     ['a line that is neither labour nor materials', [{ kind: 'plant' as 'labour', quantity: 1, unitPence: 100, vatRatePercent: 20 }], std],
     ['a CIS rate that is not 0, 20 or 30', [labour(1, 100)], { vat: 'standard', cisRatePercent: 10 as 20 }],

@@ -28,7 +28,7 @@ export default defineEventHandler(async (event) => {
     asOf,
     claim,
     firmName: view.firm.tradingName,
-    bankLines: hasBankAccount(bank) ? bankAccountLines(bank) : [],
+    bankLines: bank.takesTransfer && hasBankAccount(bank) ? bankAccountLines(bank) : [],
   })
   const title = `Late payment claim: invoice ${view.reference}`
   const pdf = await makePdf({ title, subject: `Claim for ${view.customer.name}` }, (p) => {
