@@ -1,6 +1,7 @@
 // A small HTTP client for the API tests, with a cookie jar (one per signed-in person).
 import { randomUUID } from 'node:crypto'
-import { runningApps } from './app'
+import { requiredEnv, runningApps } from './app'
+import { queryAsFirm } from './db'
 
 export interface ApiResponse<T = any> { status: number, body: T, headers: Headers }
 
@@ -57,11 +58,16 @@ export function uniqueEmail(label: string) {
 
 export const GOOD_PASSWORD = 'wet-edge-trowel-42'
 
+/** The invented bank account test firms are given (account name: the trading name). */
+export const TEST_BANK = { bankSortCode: '000000', bankAccountNumber: '00000000' }
+
 /**
  * Sign up a new firm and follow the link in the e-mail the server sent (the app at `base` must
  * have been started by this test process, tests/support/app.ts); returns its owner's client.
+ * The firm takes payment by transfer (the default), so it is given an invented bank account, as
+ * its owner would fill in, or its invoices could not be issued; `bank: false` leaves it without.
  */
-export async function signUpFirm(base: string, firmName = 'Test Firm') {
+export async function signUpFirm(base: string, firmName = 'Test Firm', opts: { bank?: boolean } = {}) {
   const client = new Client(base)
   const email = uniqueEmail('owner')
   const res = await client.post('/api/auth/sign-up', { firmName, name: 'Test Owner', email, password: GOOD_PASSWORD })
@@ -73,15 +79,22 @@ export async function signUpFirm(base: string, firmName = 'Test Firm') {
   if (!token) throw new Error(`signUpFirm: no sign-up link in:\n${mail.text}`)
   const confirmed = await client.post(`/api/auth/sign-up/${token}`)
   if (confirmed.status !== 200) throw new Error(`sign-up confirmation failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`)
-  return { client, email, firmId: confirmed.body.firmId as string }
+  const firmId = confirmed.body.firmId as string
+  if (opts.bank !== false) {
+    // straight in the database as the app does it (row-level security on): no audit entry, and the
+    // firm's settings otherwise as sign-up left them
+    const set = await queryAsFirm(requiredEnv('SETWELL_TEST_DATABASE_URL'), firmId, 'update firms set bank_account_name = trading_name, bank_sort_code = $2, bank_account_number = $3 where id = $1 returning id', [firmId, TEST_BANK.bankSortCode, TEST_BANK.bankAccountNumber])
+    if (set.length !== 1) throw new Error(`signUpFirm: the bank details of ${firmName} were not saved`)
+  }
+  return { client, email, firmId }
 }
 
 /**
  * A firm for a server whose mail goes nowhere (`base`): signed up through a server of the same
  * test database whose mail arrives (`mailBase`), then signed in at `base`.
  */
-export async function signUpFirmAt(base: string, mailBase: string, firmName = 'Test Firm') {
-  const made = await signUpFirm(mailBase, firmName)
+export async function signUpFirmAt(base: string, mailBase: string, firmName = 'Test Firm', opts: { bank?: boolean } = {}) {
+  const made = await signUpFirm(mailBase, firmName, opts)
   const client = new Client(base)
   const res = await client.post('/api/auth/sign-in', { email: made.email, password: GOOD_PASSWORD })
   if (res.status !== 200) throw new Error(`sign-in at ${base} failed: ${res.status} ${JSON.stringify(res.body)}`)
