@@ -1,7 +1,6 @@
 // A small HTTP client for the API tests, with a cookie jar (one per signed-in person).
 import { randomUUID } from 'node:crypto'
-import { requiredEnv, runningApps } from './app'
-import { queryAsFirm } from './db'
+import { runningApps } from './app'
 
 export interface ApiResponse<T = any> { status: number, body: T, headers: Headers }
 
@@ -59,7 +58,18 @@ export function uniqueEmail(label: string) {
 export const GOOD_PASSWORD = 'wet-edge-trowel-42'
 
 /** The invented bank account test firms are given (account name: the trading name). */
-export const TEST_BANK = { bankSortCode: '000000', bankAccountNumber: '00000000' }
+export const TEST_BANK = { bankSortCode: '00-00-00', bankAccountNumber: '00000000' }
+
+/**
+ * The owner fills in the firm's bank account in its settings, as on the Firm page (through the
+ * firm's own server, whatever database it runs on), the rest of the settings as they are.
+ */
+export async function giveBankAccount(owner: Client) {
+  const firm = (await owner.get('/api/firm')).body
+  const { id: _i, createdAt: _c, updatedAt: _u, enquiryFormKey: _k, referenceLetters: _l, ...settings } = firm
+  const res = await owner.patch('/api/firm', { ...settings, takesTransfer: true, bankAccountName: firm.tradingName, ...TEST_BANK })
+  if (res.status !== 200) throw new Error(`giveBankAccount: ${res.status} ${JSON.stringify(res.body)}`)
+}
 
 /**
  * Sign up a new firm and follow the link in the e-mail the server sent (the app at `base` must
@@ -80,12 +90,7 @@ export async function signUpFirm(base: string, firmName = 'Test Firm', opts: { b
   const confirmed = await client.post(`/api/auth/sign-up/${token}`)
   if (confirmed.status !== 200) throw new Error(`sign-up confirmation failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`)
   const firmId = confirmed.body.firmId as string
-  if (opts.bank !== false) {
-    // straight in the database as the app does it (row-level security on): no audit entry, and the
-    // firm's settings otherwise as sign-up left them
-    const set = await queryAsFirm(requiredEnv('SETWELL_TEST_DATABASE_URL'), firmId, 'update firms set bank_account_name = trading_name, bank_sort_code = $2, bank_account_number = $3 where id = $1 returning id', [firmId, TEST_BANK.bankSortCode, TEST_BANK.bankAccountNumber])
-    if (set.length !== 1) throw new Error(`signUpFirm: the bank details of ${firmName} were not saved`)
-  }
+  if (opts.bank !== false) await giveBankAccount(client)
   return { client, email, firmId }
 }
 
