@@ -77,14 +77,14 @@ async function seedDemo(db: NodePgDatabase<typeof schema>) {
     }
     if (bookedEnquiry) await seedVisit(tx, { firmId, ...bookedEnquiry, visitorUserId: userIds.owner! })
     const millbeck = customerIds.millbeck!
-    const stonegate = customerIds.stonegate!
+    const pribbleworth = customerIds.pribbleworth!
     // last quarter first, so job and invoice numbers follow the dates
-    const quarter = await seedQuarter(tx, { firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, people: { ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! }, stonegate: stonegate.id })
+    const quarter = await seedQuarter(tx, { firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, people: { ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! }, pribbleworth: pribbleworth.id })
     const job = await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew!, number: quarter.jobs + 1 })
     await seedInvoices(tx, {
       firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!, firstNumber: quarter.invoices + 1,
       job: { id: job.jobId, reference: jobReference(quarter.jobs + 1), customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
-      builder: { id: stonegate.id, siteId: stonegate.sites[0]! },
+      builder: { id: pribbleworth.id, siteId: pribbleworth.sites[0]! },
     })
 
     const secondId = randomUUID()

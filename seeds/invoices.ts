@@ -1,5 +1,5 @@
 // Demo invoices: the deposit on the job under way (paid by transfer), and an overdue invoice to
-// Stonegate Builds Ltd (a VAT- and CIS-registered builder: reverse charge, CIS at 20%) with a
+// Pribbleworth Scarnholme Builds Ltd (a VAT- and CIS-registered builder: reverse charge, CIS at 20%) with a
 // reminder already sent, so "What is owed" and the late-payment claim have something to show.
 // Invented figures, for the demo only.
 import { randomUUID } from 'node:crypto'

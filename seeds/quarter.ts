@@ -25,7 +25,7 @@ export function demoQuarter(today = todayIso()) {
 
 const at = (iso: string, hh: number) => new Date(`${iso}T${String(hh).padStart(2, '0')}:00:00Z`)
 
-export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, termsDays: number, people: People, stonegate: string }) {
+export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, termsDays: number, people: People, pribbleworth: string }) {
   const { firmId, people } = o
   const q = demoQuarter()
   const on = (days: number) => addDays(q.start, days)
@@ -38,8 +38,8 @@ export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, t
   }
   const dunmore = await customer({ firmId, kind: 'homeowner', name: 'Alys Dunmore', email: 'alys.dunmore@example.invalid', phone: '07700 900561', billingLine1: '27 Ropewalk Lane', billingTown: 'Kettlebury', billingPostcode: 'KB2 5NS' }, { line1: '27 Ropewalk Lane', town: 'Kettlebury', postcode: 'KB2 5NS' })
   const fernhill = await customer({ firmId, kind: 'landlord', name: 'Fernhill Homes', contactName: 'Rhodri Penn', email: 'rhodri@fernhill-homes.example', phone: '01632 960 774', billingLine1: '2 Chandlers Court', billingTown: 'Kettlebury', billingPostcode: 'KB1 2GH', endUserNotified: true }, { label: 'Flat 1', line1: 'Flat 1, 9 Maltings Walk', town: 'Kettlebury', postcode: 'KB1 6TT' })
-  const [plot3] = await tx.insert(schema.sites).values({ firmId, customerId: o.stonegate, label: 'Weir Meadow plot 3', line1: 'Plot 3, Weir Meadow', town: 'Lower Kettlebury', postcode: 'KB7 4EE' }).returning({ id: schema.sites.id })
-  const [plot4] = await tx.insert(schema.sites).values({ firmId, customerId: o.stonegate, label: 'Weir Meadow plot 4', line1: 'Plot 4, Weir Meadow', town: 'Lower Kettlebury', postcode: 'KB7 4EE' }).returning({ id: schema.sites.id })
+  const [plot3] = await tx.insert(schema.sites).values({ firmId, customerId: o.pribbleworth, label: 'Weir Meadow plot 3', line1: 'Plot 3, Weir Meadow', town: 'Lower Kettlebury', postcode: 'KB7 4EE' }).returning({ id: schema.sites.id })
+  const [plot4] = await tx.insert(schema.sites).values({ firmId, customerId: o.pribbleworth, label: 'Weir Meadow plot 4', line1: 'Plot 4, Weir Meadow', town: 'Lower Kettlebury', postcode: 'KB7 4EE' }).returning({ id: schema.sites.id })
 
   let jobNumber = 0
   let invoiceNumber = 0
@@ -113,21 +113,21 @@ export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, t
 
   // 3 and 4. the builder's plots, under CIS at 20% and the reverse charge; paid less the deduction
   const p3 = await job({
-    customerId: o.stonegate, siteId: plot3!.id, title: 'Weir Meadow plot 3: undercoat and skim throughout', vat: 'reverse-charge', cis: 20,
+    customerId: o.pribbleworth, siteId: plot3!.id, title: 'Weir Meadow plot 3: undercoat and skim throughout', vat: 'reverse-charge', cis: 20,
     days: [30, 31, 32, 35].flatMap(day => [{ day, who: 'owner' as const }, { day, who: 'crew' as const }]),
-    lines: [labour('Plot 3: undercoat and skim, ground and first floors', 2400_00), materials('Bonding, finish plaster and beads', 380_00)], issued: 36, paid: [{ day: 41, method: 'transfer', reference: 'STONEGATE PLOT 3' }],
+    lines: [labour('Plot 3: undercoat and skim, ground and first floors', 2400_00), materials('Bonding, finish plaster and beads', 380_00)], issued: 36, paid: [{ day: 41, method: 'transfer', reference: 'PRIBBLEWORTH PLOT 3' }],
   })
-  await pay(p3.invoiceId, p3.totals.amountDuePence, { day: 41, method: 'transfer', reference: 'STONEGATE PLOT 3' })
+  await pay(p3.invoiceId, p3.totals.amountDuePence, { day: 41, method: 'transfer', reference: 'PRIBBLEWORTH PLOT 3' })
   const p4 = await job({
-    customerId: o.stonegate, siteId: plot4!.id, title: 'Weir Meadow plot 4: skim throughout', vat: 'reverse-charge', cis: 20,
+    customerId: o.pribbleworth, siteId: plot4!.id, title: 'Weir Meadow plot 4: skim throughout', vat: 'reverse-charge', cis: 20,
     days: [62, 63, 64].flatMap(day => [{ day, who: 'owner' as const }, { day, who: 'crew' as const }]),
-    lines: [labour('Plot 4: skim walls and ceilings throughout', 1600_00), materials('Finish plaster and beads', 240_00)], issued: 66, paid: [{ day: 84, method: 'transfer', reference: 'STONEGATE PLOT 4' }],
+    lines: [labour('Plot 4: skim walls and ceilings throughout', 1600_00), materials('Finish plaster and beads', 240_00)], issued: 66, paid: [{ day: 84, method: 'transfer', reference: 'PRIBBLEWORTH PLOT 4' }],
   })
-  await pay(p4.invoiceId, p4.totals.amountDuePence, { day: 84, method: 'transfer', reference: 'STONEGATE PLOT 4' })
+  await pay(p4.invoiceId, p4.totals.amountDuePence, { day: 84, method: 'transfer', reference: 'PRIBBLEWORTH PLOT 4' })
 
   // the builder's statement for plot 3's tax month, as it arrived: it agrees with what was paid
   await tx.insert(schema.cisStatements).values({
-    firmId, customerId: o.stonegate, taxMonthStart: cisTaxMonth(on(41)).start, grossPence: p3.totals.netPence, materialsPence: p3.totals.materialsNetPence,
+    firmId, customerId: o.pribbleworth, taxMonthStart: cisTaxMonth(on(41)).start, grossPence: p3.totals.netPence, materialsPence: p3.totals.materialsNetPence,
     deductionPence: p3.totals.cisDeductionPence, reference: 'SB-CIS-0412', createdBy: people.officeId,
   })
 
@@ -141,8 +141,8 @@ export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, t
   await purchase({ day: 29, supplier: 'Weir Valley Plaster Supplies', category: 'materials', netPence: 312_00, vatPence: 62_40, reference: 'WVP-2207', jobs: [{ jobId: p3.jobId, netPence: 312_00 }] })
   await purchase({ day: 36, supplier: 'Dylan Aske (labourer)', category: 'labour', netPence: 300_00, vatPence: 0, reference: 'Week 32', jobs: [{ jobId: p3.jobId, netPence: 300_00 }], notes: 'Four days mixing and clearing on plot 3.' })
   await purchase({ day: 60, supplier: 'Weir Valley Plaster Supplies', category: 'materials', netPence: 198_50, vatPence: 39_70, reference: 'WVP-2291', jobs: [{ jobId: p4.jobId, netPence: 198_50 }] })
-  await purchase({ day: 14, supplier: 'Ringway Fuel', category: 'fuel', netPence: 62_50, vatPence: 12_50, reference: 'Pump 4' })
-  await purchase({ day: 47, supplier: 'Ringway Fuel', category: 'fuel', netPence: 58_75, vatPence: 11_75, reference: 'Pump 2' })
+  await purchase({ day: 14, supplier: 'Hobblecote Fuel Stop', category: 'fuel', netPence: 62_50, vatPence: 12_50, reference: 'Pump 4' })
+  await purchase({ day: 47, supplier: 'Hobblecote Fuel Stop', category: 'fuel', netPence: 58_75, vatPence: 11_75, reference: 'Pump 2' })
   await purchase({ day: 40, supplier: 'Trowel & Hawk Tool Hire', category: 'tools', netPence: 149_99, vatPence: 30_00, reference: 'TH-9931', notes: 'New finishing trowel and mixing paddle.' })
   await purchase({ day: 70, supplier: 'Saltmarsh Garage', category: 'vehicle', netPence: 210_00, vatPence: 42_00, reference: 'Van service' })
 

@@ -1,5 +1,6 @@
 // The firm's settings as typed on the Firm page: the form starts from what is saved and, after a
-// save, shows what the server kept (the VAT number and UTR normalised).
+// save, shows what the server kept (the VAT number and UTR normalised, the sort code as 12-34-56).
+// A save the server refuses leaves the form as typed, with the message beside each field.
 export interface FirmRecord {
   tradingName?: string
   addressLine1?: string | null
@@ -17,7 +18,10 @@ export interface FirmRecord {
   invoicePrefix?: string
   creditNoteNumbering?: string
   creditNotePrefix?: string
-  bankDetails?: string | null
+  takesTransfer?: boolean
+  bankAccountName?: string
+  bankSortCode?: string
+  bankAccountNumber?: string
   vatStagger?: number
   vatCashAccounting?: boolean
 }
@@ -30,8 +34,12 @@ export function firmForm(f: FirmRecord | null | undefined) {
     dayRate: f?.dayRatePence ? penceToDecimal(Number(f.dayRatePence)) : '', paymentTermsDays: String(f?.paymentTermsDays ?? 30),
     invoicePrefix: f?.invoicePrefix ?? '',
     creditNoteNumbering: (f?.creditNoteNumbering ?? 'own') as 'shared' | 'own',
-    creditNotePrefix: f?.creditNotePrefix ?? 'CN-',
-    bankDetails: f?.bankDetails ?? '',
+    creditNotePrefix: f?.creditNotePrefix ?? '',
+    takesTransfer: f?.takesTransfer ?? true,
+    bankAccountName: f?.bankAccountName ?? '',
+    // the sort code as people write it, 12-34-56 (kept as six digits)
+    bankSortCode: formatSortCode(f?.bankSortCode ?? ''),
+    bankAccountNumber: f?.bankAccountNumber ?? '',
     vatStagger: (f?.vatStagger ?? 1) as 1 | 2 | 3,
     vatCashAccounting: f?.vatCashAccounting ?? false,
   }

@@ -274,6 +274,11 @@ export async function issueInvoice(f: FirmScope, id: string) {
   if (inv.jobId && inv.kind !== 'credit-note') await assertWithinJobPrice(f, inv.jobId)
   // the firm's row is locked before its prefixes are read: numbering and prefixes change one at a time
   const [firm] = await f.tx.select().from(firms).where(eq(firms.id, f.firmId)).for('update')
+  // an invoice offering payment by transfer needs the account to pay into: refused before a number
+  // is taken (nothing is written, and the route sends nothing); a credit note asks for no payment
+  if (inv.kind !== 'credit-note' && firm!.takesTransfer && !hasBankAccount(firm)) {
+    throw createError({ statusCode: 409, statusMessage: 'Bank details needed', data: { fields: { bankDetails: BANK_DETAILS_NEEDED } } })
+  }
   const series = inv.kind === 'credit-note' && firm!.creditNoteNumbering === 'own' ? 'credit-note' as const : 'invoice' as const
   const number = await nextInvoiceNumber(f, series)
   const prefix = series === 'credit-note' ? firm!.creditNotePrefix : firm!.invoicePrefix

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { isoDate, nameField, queryWholeNumber, text, whenObject } from './common'
+import { accountNumberProblem, digitsOnly, sortCodeProblem } from '../utils/bank-details'
 
 const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })
 
@@ -10,6 +11,14 @@ const vatNumber = text().trim().toUpperCase().transform(v => v.replace(/\s+/g, '
 /** Unique Taxpayer Reference: 10 digits. */
 const utr = text().trim().transform(v => v.replace(/\s+/g, ''))
   .pipe(text().regex(/^\d{10}$/, { error: 'A UTR is 10 digits.' }))
+
+/** A part of the bank account: blank, or as the check in shared/utils/bank-details.ts allows, kept as digits only. */
+const bankDigits = (problem: (typed: string) => string | null) => text().trim()
+  .superRefine((v, ctx) => {
+    const p = v === '' ? null : problem(v)
+    if (p) ctx.addIssue({ code: 'custom', message: p })
+  })
+  .transform(digitsOnly)
 
 export const firmSettingsSchema = z.object({
   tradingName: nameField('the trading name'),
@@ -29,7 +38,12 @@ export const firmSettingsSchema = z.object({
   // optional, so a client that does not know them leaves them as they are
   creditNoteNumbering: z.enum(['shared', 'own'], { error: 'Number credit notes with the invoices, or on their own.' }).optional(),
   creditNotePrefix: text().trim().max(12, { error: 'Keep the prefix to 12 characters.' }).regex(/^[A-Z0-9/-]*$/i, { error: 'Use letters, digits, - or / only.' }).optional(),
-  bankDetails: upTo(500).optional(),
+  // the bank account customers pay by transfer into (optional, so a client that does not know
+  // them leaves them as they are); blanks are kept: issuing an invoice asks for them
+  takesTransfer: z.boolean({ error: 'Say whether invoices offer payment by bank transfer.' }).optional(),
+  bankAccountName: upTo(140).optional(),
+  bankSortCode: bankDigits(sortCodeProblem).optional(),
+  bankAccountNumber: bankDigits(accountNumberProblem).optional(),
   vatStagger: z.union([z.literal(1), z.literal(2), z.literal(3)], { error: 'Choose the months the VAT quarters end in.' }).optional(),
   vatCashAccounting: z.boolean({ error: 'Say whether the firm uses cash accounting.' }).optional(),
 })

@@ -18,3 +18,19 @@ export const JOB_CAUTIONS = {
     'Isolate or protect live electrics before wetting walls round sockets and switches; use proper access equipment for ceilings and stairwells.',
   ],
 } as const
+
+// The cautions where money decisions are made (issue 17, part 4): where Setwell's figures do not
+// apply and who decides. Each is a rule of thumb that defers to the official guidance and the
+// firm's accountant, in words for the firm (never printed for customers).
+
+/** Beside the VAT boxes (the quarter page) and the firm's VAT settings. */
+export const FLAT_RATE_CAUTION = 'These boxes are worked the standard way, from the VAT on each sale and purchase. They are not for the Flat Rate Scheme: a firm on it works its return from a flat percentage of its takings instead. If you are on it, or thinking of joining, check HMRC\'s guidance (VAT Notice 733) and ask your accountant.'
+
+/** Beside "labour paid to others" (purchases of that kind, and the profit page). */
+export const CIS_CONTRACTOR_CAUTION = 'Paying others for construction work (a labourer, another plasterer) can make the firm a CIS contractor as well as a subcontractor: then it must register as one, check each person with HMRC before paying them, take the deduction HMRC gives from their pay and send HMRC a return every month. Check HMRC\'s guidance (CIS 340) and ask your accountant before paying anyone for work on site.'
+
+/** Beside purchases (the purchase form and the list). */
+export const PURCHASE_VAT_CAUTION = 'VAT on a purchase can be reclaimed only with a valid VAT invoice or receipt from a VAT-registered seller, and only for what the firm uses for its business, not for private use. Without one, record the VAT as 0 and the whole amount as the cost. Check HMRC\'s guidance (VAT Notice 700) and ask your accountant.'
+
+/** Beside the late-payment claim on the firm's invoice screen (not in the letter). */
+export const CLAIM_REMEDY_CAUTION = 'Statutory interest and the fixed sum apply unless your contract with the customer sets its own substantial remedy for late payment (for example its own fair interest rate): then the contract\'s terms apply instead. Read the payment terms you agreed first, and check the government\'s guidance on late commercial payments with your accountant or a solicitor.'

@@ -49,8 +49,8 @@ describe('the quarter', () => {
     // the reverse-charge sales are in box 6 and nowhere in box 1
     const box6 = page.getByTestId('vat-box-6')
     await box6.getByText(/What makes it up/).click()
-    await expectVisible(box6.getByText(/Stonegate Builds Ltd/).first())
-    expect(await page.getByTestId('vat-box-1').innerText()).not.toContain('Stonegate')
+    await expectVisible(box6.getByText(/Pribbleworth Scarnholme Builds Ltd/).first())
+    expect(await page.getByTestId('vat-box-1').innerText()).not.toContain('Pribbleworth')
     await screenshot(page, 'accountant-quarter-boxes')
 
     // the pack: one ZIP, eight files
@@ -63,12 +63,12 @@ describe('the quarter', () => {
     for (const n of names.filter(n => n.endsWith('.csv'))) expect(() => rowsOf(strFromU8(files[n]!)), n).not.toThrow()
 
     // invoices (the demo's figures): Alys Dunmore 875.00 net + 175.00 VAT; her credit note -20.00;
-    // Stonegate's plots under the reverse charge: no VAT charged, 20% of 2,780.00 for them to account
+    // Pribbleworth's plots under the reverse charge: no VAT charged, 20% of 2,780.00 for them to account
     // for = 556.00, CIS 20% of the 2,400.00 labour = 480.00
     const invoices = file('invoices')
     expect(invoices.find(r => r.Customer === 'Alys Dunmore' && r.Kind === 'Final invoice')).toMatchObject({ 'Net (pounds)': '875.00', 'VAT (pounds)': '175.00' })
     expect(invoices.find(r => r.Number === 'CN-0001')).toMatchObject({ 'Net (pounds)': '-20.00', 'VAT (pounds)': '-4.00' })
-    expect(invoices.find(r => r['Net (pounds)'] === '2780.00')).toMatchObject({ 'Customer': 'Stonegate Builds Ltd', 'VAT (pounds)': '0.00', 'Reverse charge VAT for the customer (pounds)': '556.00', 'CIS deduction (pounds)': '480.00', 'Paid to date (pounds)': '2300.00' })
+    expect(invoices.find(r => r['Net (pounds)'] === '2780.00')).toMatchObject({ 'Customer': 'Pribbleworth Scarnholme Builds Ltd', 'VAT (pounds)': '0.00', 'Reverse charge VAT for the customer (pounds)': '556.00', 'CIS deduction (pounds)': '480.00', 'Paid to date (pounds)': '2300.00' })
     const boxes = file('vat-summary')
     for (const b of boxes) expect(Number(b['Amount (pounds)']), `box ${b.Box}`).toBeCloseTo(api.boxes[b.Box!] / 100, 2)
     expect(file('purchases')).toHaveLength(9)

@@ -286,14 +286,15 @@ describe('invoice and credit-note references', () => {
   it('refuses prefixes that would give an invoice and a credit note the same reference', async () => {
     const base = await firmSettings()
     // the same prefix (in any case), or one that is the other followed by digits ("A" at 10001 is "A10001", as "A1" is at 1)
-    for (const [invoicePrefix, creditNotePrefix] of [['CN-', 'CN-'], ['cn-', 'CN-'], ['A', 'A1'], ['', '']]) {
+    for (const [invoicePrefix, creditNotePrefix] of [['CN-', 'CN-'], ['cn-', 'CN-'], ['A', 'A1']]) {
       const res = await owner.patch('/api/firm', { ...base, invoicePrefix, creditNoteNumbering: 'own', creditNotePrefix })
       expect(res.status, `${invoicePrefix} / ${creditNotePrefix}: ${show(res)}`).toBe(400)
       expect(res.body.data.fields.creditNotePrefix).toMatch(/invoice/)
     }
     // shared numbering: one series, no collision whatever the prefixes
     expect((await owner.patch('/api/firm', { ...base, creditNoteNumbering: 'shared', creditNotePrefix: base.invoicePrefix })).status).toBe(200)
-    for (const [invoicePrefix, creditNotePrefix] of [['INV/', 'INV-X'], ['', 'X'], ['A', 'A0'], ['INV-', 'CR-']]) {
+    // both blank: the firm's letters then - for invoices and -C for credit notes (BP-12, BP-C3), unlike each other
+    for (const [invoicePrefix, creditNotePrefix] of [['INV/', 'INV-X'], ['', 'X'], ['A', 'A0'], ['INV-', 'CR-'], ['', '']]) {
       const res = await owner.patch('/api/firm', { ...base, invoicePrefix, creditNoteNumbering: 'own', creditNotePrefix })
       expect(res.status, `${invoicePrefix} / ${creditNotePrefix}: ${show(res)}`).toBe(200)
     }

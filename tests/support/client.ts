@@ -57,11 +57,27 @@ export function uniqueEmail(label: string) {
 
 export const GOOD_PASSWORD = 'wet-edge-trowel-42'
 
+/** The invented bank account test firms are given (account name: the trading name). */
+export const TEST_BANK = { bankSortCode: '00-00-00', bankAccountNumber: '00000000' }
+
+/**
+ * The owner fills in the firm's bank account in its settings, as on the Firm page (through the
+ * firm's own server, whatever database it runs on), the rest of the settings as they are.
+ */
+export async function giveBankAccount(owner: Client) {
+  const firm = (await owner.get('/api/firm')).body
+  const { id: _i, createdAt: _c, updatedAt: _u, enquiryFormKey: _k, referenceLetters: _l, ...settings } = firm
+  const res = await owner.patch('/api/firm', { ...settings, takesTransfer: true, bankAccountName: firm.tradingName, ...TEST_BANK })
+  if (res.status !== 200) throw new Error(`giveBankAccount: ${res.status} ${JSON.stringify(res.body)}`)
+}
+
 /**
  * Sign up a new firm and follow the link in the e-mail the server sent (the app at `base` must
  * have been started by this test process, tests/support/app.ts); returns its owner's client.
+ * The firm takes payment by transfer (the default), so it is given an invented bank account, as
+ * its owner would fill in, or its invoices could not be issued; `bank: false` leaves it without.
  */
-export async function signUpFirm(base: string, firmName = 'Test Firm') {
+export async function signUpFirm(base: string, firmName = 'Test Firm', opts: { bank?: boolean } = {}) {
   const client = new Client(base)
   const email = uniqueEmail('owner')
   const res = await client.post('/api/auth/sign-up', { firmName, name: 'Test Owner', email, password: GOOD_PASSWORD })
@@ -73,15 +89,17 @@ export async function signUpFirm(base: string, firmName = 'Test Firm') {
   if (!token) throw new Error(`signUpFirm: no sign-up link in:\n${mail.text}`)
   const confirmed = await client.post(`/api/auth/sign-up/${token}`)
   if (confirmed.status !== 200) throw new Error(`sign-up confirmation failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`)
-  return { client, email, firmId: confirmed.body.firmId as string }
+  const firmId = confirmed.body.firmId as string
+  if (opts.bank !== false) await giveBankAccount(client)
+  return { client, email, firmId }
 }
 
 /**
  * A firm for a server whose mail goes nowhere (`base`): signed up through a server of the same
  * test database whose mail arrives (`mailBase`), then signed in at `base`.
  */
-export async function signUpFirmAt(base: string, mailBase: string, firmName = 'Test Firm') {
-  const made = await signUpFirm(mailBase, firmName)
+export async function signUpFirmAt(base: string, mailBase: string, firmName = 'Test Firm', opts: { bank?: boolean } = {}) {
+  const made = await signUpFirm(mailBase, firmName, opts)
   const client = new Client(base)
   const res = await client.post('/api/auth/sign-in', { email: made.email, password: GOOD_PASSWORD })
   if (res.status !== 200) throw new Error(`sign-in at ${base} failed: ${res.status} ${JSON.stringify(res.body)}`)
