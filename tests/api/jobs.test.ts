@@ -98,7 +98,8 @@ describe('jobs', () => {
     const { quoteId, wallA, wallB } = await acceptedQuote()
     const made = await owner.post(`/api/quotes/${quoteId}/job`)
     expect(made.status, JSON.stringify(made.body)).toBe(201)
-    expect(made.body.reference).toMatch(/^J-\d{4}$/)
+    // the firm's letters (Job Firm: JF), J for a job, the number unpadded
+    expect(made.body.reference).toMatch(/^JF-J[1-9]\d*$/)
     expect((await owner.post(`/api/quotes/${quoteId}/job`)).status).toBe(409)
     const quote = (await owner.get(`/api/quotes/${quoteId}`)).body
     expect(quote.job).toEqual({ id: made.body.id, reference: made.body.reference })

@@ -59,7 +59,8 @@ describe('quotes', () => {
     const res = await owner.post('/api/quotes', { customerId: customer.id, siteId: customer.sites[0].id, enquiryId: enquiry.id, visitId: visit.id })
     expect(res.status, JSON.stringify(res.body)).toBe(201)
     const q = (await owner.get(`/api/quotes/${res.body.id}`)).body
-    expect(q.reference).toMatch(/^Q-\d{4}$/)
+    // the firm's letters (Quote Firm: QF), Q for a quote, the number unpadded
+    expect(q.reference).toMatch(/^QF-Q[1-9]\d*$/)
     expect(q.current).toMatchObject({ version: 1, status: 'draft', vat: 'not-registered' })
     const walls = q.current.lines.find((l: any) => l.description.startsWith('Skim walls'))
     const ceilings = q.current.lines.find((l: any) => l.description.startsWith('Skim ceilings'))

@@ -17,7 +17,7 @@ describe('chasing what is owed', () => {
     const builder = page.getByTestId('owed-customers').locator('li.card', { hasText: 'Stonegate Builds Ltd' })
     await expectVisible(builder)
     // the builder's overdue invoice (the demo's only one owing from them)
-    await builder.getByRole('link', { name: /BRP-\d{4}/ }).first().click()
+    await builder.getByRole('link', { name: /\b[A-Z]+-\d+\b/ }).first().click()
     await page.waitForURL(u => /^\/invoices\/[0-9a-f-]{36}$/.test(u.pathname))
     await expectText(page.getByTestId('invoice-status'), 'Overdue')
     const chase = page.getByTestId('chase')
