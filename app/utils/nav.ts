@@ -29,7 +29,7 @@ export const MONEY_ITEMS: NavItem[] = [
 /** What Settings holds, by permission. */
 export const SETTINGS_ITEMS: NavItem[] = [
   { to: '/firm', label: 'Firm', icon: 'firm', permission: 'firm:manage' },
-  { to: '/price-book', label: 'Price book', icon: 'quotes', permission: 'money:read' },
+  { to: '/rates', label: 'Rates and rules', icon: 'quotes', permission: 'money:read' },
   { to: '/materials', label: 'Materials', icon: 'quotes', permission: 'money:read' },
   { to: '/team', label: 'Team', icon: 'team', permission: 'team:manage' },
   { to: '/account', label: 'Your account', icon: 'account' },
