@@ -191,7 +191,7 @@ export async function profitTable(f: FirmScope, q: { from: string, to: string, c
 export const PROFIT_CSV_HEADER = [
   'Job', 'Job title', 'Customer', 'Customer kind', 'First day worked', 'Last day worked', 'Days worked',
   'Price net (pounds)', 'Price from', 'Materials (pounds)', 'Materials from', 'Other costs (pounds)',
-  'Labour paid to others (pounds)', 'Left after costs (pounds)', 'Effective day rate (pounds)',
+  'Labour paid to others (pounds)', 'Left after costs (pounds)', 'Day rate earned (pounds)',
   'Target day rate (pounds)', 'Target price (pounds)', 'Difference from target price (pounds)', 'Margin (percent)',
 ] as const
 

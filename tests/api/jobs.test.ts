@@ -234,7 +234,7 @@ describe('days, crew and the set log', () => {
     // ready to decorate: not while any surface waits for its final (second) skim coat; set 1 was logged as a first coat
     expect(full.ready).toEqual([{ room: 'Back bedroom', from: null, skimmed: 0, surfaces: 3 }])
     expect(full.dryingCaution).toMatch(/not a promise/)
-    expect(full.dryingCaution).toMatch(/local building regulations and licensed practice/)
+    expect(full.dryingCaution).toMatch(/the Building Regulations where they apply and good trade practice/)
     // set 1 again as its second coat: only the surfaces set 1 skims are finished, not a wall it only fills
     const set1Skims = set1.tasks.filter((t: any) => t.action === 'skim').map((t: any) => t.surfaceId)
     const second = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'second', surfaceIds: set1.tasks.map((t: any) => t.surfaceId), startedAt: '2026-06-01T10:30:00Z', endedAt: '2026-06-01T11:15:00Z' })

@@ -59,7 +59,7 @@ describe('the set log', () => {
     expect(skimA.reason).toMatch(/patch fill in set \d/)
     expect(skimA.reason).toMatch(/corner/)
     expect(skimB.reason).toMatch(/corner/)
-    await expectText(plan.getByTestId('plan-caution'), /local building regulations.*licensed practice/)
+    await expectText(plan.getByTestId('plan-caution'), /the Building Regulations where they apply.*good trade practice/)
     expect(await page.getByTestId('job-money').count()).toBe(0)
     expect(await page.locator('body').textContent()).not.toMatch(/£/)
     await screenshot(page, 'job-plan-crew')
