@@ -15,6 +15,7 @@ import type { Period } from './quarter'
 import { periodQuery } from '#shared/schemas/quarter'
 import { type CsvCell, poundsCell, toCsv, UTF8_BOM } from '#shared/utils/csv'
 import { INVOICE_KIND_LABELS, PAYMENT_METHOD_LABELS } from '#shared/utils/invoices'
+import { longDate } from '#shared/utils/dates'
 import { CUSTOMER_KIND_LABELS } from '#shared/utils/ledger'
 import { formatQuantity } from '#shared/utils/quantity'
 import { lineNetPence } from '#shared/utils/tax'
@@ -336,7 +337,7 @@ async function writeCsv(event: H3Event, auth: { firmId: string, userId: string }
 }
 
 export const PACK_NOTE = (period: Period) => [
-  `Setwell: the quarter-end pack for ${period.start} to ${period.end}.`,
+  `Setwell: the quarter-end pack for ${longDate(period.start)} to ${longDate(period.end)}.`,
   '',
   ...EXPORT_KINDS.map(k => `setwell-${k}-${period.start}-to-${period.end}.csv: ${EXPORT_LABELS[k]}.`),
   '',

@@ -178,7 +178,7 @@ describe('sending an invoice again', () => {
       await client.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: 'Skim the box room', quantityX1000: 1000, unitPence: 150_00 }] })
       const res = await client.post(`/api/invoices/${d.id}/issue`)
       expect(res.status, JSON.stringify(res.body)).toBe(200)
-      expect(res.body).toMatchObject({ status: 'issued', reference: expect.stringMatching(/^IF-[1-9]\d*$/) })
+      expect(res.body).toMatchObject({ status: 'issued', reference: expect.stringMatching(/^NPP-[1-9]\d*$/) })
       expect(res.body.warning).toMatch(/issued, but the e-mail did not go/i)
       expect((await client.get(`/api/invoices/${d.id}`)).body.issuedOn).toBeTruthy()
       const again = await client.post(`/api/invoices/${d.id}/resend`)

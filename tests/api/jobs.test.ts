@@ -87,7 +87,7 @@ async function acceptedQuote() {
   const { customer: c, visit: v, wallA, wallB, ceiling } = await measuredVisit(owner, email)
   const q = (await owner.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
   expect((await owner.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
   expect((await new Client(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Noor Halloran' })).status).toBe(200)
   return { quoteId: q.id as string, customer: c, visit: v, wallA, wallB, ceiling }

@@ -95,7 +95,7 @@ async function jobFromAcceptedQuote(client: Client) {
   expect(room.status, JSON.stringify(room.body)).toBe(200)
   const q = (await client.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
   expect((await client.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
   expect((await new Client(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Noor Halloran' })).status).toBe(200)
   const made = await client.post(`/api/quotes/${q.id}/job`)

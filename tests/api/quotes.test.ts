@@ -95,7 +95,7 @@ describe('quotes', () => {
     expect(sent.body.current.status).toBe('sent')
     expect(sent.body.current).not.toHaveProperty('tokenHash')
     expect((await owner.get(`/api/enquiries/${enquiry.id}`)).body.status).toBe('quoted')
-    const mail = await app.waitForMail(customer.email, /Your quote Q-/)
+    const mail = await app.waitForMail(customer.email, /Your quote [A-Z]+-Q[1-9]/)
     expect(mail.text).toMatch(/\/q\/[\w-]{40,}/)
 
     const q = (await owner.get(`/api/quotes/${id}`)).body
@@ -247,7 +247,7 @@ describe('pricing by days and at a fixed price', () => {
     expect(res.body.current.totals).toMatchObject({ netPence: 500_00, materialsNetPence: materialsNet, labourNetPence: 500_00 - materialsNet })
     // the customer's link and PDF show the priced lines, not the working
     await owner.post(`/api/quotes/${id}/send`)
-    const mail = await app.waitForMail(q.customer.email, /Your quote Q-/)
+    const mail = await app.waitForMail(q.customer.email, /Your quote [A-Z]+-Q[1-9]/)
     const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
     const view = (await new Client(app.url).get(`/api/public/quotes/${token}`)).body
     expect(view.lines.filter((l: any) => l.kind === 'labour')).toEqual([expect.objectContaining({ description: 'Labour, at the fixed price', unitPence: 500_00 - materialsNet })])
@@ -260,7 +260,7 @@ describe('the customer\'s link', () => {
     const { customer, enquiry, visit } = await customerWithVisit(uniqueEmail('cust'), name)
     const { id } = (await owner.post('/api/quotes', { customerId: customer.id, enquiryId: enquiry.id, visitId: visit.id })).body
     await owner.post(`/api/quotes/${id}/send`)
-    const mail = await app.waitForMail(customer.email, /Your quote Q-/)
+    const mail = await app.waitForMail(customer.email, /Your quote [A-Z]+-Q[1-9]/)
     const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
     return { id, token, customer, enquiry }
   }

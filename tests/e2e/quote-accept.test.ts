@@ -55,7 +55,7 @@ describe('quoting from a measured visit', () => {
     const sent = (await api.get(`/api/quotes/${quoteId}`)).body
 
     // the customer's e-mail, opened on their own phone
-    const mail = await e2e.app.waitForMail('harriet.colley@example.invalid', /Your quote Q-/)
+    const mail = await e2e.app.waitForMail('harriet.colley@example.invalid', /Your quote [A-Z]+-Q[1-9]/)
     const link = /(http:\/\/\S+\/q\/[\w-]+)/.exec(mail.text ?? '')![1]!
     const harriet = await e2e.open()
     const customer = harriet.page
