@@ -111,5 +111,5 @@ function statusStamp(view: QuotePdfView): { text: string, color: string } | null
 
 /** Answer with the PDF as a download named after the quote's reference only. */
 export async function sendQuotePdf(event: H3Event, view: QuotePdfView) {
-  return sendPdf(event, await renderQuotePdf(view), /^Q-\d+$/.test(view.reference) ? view.reference : 'quote')
+  return sendPdf(event, await renderQuotePdf(view), /^[A-Z]+-Q\d+$/.test(view.reference) ? view.reference : 'quote')
 }
