@@ -115,7 +115,7 @@ describe('the set log', () => {
     const sheetDay = page.getByTestId(`sheet-day-${bookedDay}`)
     await expectVisible(sheetDay.getByTestId('sheet-people').getByText(CREW.name))
     await expectText(sheetDay.getByTestId('sheet-set-1'), /done/)
-    await expectVisible(page.getByTestId('sheet-cautions').getByText(/licensed practice/))
+    await expectVisible(page.getByTestId('sheet-cautions').getByText(/good trade practice/))
     await screenshot(page, 'day-sheet-crew')
     expectCleanRun(kieran)
 
@@ -134,7 +134,7 @@ describe('the set log', () => {
     expect(cells[2]!.trim()).toBe('1.5')
     expect(cells[3]).toContain(finish.differencePacksX1000 < 0 ? '−' : '+')
     expect(cells[3]).toContain('£')
-    await expectVisible(jess.page.getByTestId('job-materials').getByText(/licensed practice/))
+    await expectVisible(jess.page.getByTestId('job-materials').getByText(/good trade practice/))
     await screenshot(jess.page, 'job-materials-owner')
     expectCleanRun(jess)
   })
