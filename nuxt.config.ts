@@ -57,6 +57,8 @@ export default defineNuxtConfig({
     // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
     // app with no server-side data, which draws the page from what the phone kept
     '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },
+    // the section once called the price book is Rates and rules now: old bookmarks land there
+    '/price-book': { redirect: { to: '/rates', statusCode: 301 } },
   },
   experimental: {
     // links fetch their page's code when touched or hovered, not whenever they scroll into view: on

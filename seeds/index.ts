@@ -7,7 +7,7 @@ import { eq, sql } from 'drizzle-orm'
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import * as schema from '../server/db/schema'
-import { jobReference } from '../shared/utils/references'
+import { firmLetters, jobReference } from '../shared/utils/references'
 import { DEMO_CUSTOMERS, DEMO_ENQUIRIES, DEMO_FIRM, DEMO_PEOPLE, DEMO_PRICE_BOOK, SECOND_FIRM } from './demo'
 import { seedVisit } from './visit'
 import { seedJob } from './job'
@@ -83,7 +83,7 @@ async function seedDemo(db: NodePgDatabase<typeof schema>) {
     const job = await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew!, number: quarter.jobs + 1 })
     await seedInvoices(tx, {
       firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!, firstNumber: quarter.invoices + 1,
-      job: { id: job.jobId, reference: jobReference(quarter.jobs + 1), customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
+      job: { id: job.jobId, reference: jobReference(firmLetters(DEMO_FIRM.tradingName), quarter.jobs + 1), customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
       builder: { id: pribbleworth.id, siteId: pribbleworth.sites[0]! },
     })
 

@@ -8,7 +8,8 @@ import { randomUUID } from 'node:crypto'
 import * as schema from '../server/db/schema'
 import { addDays, londonToday } from '../shared/utils/dates'
 import { cisTaxMonth, vatQuarter } from '../shared/utils/periods'
-import { invoiceReference, jobReference } from '../shared/utils/references'
+import { firmLetters, invoiceReference, jobReference } from '../shared/utils/references'
+import { DEMO_FIRM } from './demo'
 import { invoiceTotals } from '../shared/utils/tax'
 import type { Tx } from './visit'
 
@@ -81,7 +82,7 @@ export async function seedQuarter(tx: Tx, o: { firmId: string, prefix: string, t
       vat: j.vat, cisRatePercent: j.cis, issuedOn: on(j.issued), dueOn: on(j.issued + o.termsDays), totals: { ...totals }, amountDuePence: totals.amountDuePence, createdBy: people.officeId,
     })
     await tx.insert(schema.invoiceLines).values(j.lines.map((l, i) => ({ firmId, invoiceId: id, position: i, ...l })))
-    return { jobId, invoiceId: id, totals, reference: jobReference(number) }
+    return { jobId, invoiceId: id, totals, reference: jobReference(firmLetters(DEMO_FIRM.tradingName), number) }
   }
   const labour = (description: string, pence: number): Line => ({ kind: 'labour', description, quantityX1000: 1000, unit: 'item', unitPence: pence, vatRatePercent: 20 })
   const materials = (description: string, pence: number): Line => ({ kind: 'materials', description, quantityX1000: 1000, unit: 'item', unitPence: pence, vatRatePercent: 20 })

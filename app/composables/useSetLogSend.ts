@@ -7,7 +7,7 @@ export interface SetLogSend {
   /** Made when the form opened: the entry's id on the phone and its clientId on the server. */
   clientId: string
   body: Record<string, unknown>
-  /** In words, for the list of what waits ("Set 1 on J-0005"). */
+  /** In words, for the list of what waits ("Set 1 on BP-J5"). */
   label: string
   photos: { id: string, file: File }[]
 }

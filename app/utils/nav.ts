@@ -19,7 +19,7 @@ export const MONEY_ITEMS: NavItem[] = [
   { to: '/quotes', label: 'Quotes', icon: 'quotes', permission: 'money:read' },
   { to: '/invoices', label: 'Invoices', icon: 'quotes', permission: 'money:read' },
   { to: '/owed', label: 'What is owed', icon: 'quotes', permission: 'money:read' },
-  { to: '/chasing', label: 'Reminders and Bank Rate', icon: 'quotes', permission: 'money:read' },
+  { to: '/chasing', label: 'Chasing payment', icon: 'quotes', permission: 'money:read' },
   { to: '/purchases', label: 'Purchases and receipts', icon: 'quotes', permission: 'money:read' },
   { to: '/quarter', label: 'The quarter: VAT and exports', icon: 'quotes', permission: 'money:read' },
   { to: '/cis', label: 'CIS deducted', icon: 'quotes', permission: 'money:read' },
@@ -29,7 +29,7 @@ export const MONEY_ITEMS: NavItem[] = [
 /** What Settings holds, by permission. */
 export const SETTINGS_ITEMS: NavItem[] = [
   { to: '/firm', label: 'Firm', icon: 'firm', permission: 'firm:manage' },
-  { to: '/price-book', label: 'Price book', icon: 'quotes', permission: 'money:read' },
+  { to: '/rates', label: 'Rates and rules', icon: 'quotes', permission: 'money:read' },
   { to: '/materials', label: 'Materials', icon: 'quotes', permission: 'money:read' },
   { to: '/team', label: 'Team', icon: 'team', permission: 'team:manage' },
   { to: '/account', label: 'Your account', icon: 'account' },

@@ -42,7 +42,7 @@ export async function calendarFor(token: string): Promise<string> {
       },
       gone: () => { throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This calendar link is not right or has been reset. Get the new one from Setwell, under Your account.' } }) },
     })
-    const [firm] = await tx.select({ tradingName: firms.tradingName }).from(firms).where(eq(firms.id, feed.firmId))
+    const [firm] = await tx.select({ tradingName: firms.tradingName, letters: firms.referenceLetters }).from(firms).where(eq(firms.id, feed.firmId))
     const rows = await tx.select({
       id: jobDays.id, day: jobDays.day, portion: jobDays.portion, number: jobs.number, title: jobs.title, status: jobs.status,
       customer: customers.name, line1: sites.line1, town: sites.town, postcode: sites.postcode, access: sites.accessNotes, updatedAt: jobDays.updatedAt,
@@ -60,7 +60,7 @@ export async function calendarFor(token: string): Promise<string> {
         start,
         startInputType: 'local',
         end: [next.getUTCFullYear(), next.getUTCMonth() + 1, next.getUTCDate()],
-        title: `${jobReference(r.number)} ${r.customer}${r.portion === 'half-day' ? ' (half day)' : ''}`,
+        title: `${jobReference(firm?.letters || firmLetters(firm?.tradingName ?? ''), r.number)} ${r.customer}${r.portion === 'half-day' ? ' (half day)' : ''}`,
         description: [r.title, r.access ? `Access: ${r.access}` : ''].filter(Boolean).join('\n'),
         location: [r.line1, r.town, r.postcode].filter(Boolean).join(', '),
         status: 'CONFIRMED',

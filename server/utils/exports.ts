@@ -15,6 +15,7 @@ import type { Period } from './quarter'
 import { periodQuery } from '#shared/schemas/quarter'
 import { type CsvCell, poundsCell, toCsv, UTF8_BOM } from '#shared/utils/csv'
 import { INVOICE_KIND_LABELS, PAYMENT_METHOD_LABELS } from '#shared/utils/invoices'
+import { longDate } from '#shared/utils/dates'
 import { CUSTOMER_KIND_LABELS } from '#shared/utils/ledger'
 import { formatQuantity } from '#shared/utils/quantity'
 import { lineNetPence } from '#shared/utils/tax'
@@ -106,13 +107,14 @@ function issuedInvoices(f: FirmScope, period: Period) {
 const invoicesSource: Source = {
   header: INVOICE_HEADER,
   async* batches(f, period) {
+    const letters = await referenceLettersOf(f)
     for await (const rows of issuedInvoices(f, period)) {
       yield rows.map((r) => {
         const s = signOf(r.kind)
         const t = r.totals
         return [
           r.reference, INVOICE_KIND_LABELS[r.kind], r.issuedOn, r.dueOn ?? '', r.customer, CUSTOMER_KIND_LABELS[r.customerKind], r.credits ?? '',
-          r.jobNumber ? jobReference(r.jobNumber) : '', VAT_WORDS[r.vat] ?? r.vat, r.cisRatePercent ?? '',
+          r.jobNumber ? jobReference(letters, r.jobNumber) : '', VAT_WORDS[r.vat] ?? r.vat, r.cisRatePercent ?? '',
           pounds(num(t.labourNetPence), s), pounds(num(t.materialsNetPence), s), pounds(num(t.netPence), s), pounds(num(t.vatPence), s),
           pounds(num(t.reverseChargeVatPence), s), pounds(num(t.grossPence), s), pounds(num(t.cisDeductionPence), s), pounds(r.amountDuePence, s),
           r.kind === 'credit-note' ? '' : pounds(num(r.paidPence)),
@@ -167,7 +169,9 @@ const purchasesSource: Source = {
   header: ['Bought on', 'Supplier', 'Category', 'Reference', 'Net (pounds)', 'VAT (pounds)', 'Gross (pounds)', 'Jobs', 'Receipt kept', 'Notes'],
   async* batches(f, period) {
     type After = { boughtOn: string, id: string }
-    const split = sql<string>`coalesce((select string_agg('J-' || lpad(j.number::text, 4, '0') || ' ' || to_char(pj.net_pence / 100.0, 'FM999999990.00'), '; ' order by j.number) from purchase_jobs pj join jobs j on j.firm_id = pj.firm_id and j.id = pj.job_id where pj.firm_id = "purchases"."firm_id" and pj.purchase_id = "purchases"."id"), '')`
+    // each job's reference as shared/utils/references.ts makes it: the firm's job prefix (BP-J) then the number
+    const jobsPrefix = jobPrefix(await referenceLettersOf(f))
+    const split = sql<string>`coalesce((select string_agg(${jobsPrefix}::text || j.number::text || ' ' || to_char(pj.net_pence / 100.0, 'FM999999990.00'), '; ' order by j.number) from purchase_jobs pj join jobs j on j.firm_id = pj.firm_id and j.id = pj.job_id where pj.firm_id = "purchases"."firm_id" and pj.purchase_id = "purchases"."id"), '')`
     // qualified by hand: drizzle leaves a one-table select's columns unqualified inside sql``
     const kept = sql<boolean>`exists (select 1 from documents d where d.firm_id = "purchases"."firm_id" and d.purchase_id = "purchases"."id")`
     const page = (after: After | null) => f.tx.select({ id: purchases.id, boughtOn: purchases.boughtOn, supplier: purchases.supplier, category: purchases.category, reference: purchases.reference, netPence: purchases.netPence, vatPence: purchases.vatPence, notes: purchases.notes, jobs: split, kept })
@@ -333,7 +337,7 @@ async function writeCsv(event: H3Event, auth: { firmId: string, userId: string }
 }
 
 export const PACK_NOTE = (period: Period) => [
-  `Setwell: the quarter-end pack for ${period.start} to ${period.end}.`,
+  `Setwell: the quarter-end pack for ${longDate(period.start)} to ${longDate(period.end)}.`,
   '',
   ...EXPORT_KINDS.map(k => `setwell-${k}-${period.start}-to-${period.end}.csv: ${EXPORT_LABELS[k]}.`),
   '',

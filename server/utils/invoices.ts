@@ -71,7 +71,7 @@ export async function invoiceDetail(f: FirmScope, id: string) {
     ...rest,
     customer: customer ?? null,
     site: site ?? null,
-    job: job ? { id: job.id, reference: jobReference(job.number), status: job.status } : null,
+    job: job ? { id: job.id, reference: jobReference(await referenceLettersOf(f), job.number), status: job.status } : null,
     lines,
     payments: paymentRows,
     creditNotes,
@@ -139,7 +139,7 @@ export async function assertWithinJobPrice(f: FirmScope, jobId: string) {
   const total = claimed.labourNetPence + claimed.materialsNetPence
   if (total > priceOf(job)) {
     throw createError({ statusCode: 409, statusMessage: 'More than the price', data: {
-      message: `The invoices for ${jobReference(job.number)} would come to ${formatPence(total)} before VAT, more than its price of ${formatPence(priceOf(job))}. Tick "Extra work" on the lines for work beyond the price, or lower the amounts.`,
+      message: `The invoices for ${jobReference(await referenceLettersOf(f), job.number)} would come to ${formatPence(total)} before VAT, more than its price of ${formatPence(priceOf(job))}. Tick "Extra work" on the lines for work beyond the price, or lower the amounts.`,
     } })
   }
 }
@@ -206,7 +206,7 @@ export async function createDraft(f: FirmScope, input: { kind: Exclude<InvoiceKi
     if (job.status === 'cancelled') throw createError({ statusCode: 409, statusMessage: 'Job cancelled', data: { message: 'The job is cancelled: nothing to invoice.' } })
     customerId = job.customerId
     siteId = job.siteId
-    const price = { reference: jobReference(job.number), labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence }
+    const price = { reference: jobReference(await referenceLettersOf(f), job.number), labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence }
     if (input.kind === 'final') {
       fromQuote = await finalFromAcceptedQuote(f, job)
       lines = fromQuote?.lines ?? finalLines(price, await invoicedForJob(f, job.id))
@@ -281,7 +281,8 @@ export async function issueInvoice(f: FirmScope, id: string) {
   }
   const series = inv.kind === 'credit-note' && firm!.creditNoteNumbering === 'own' ? 'credit-note' as const : 'invoice' as const
   const number = await nextInvoiceNumber(f, series)
-  const prefix = series === 'credit-note' ? firm!.creditNotePrefix : firm!.invoicePrefix
+  const letters = firm!.referenceLetters || firmLetters(firm!.tradingName)
+  const prefix = series === 'credit-note' ? creditNotePrefixOf(letters, firm!.creditNotePrefix) : invoicePrefixOf(letters, firm!.invoicePrefix)
   const reference = invoiceReference(prefix, number)
   const issuedOn = todayIso()
   const token = newToken()

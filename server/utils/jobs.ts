@@ -64,7 +64,7 @@ export async function jobFromQuote(f: FirmScope, quoteId: string) {
   const number = await nextJobNumber(f)
   const [job] = await f.tx.insert(jobs).values(f.values({
     number,
-    title: `${quoteReference(quote.number)}: ${description}`.slice(0, 200),
+    title: `${quoteReference(await referenceLettersOf(f), quote.number)}: ${description}`.slice(0, 200),
     customerId: quote.customerId,
     siteId: quote.siteId,
     quoteId: quote.id,
@@ -189,7 +189,7 @@ export async function jobDetail(f: FirmScope, auth: FirmContext, id: string) {
   const { labourNetPence, materialsNetPence, netPence, grossPence, materialsEstimate, ...rest } = job
   return {
     ...rest,
-    reference: jobReference(job.number),
+    reference: jobReference(await referenceLettersOf(f), job.number),
     customer: customer ?? null,
     site: site ?? null,
     days,

@@ -144,6 +144,7 @@ export async function profitTable(f: FirmScope, q: { from: string, to: string, c
     for (const r of uses) logged.set(r.jobId, Number(r.pence))
   }
 
+  const letters = await referenceLettersOf(f)
   const rows: ProfitRow[] = picked.map((j) => {
     const c = costs.get(j.id) ?? { materials: 0, hasMaterials: false, labour: 0, other: 0 }
     const fromLog = logged.get(j.id)
@@ -157,7 +158,7 @@ export async function profitTable(f: FirmScope, q: { from: string, to: string, c
     const daysWorked = halfDaysWorked / 2
     const profit = jobProfit({ priceNetPence, materialsPence, otherCostsPence: c.other, labourPaidPence: c.labour, daysWorked, targetDayRatePence })
     return {
-      jobId: j.id, reference: jobReference(j.number), title: j.title, status: j.status,
+      jobId: j.id, reference: jobReference(letters, j.number), title: j.title, status: j.status,
       customerId: j.customerId, customerName: j.customerName, customerKind: j.customerKind,
       firstDay: j.firstDay, lastDay: j.lastDay,
       priceNetPence, priceFrom, materialsPence, materialsFrom, otherCostsPence: c.other, labourPaidPence: c.labour,
@@ -190,7 +191,7 @@ export async function profitTable(f: FirmScope, q: { from: string, to: string, c
 export const PROFIT_CSV_HEADER = [
   'Job', 'Job title', 'Customer', 'Customer kind', 'First day worked', 'Last day worked', 'Days worked',
   'Price net (pounds)', 'Price from', 'Materials (pounds)', 'Materials from', 'Other costs (pounds)',
-  'Labour paid to others (pounds)', 'Left after costs (pounds)', 'Effective day rate (pounds)',
+  'Labour paid to others (pounds)', 'Left after costs (pounds)', 'Day rate earned (pounds)',
   'Target day rate (pounds)', 'Target price (pounds)', 'Difference from target price (pounds)', 'Margin (percent)',
 ] as const
 

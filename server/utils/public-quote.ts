@@ -34,7 +34,7 @@ export async function publicQuoteView(f: FirmScope, quote: typeof quotes.$inferS
   const [site] = quote.siteId ? await f.tx.select({ line1: sites.line1, town: sites.town, postcode: sites.postcode }).from(sites).where(f.where(sites, eq(sites.id, quote.siteId))) : []
   const lines = customerLinesOrWorking(version, await versionLines(f, version.id)).lines
   return {
-    reference: quoteReference(quote.number),
+    reference: quoteReference(await referenceLettersOf(f), quote.number),
     version: version.version,
     status: version.status,
     firm: firm!,

@@ -22,7 +22,8 @@ export async function purchaseDetail(f: FirmScope, id: string) {
   const split = await f.tx.select({ jobId: purchaseJobs.jobId, netPence: purchaseJobs.netPence, number: jobs.number })
     .from(purchaseJobs).innerJoin(jobs, and(eq(jobs.firmId, purchaseJobs.firmId), eq(jobs.id, purchaseJobs.jobId)))
     .where(f.where(purchaseJobs, eq(purchaseJobs.purchaseId, id))).orderBy(asc(jobs.number))
-  return { ...p, jobs: split.map(s => ({ jobId: s.jobId, netPence: s.netPence, reference: jobReference(s.number) })), documents: await documentsOf(f, { purchaseId: id }) }
+  const letters = await referenceLettersOf(f)
+  return { ...p, jobs: split.map(s => ({ jobId: s.jobId, netPence: s.netPence, reference: jobReference(letters, s.number) })), documents: await documentsOf(f, { purchaseId: id }) }
 }
 
 export async function listPurchases(f: FirmScope, q: { from?: string, to?: string, jobId?: string }) {

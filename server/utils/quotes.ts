@@ -52,7 +52,7 @@ export async function quoteDetail(f: FirmScope, id: string) {
   const [job] = await f.tx.select({ id: jobs.id, number: jobs.number }).from(jobs).where(f.where(jobs, eq(jobs.quoteId, id)))
   const [firm] = await f.tx.select({ tradingName: firms.tradingName, invoicePrefix: firms.invoicePrefix, dayRatePence: firms.dayRatePence }).from(firms).where(eq(firms.id, f.firmId))
   return {
-    ...quote, reference: quoteReference(quote.number), job: job ? { id: job.id, reference: jobReference(job.number) } : null, firmName: firm?.tradingName ?? '', firmDayRatePence: firm?.dayRatePence ?? 0, customer, versions,
+    ...quote, reference: quoteReference(await referenceLettersOf(f), quote.number), job: job ? { id: job.id, reference: jobReference(await referenceLettersOf(f), job.number) } : null, firmName: firm?.tradingName ?? '', firmDayRatePence: firm?.dayRatePence ?? 0, customer, versions,
     current: { ...publicVersion, lines, customerLines: priced.lines, pricingProblem: priced.problem },
   }
 }

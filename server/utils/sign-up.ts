@@ -7,7 +7,7 @@ import type { H3Event } from 'h3'
 import { randomUUID } from 'node:crypto'
 import { and, eq, gt, isNull, lt, sql } from 'drizzle-orm'
 import { firms, memberships, pendingSignUps, users } from '../db/schema'
-import { addFirmDefaults } from '../db/firm-defaults'
+import { addFirmDefaults, referenceDefaults } from '../db/firm-defaults'
 import type { SignUpInput } from '#shared/schemas/auth'
 import { daysBefore } from '#shared/utils/dates'
 
@@ -99,7 +99,7 @@ export async function confirmSignUp(event: H3Event, token: string) {
       const [user] = await tx.insert(users).values({ email: pending.email, name: pending.name, passwordHash: pending.passwordHash }).returning({ id: users.id })
       await scopeTransaction(tx, firmId, user!.id)
       const f = new FirmScope(tx, firmId, user!.id)
-      await tx.insert(firms).values({ id: firmId, tradingName: pending.firmName })
+      await tx.insert(firms).values({ id: firmId, tradingName: pending.firmName, ...referenceDefaults(pending.firmName) })
       await tx.insert(memberships).values(f.values({ userId: user!.id, role: 'owner' as const }))
       // the price book, materials, reminders and Bank Rate a firm starts with: made now, never on a read
       await addFirmDefaults(tx, firmId, user!.id)

@@ -45,6 +45,12 @@ export function canMoveEnquiry(from: EnquiryStatus, to: EnquiryStatus): boolean 
 
 export const VISIT_STATUSES = ['booked', 'done', 'cancelled'] as const
 export type VisitStatus = (typeof VISIT_STATUSES)[number]
+/** A visit's status in words, as people read it (never the code). */
+export const VISIT_STATUS_LABELS: Record<VisitStatus, string> = {
+  booked: 'Booked',
+  done: 'Done',
+  cancelled: 'Cancelled',
+}
 
 export const SURFACE_KINDS = ['wall', 'ceiling', 'chimney-breast', 'reveal', 'strip'] as const
 export type SurfaceKind = (typeof SURFACE_KINDS)[number]
@@ -95,7 +101,7 @@ export const CORNER_KINDS = ['internal', 'external'] as const
 export type CornerKind = (typeof CORNER_KINDS)[number]
 
 /** Shown wherever a textured coating is recorded. */
-export const ASBESTOS_CAUTION = 'Old textured coatings can contain asbestos. Have it tested by a licensed surveyor before it is sanded, scraped or drilled, and follow their advice.'
+export const ASBESTOS_CAUTION = 'Old textured coatings can contain asbestos. Have a sample tested by an accredited surveyor or laboratory before it is sanded, scraped or drilled, and follow their advice; licensable asbestos is removed only by a licensed contractor (HSE guidance).'
 
 /** What can name a customer or a site, in the order a removal that is refused lists it. */
 export const HOLDING_WORK = ['invoices', 'creditNotes', 'jobs', 'quotes', 'visits', 'enquiries', 'cisStatements'] as const

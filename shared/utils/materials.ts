@@ -78,7 +78,9 @@ export interface Material {
   source: string
 }
 
-const DEMO = 'Demo price (invented): enter your supplier\'s price.'
+/** Said of every starting price (they are invented): the firm enters its supplier's. */
+export const STARTING_PRICE = 'The price is a starting figure: set your own from your supplier.'
+const DEMO = STARTING_PRICE
 
 /**
  * Generic starting catalogue (no brands). Coverage from ../shared/DOMAIN.md; prices are invented
@@ -108,7 +110,7 @@ export const DEFAULT_MATERIALS: readonly Material[] = [
   {
     key: 'scrim-tape', type: 'scrim', name: 'Scrim tape', packLabel: '90 m roll',
     coverage: { kind: 'length', metresPerPack: 90 }, costPence: 400,
-    source: `From memory (unverified): a roll of scrim tape is about 90 m. ${DEMO}`,
+    source: `A roll of scrim tape is usually about 90 m: check the rolls you buy. ${DEMO}`,
   },
 ]
 

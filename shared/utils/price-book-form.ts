@@ -32,8 +32,8 @@ export const PRICE_BOOK_TAKE_OFF = [
 /** The site rules, each hint saying where the figure comes from. */
 export const PRICE_BOOK_SITE_RULES = [
   { key: 'drySkimDays', label: 'Days after a skim before decorating', hint: 'Common practice: about a week (7). A rule of thumb: drying varies' },
-  { key: 'dryUndercoatDays', label: 'Days after undercoat or filling, when it is the last coat', hint: 'Longer than a skim; 14 is from memory, not a published figure' },
-  { key: 'dryColdOrDampExtraDays', label: 'Extra days when the room is cold or damp', hint: 'More in cold or damp rooms (common practice); 7 is from memory' },
+  { key: 'dryUndercoatDays', label: 'Days after undercoat or filling, when it is the last coat', hint: 'Longer than a skim; 14 is a starting figure: set your own' },
+  { key: 'dryColdOrDampExtraDays', label: 'Extra days when the room is cold or damp', hint: 'More in cold or damp rooms (common practice); 7 is a starting figure: set your own' },
   { key: 'cornerTrowelMm', label: 'Your corner trowel\'s width (mm)', hint: 'A return narrower than this makes a difficult corner' },
   { key: 'outOfTrueToleranceMm', label: 'Out of true by more than this makes a difficult corner (mm)', hint: '' },
   { key: 'bagsPerPersonPerSet', label: 'Bags one person lays on and trowels up in a set', hint: 'Starts each new job\'s plan' },

@@ -74,7 +74,7 @@ export function draftLines(takeoff: readonly TakeoffLine[], book: DraftPriceBook
       unitPence,
       vatRatePercent: 20,
       derivation: price.unset && unitPence === 0
-        ? `${line.derivation}. No rate for ${price.unset} is set in the price book: enter the price here`
+        ? `${line.derivation}. No rate for ${price.unset} is set in Rates and rules: enter the price here`
         : line.derivation,
     })
   }
@@ -107,6 +107,6 @@ export function makingGoodLine(item: MakingGoodItem): DraftLine {
     unit: item.unit,
     unitPence: item.pricePence,
     vatRatePercent: 20,
-    derivation: `Making good from the price book: ${formatPence(item.pricePence)} per ${item.unit}`,
+    derivation: `Making good from Rates and rules: ${formatPence(item.pricePence)} per ${item.unit}`,
   }
 }

@@ -3,10 +3,10 @@ import type { VisitStatus } from './ledger'
 import { isStillToDo } from './visit-status'
 
 /** A booked day as the diary sends it (the parts Today reads). */
-export interface WeekEntry { jobId: string, number: number, customer: string, day: string, person: string }
+export interface WeekEntry { jobId: string, reference: string, customer: string, day: string, person: string }
 
 /** A job booked this week: the days it is booked on (in the diary's order, once each) and who is on it. */
-export interface WeekJob { jobId: string, number: number, customer: string, days: string[], people: string[] }
+export interface WeekJob { jobId: string, reference: string, customer: string, days: string[], people: string[] }
 
 /**
  * The week's booked days gathered by job, in the order each job first appears (the diary sends
@@ -15,7 +15,7 @@ export interface WeekJob { jobId: string, number: number, customer: string, days
 export function jobsOfTheWeek(entries: readonly WeekEntry[]): WeekJob[] {
   const byJob = new Map<string, WeekJob>()
   for (const e of entries) {
-    const j = byJob.get(e.jobId) ?? { jobId: e.jobId, number: e.number, customer: e.customer, days: [], people: [] }
+    const j = byJob.get(e.jobId) ?? { jobId: e.jobId, reference: e.reference, customer: e.customer, days: [], people: [] }
     if (!j.days.includes(e.day)) j.days.push(e.day)
     if (!j.people.includes(e.person)) j.people.push(e.person)
     byJob.set(e.jobId, j)

@@ -124,7 +124,8 @@ describe('drafting and issuing', () => {
     const numbers = results.map(r => r.body.number).sort((a, b) => a - b)
     expect(numbers).toEqual(Array.from({ length: 50 }, (_, i) => before + i + 1))
     expect(new Set(results.map(r => r.body.reference)).size).toBe(50)
-    expect(results[0]!.body.reference).toMatch(/^INV-\d{4}$/)
+    // the firm's letters (Invoice Firm: IF) and a dash, the number unpadded
+    expect(results[0]!.body.reference).toMatch(/^IF-[1-9]\d*$/)
   })
 
   it('never changes or deletes an issued invoice; a credit note corrects it, numbered on its own', async () => {
@@ -139,7 +140,7 @@ describe('drafting and issuing', () => {
     expect(note.body).toMatchObject({ kind: 'credit-note', creditsInvoiceId: invoice.id, amountDuePence: invoice.amountDuePence })
     const issuedNote = await owner.post(`/api/invoices/${note.body.id}/issue`)
     expect(issuedNote.status).toBe(200)
-    expect(issuedNote.body.reference).toMatch(/^CN-\d{4}$/)
+    expect(issuedNote.body.reference).toMatch(/^IF-C[1-9]\d*$/)
     expect((await owner.get(`/api/invoices/${invoice.id}`)).body.status).toBe('credited')
     expect((await owner.post(`/api/invoices/${note.body.id}/credit-note`)).status).toBe(409)
   })
@@ -181,7 +182,7 @@ describe('sending an invoice again', () => {
       await client.put(`/api/invoices/${d.id}/draft`, { vat: d.vat, lines: [{ kind: 'labour', description: 'Skim the box room', quantityX1000: 1000, unitPence: 150_00 }] })
       const res = await client.post(`/api/invoices/${d.id}/issue`)
       expect(res.status, JSON.stringify(res.body)).toBe(200)
-      expect(res.body).toMatchObject({ status: 'issued', reference: expect.stringMatching(/^INV-\d{4}$/) })
+      expect(res.body).toMatchObject({ status: 'issued', reference: expect.stringMatching(/^NPP-[1-9]\d*$/) })
       expect(res.body.warning).toMatch(/issued, but the e-mail did not go/i)
       expect((await client.get(`/api/invoices/${d.id}`)).body.issuedOn).toBeTruthy()
       const again = await client.post(`/api/invoices/${d.id}/resend`)
@@ -453,7 +454,7 @@ describe('the PDF of an invoice', () => {
   it('carries the VAT invoice fields, the reverse-charge wording and the CIS figures', async () => {
     const firm = (await owner.get('/api/firm')).body
     const { id: _i, createdAt: _c, updatedAt: _u, enquiryFormKey: _k, ...fields } = firm
-    const patched = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankDetails: 'Invoice Firm, sort code 00-00-00, account 00000000' })
+    const patched = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankAccountName: 'Invoice Firm', bankSortCode: '00-00-00', bankAccountNumber: '00000000' })
     expect(patched.status, JSON.stringify(patched.body)).toBe(200)
     // the firm's bank account (invented), in its three parts, printed when the firm takes transfers
     await queryAsFirm(requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL'), firmId, `update firms set takes_transfer = true, bank_account_name = 'Invoice Firm', bank_sort_code = '000000', bank_account_number = '00000000' where id = $1`, [firmId])
@@ -484,7 +485,7 @@ describe('the PDF of an invoice', () => {
     // issued means frozen: renaming the firm and moving the customer change neither the PDF nor the customer's view
     const custFields = { kind: 'builder', name: 'Łukasz Quarry Builds Ltd', email: c.email, billingLine1: '9 Kiln Lane', billingTown: 'Kettlebury', billingPostcode: 'KB3 4CD', vatRegistered: true, vatNumber: 'GB999999973', paysUnderCis: true, cisRatePercent: 20 }
     expect((await owner.patch(`/api/customers/${c.id}`, { ...custFields, billingLine1: '77 New Road', billingPostcode: 'KB7 7ZZ' })).status).toBe(200)
-    const renamed = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankDetails: 'Sort code 00-00-00, account 00000000', tradingName: 'Renamed Plastering Co' })
+    const renamed = await owner.patch('/api/firm', { ...fields, vatRegistered: true, vatNumber: 'GB 999 9999 73', addressLine1: '2 Lime Walk', town: 'Kettlebury', postcode: 'KB9 1AA', bankAccountName: 'Invoice Firm', bankSortCode: '00-00-00', bankAccountNumber: '00000000', tradingName: 'Renamed Plastering Co' })
     expect(renamed.status, JSON.stringify(renamed.body)).toBe(200)
     const pdfText = async () => {
       const r = await fetch(`${app.url}/invoices/${draft.id}/pdf`, { headers: { cookie: owner.cookieHeader() } })

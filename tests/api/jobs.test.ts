@@ -87,7 +87,7 @@ async function acceptedQuote() {
   const { customer: c, visit: v, wallA, wallB, ceiling } = await measuredVisit(owner, email)
   const q = (await owner.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
   expect((await owner.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
   expect((await new Client(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Noor Halloran' })).status).toBe(200)
   return { quoteId: q.id as string, customer: c, visit: v, wallA, wallB, ceiling }
@@ -98,7 +98,8 @@ describe('jobs', () => {
     const { quoteId, wallA, wallB } = await acceptedQuote()
     const made = await owner.post(`/api/quotes/${quoteId}/job`)
     expect(made.status, JSON.stringify(made.body)).toBe(201)
-    expect(made.body.reference).toMatch(/^J-\d{4}$/)
+    // the firm's letters (Job Firm: JF), J for a job, the number unpadded
+    expect(made.body.reference).toMatch(/^JF-J[1-9]\d*$/)
     expect((await owner.post(`/api/quotes/${quoteId}/job`)).status).toBe(409)
     const quote = (await owner.get(`/api/quotes/${quoteId}`)).body
     expect(quote.job).toEqual({ id: made.body.id, reference: made.body.reference })
@@ -233,7 +234,7 @@ describe('days, crew and the set log', () => {
     // ready to decorate: not while any surface waits for its final (second) skim coat; set 1 was logged as a first coat
     expect(full.ready).toEqual([{ room: 'Back bedroom', from: null, skimmed: 0, surfaces: 3 }])
     expect(full.dryingCaution).toMatch(/not a promise/)
-    expect(full.dryingCaution).toMatch(/local building regulations and licensed practice/)
+    expect(full.dryingCaution).toMatch(/the Building Regulations where they apply and good trade practice/)
     // set 1 again as its second coat: only the surfaces set 1 skims are finished, not a wall it only fills
     const set1Skims = set1.tasks.filter((t: any) => t.action === 'skim').map((t: any) => t.surfaceId)
     const second = await crew.post(`/api/jobs/${id}/logs`, { kind: 'set', setNumber: 1, coat: 'second', surfaceIds: set1.tasks.map((t: any) => t.surfaceId), startedAt: '2026-06-01T10:30:00Z', endedAt: '2026-06-01T11:15:00Z' })

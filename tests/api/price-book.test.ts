@@ -27,6 +27,15 @@ async function currentBook(who = owner) {
 
 const NEW_FIGURES = ['packedBeadPerLmPence', 'narrowReturnPerLmPence', 'ceilingsFirst', 'quoteWorkPage', 'mixMinutes', 'goOffMinutes', 'dayStartMinutes', 'dayEndMinutes'] as const
 
+describe('Rates and rules: the section once called the price book', () => {
+  it('sends the old /price-book address to /rates', async () => {
+    const res = await owner.get('/price-book')
+    expect(res.status).toBe(301)
+    expect(new URL(res.headers.get('location')!, app.url).pathname).toBe('/rates')
+    expect((await owner.get('/rates')).status).toBe(200)
+  })
+})
+
 describe('the price book: corner rates, ceilings first and the day\'s timeline', () => {
   it('a new firm starts with the defaults, and the owner\'s figures come back as saved', async () => {
     const fresh = (await signUpFirm(app.url, 'Fresh Book Firm')).client
@@ -145,8 +154,8 @@ describe('the corner work on a quote drafted from a measured visit', () => {
     expect((await owner.put('/api/price-book', { ...(await currentBook()), packedBeadPerLmPence: 0, narrowReturnPerLmPence: 0 })).status).toBe(200)
     const lines = corner((await draft()).lines)
     expect(lines.map(l => [l.description, l.unitPence])).toEqual([['Pack out beads: Box room', 0], ['Make good narrow returns: Box room', 0]])
-    expect(lines[0]!.derivation).toMatch(/No rate for packing out a bead is set in the price book/)
-    expect(lines[1]!.derivation).toMatch(/No rate for making good a narrow return is set in the price book/)
+    expect(lines[0]!.derivation).toMatch(/No rate for packing out a bead is set in Rates and rules/)
+    expect(lines[1]!.derivation).toMatch(/No rate for making good a narrow return is set in Rates and rules/)
   })
 
   it('reads the firm\'s corner trowel: with a 70 mm trowel the 80 mm return is not narrow', async () => {

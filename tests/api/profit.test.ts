@@ -95,7 +95,7 @@ async function jobFromAcceptedQuote(client: Client) {
   expect(room.status, JSON.stringify(room.body)).toBe(200)
   const q = (await client.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
   expect((await client.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
   expect((await new Client(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Noor Halloran' })).status).toBe(200)
   const made = await client.post(`/api/quotes/${q.id}/job`)
@@ -292,7 +292,7 @@ describe('the profit table', () => {
     const bytes = new Uint8Array(await res.arrayBuffer())
     expect([...bytes.slice(0, 3)]).toEqual([0xEF, 0xBB, 0xBF])
     const text = new TextDecoder('utf-8', { ignoreBOM: true }).decode(bytes)
-    expect(text.split('\r\n')[0]).toBe('\uFEFFJob,Job title,Customer,Customer kind,First day worked,Last day worked,Days worked,Price net (pounds),Price from,Materials (pounds),Materials from,Other costs (pounds),Labour paid to others (pounds),Left after costs (pounds),Effective day rate (pounds),Target day rate (pounds),Target price (pounds),Difference from target price (pounds),Margin (percent)')
+    expect(text.split('\r\n')[0]).toBe('\uFEFFJob,Job title,Customer,Customer kind,First day worked,Last day worked,Days worked,Price net (pounds),Price from,Materials (pounds),Materials from,Other costs (pounds),Labour paid to others (pounds),Left after costs (pounds),Day rate earned (pounds),Target day rate (pounds),Target price (pounds),Difference from target price (pounds),Margin (percent)')
     const records = parse(text, { columns: true, bom: true, skip_empty_lines: true }) as Record<string, string>[]
     const pounds = (p: number | null) => (p === null ? '' : penceToDecimal(p))
     expect(records).toEqual(json.rows.map((r: any) => ({
@@ -311,14 +311,14 @@ describe('the profit table', () => {
       'Other costs (pounds)': pounds(r.otherCostsPence),
       'Labour paid to others (pounds)': pounds(r.labourPaidPence),
       'Left after costs (pounds)': pounds(r.contributionPence),
-      'Effective day rate (pounds)': pounds(r.effectiveDayRatePence),
+      'Day rate earned (pounds)': pounds(r.effectiveDayRatePence),
       'Target day rate (pounds)': '200.00',
       'Target price (pounds)': pounds(r.targetPricePence),
       'Difference from target price (pounds)': pounds(r.differencePence),
       'Margin (percent)': r.marginPercent === null ? '' : r.marginPercent.toFixed(1),
     })))
     // the hand-checked row, as the accountant reads it
-    expect(records[0]).toMatchObject({ 'Price net (pounds)': '600.00', 'Materials (pounds)': '120.00', 'Days worked': '1.5', 'Effective day rate (pounds)': '251.67', 'Difference from target price (pounds)': '77.50', 'Margin (percent)': '62.9' })
+    expect(records[0]).toMatchObject({ 'Price net (pounds)': '600.00', 'Materials (pounds)': '120.00', 'Days worked': '1.5', 'Day rate earned (pounds)': '251.67', 'Difference from target price (pounds)': '77.50', 'Margin (percent)': '62.9' })
     expect(records[1]!['Difference from target price (pounds)']).toBe('-200.00')
   })
 

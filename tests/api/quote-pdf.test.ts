@@ -52,7 +52,7 @@ async function measuredQuote(customer: Record<string, unknown>) {
 async function send(id: string, email: string) {
   const sent = await owner.post(`/api/quotes/${id}/send`)
   expect(sent.status, JSON.stringify(sent.body)).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   return /\/q\/([\w-]+)/.exec(mail.text!)![1]!
 }
 

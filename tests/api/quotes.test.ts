@@ -59,7 +59,8 @@ describe('quotes', () => {
     const res = await owner.post('/api/quotes', { customerId: customer.id, siteId: customer.sites[0].id, enquiryId: enquiry.id, visitId: visit.id })
     expect(res.status, JSON.stringify(res.body)).toBe(201)
     const q = (await owner.get(`/api/quotes/${res.body.id}`)).body
-    expect(q.reference).toMatch(/^Q-\d{4}$/)
+    // the firm's letters (Quote Firm: QF), Q for a quote, the number unpadded
+    expect(q.reference).toMatch(/^QF-Q[1-9]\d*$/)
     expect(q.current).toMatchObject({ version: 1, status: 'draft', vat: 'not-registered' })
     const walls = q.current.lines.find((l: any) => l.description.startsWith('Skim walls'))
     const ceilings = q.current.lines.find((l: any) => l.description.startsWith('Skim ceilings'))
@@ -94,7 +95,7 @@ describe('quotes', () => {
     expect(sent.body.current.status).toBe('sent')
     expect(sent.body.current).not.toHaveProperty('tokenHash')
     expect((await owner.get(`/api/enquiries/${enquiry.id}`)).body.status).toBe('quoted')
-    const mail = await app.waitForMail(customer.email, /Your quote Q-/)
+    const mail = await app.waitForMail(customer.email, /Your quote [A-Z]+-Q[1-9]/)
     expect(mail.text).toMatch(/\/q\/[\w-]{40,}/)
 
     const q = (await owner.get(`/api/quotes/${id}`)).body
@@ -246,7 +247,7 @@ describe('pricing by days and at a fixed price', () => {
     expect(res.body.current.totals).toMatchObject({ netPence: 500_00, materialsNetPence: materialsNet, labourNetPence: 500_00 - materialsNet })
     // the customer's link and PDF show the priced lines, not the working
     await owner.post(`/api/quotes/${id}/send`)
-    const mail = await app.waitForMail(q.customer.email, /Your quote Q-/)
+    const mail = await app.waitForMail(q.customer.email, /Your quote [A-Z]+-Q[1-9]/)
     const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
     const view = (await new Client(app.url).get(`/api/public/quotes/${token}`)).body
     expect(view.lines.filter((l: any) => l.kind === 'labour')).toEqual([expect.objectContaining({ description: 'Labour, at the fixed price', unitPence: 500_00 - materialsNet })])
@@ -259,7 +260,7 @@ describe('the customer\'s link', () => {
     const { customer, enquiry, visit } = await customerWithVisit(uniqueEmail('cust'), name)
     const { id } = (await owner.post('/api/quotes', { customerId: customer.id, enquiryId: enquiry.id, visitId: visit.id })).body
     await owner.post(`/api/quotes/${id}/send`)
-    const mail = await app.waitForMail(customer.email, /Your quote Q-/)
+    const mail = await app.waitForMail(customer.email, /Your quote [A-Z]+-Q[1-9]/)
     const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
     return { id, token, customer, enquiry }
   }

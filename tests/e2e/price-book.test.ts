@@ -7,23 +7,23 @@ import { OWNER } from './demo'
 
 const e2e = useE2E()
 
-describe('the price book', () => {
+describe('rates and rules (the price book inside)', () => {
   it('changes a rate, and refuses a bad one beside its field', async () => {
     const person = await e2e.open()
     const { page } = person
     await signInToDashboard(page, e2e.url, OWNER.email, OWNER.password)
     await visit(page, `${e2e.url}/settings`)
-    await page.getByRole('main').getByRole('link', { name: 'Price book' }).click()
-    await expectVisible(page.getByRole('heading', { name: 'Price book' }))
+    await page.getByRole('main').getByRole('link', { name: 'Rates and rules' }).click()
+    await expectVisible(page.getByRole('heading', { name: 'Rates and rules' }))
 
     await page.getByLabel('Skim ceilings, per m²').fill('twenty')
     await page.getByLabel('Skim walls, per m²').fill('19.50')
-    await page.getByRole('button', { name: 'Save price book' }).click()
+    await page.getByRole('button', { name: 'Save rates and rules' }).click()
     await expectText(page.getByRole('alert').filter({ hasText: 'pounds' }), 'Enter a price in pounds, like 18.00.')
     expect(await page.getByLabel('Skim walls, per m²').inputValue()).toBe('19.50')
 
     await page.getByLabel('Skim ceilings, per m²').fill('22')
-    await page.getByRole('button', { name: 'Save price book' }).click()
+    await page.getByRole('button', { name: 'Save rates and rules' }).click()
     await expectVisible(page.getByText('Saved. New quotes use these rates.'))
     await screenshot(page, 'price-book')
 
@@ -37,8 +37,8 @@ describe('the price book', () => {
     const person = await e2e.open()
     const { page } = person
     await signInToDashboard(page, e2e.url, OWNER.email, OWNER.password)
-    await visit(page, `${e2e.url}/price-book`)
-    await expectVisible(page.getByRole('heading', { name: 'Price book' }))
+    await visit(page, `${e2e.url}/rates`)
+    await expectVisible(page.getByRole('heading', { name: 'Rates and rules' }))
     // the demo firm's figures (seeds/demo.ts; the day is the columns' default, 08:00 to 16:30)
     expect(await page.getByLabel('Packing out a bead, per metre').inputValue()).toBe('4.50')
     expect(await page.getByLabel('Working day starts').inputValue()).toBe('08:00')
@@ -47,13 +47,13 @@ describe('the price book', () => {
 
     await page.getByLabel('Packing out a bead, per metre').fill('5.25')
     await page.getByLabel('Working day ends').fill('07:00')
-    await page.getByRole('button', { name: 'Save price book' }).click()
+    await page.getByRole('button', { name: 'Save rates and rules' }).click()
     await expectText(page.getByTestId('price-book-timeline').getByRole('alert'), 'The working day must end after it starts.')
     expect(await page.getByLabel('Packing out a bead, per metre').inputValue()).toBe('5.25')
     await screenshot(page, 'price-book-timeline-error')
 
     await page.getByLabel('Working day ends').fill('17:00')
-    await page.getByRole('button', { name: 'Save price book' }).click()
+    await page.getByRole('button', { name: 'Save rates and rules' }).click()
     await expectVisible(page.getByText('Saved. New quotes use these rates.'))
     expect(await page.getByLabel('Working day ends').inputValue()).toBe('17:00')
 
@@ -72,8 +72,8 @@ describe('the price book', () => {
     const person = await e2e.open()
     const { page } = person
     await signInToDashboard(page, e2e.url, OWNER.email, OWNER.password)
-    await visit(page, `${e2e.url}/price-book`)
-    await expectVisible(page.getByRole('heading', { name: 'Price book' }))
+    await visit(page, `${e2e.url}/rates`)
+    await expectVisible(page.getByRole('heading', { name: 'Rates and rules' }))
     // the seeded lengths read back in metres
     expect(await page.getByLabel('Bead lengths you buy (m)').inputValue()).toBe('2.5, 3.0')
     await page.getByLabel('Bead lengths you buy (m)').fill('2.5, 30')
@@ -81,11 +81,11 @@ describe('the price book', () => {
     const item = page.getByTestId('making-good-item').last()
     await item.getByLabel(/^Item \d+$/).fill('Make good round a new boiler flue')
     await item.getByLabel('Price (£)').fill('45')
-    await page.getByRole('button', { name: 'Save price book' }).click()
+    await page.getByRole('button', { name: 'Save rates and rules' }).click()
     await expectText(page.getByRole('alert').filter({ hasText: 'bead length' }), '30.0 m? A bead length is from 0.5 m to 6 m.')
     expect(await item.getByLabel(/^Item \d+$/).inputValue()).toBe('Make good round a new boiler flue')
     await page.getByLabel('Bead lengths you buy (m)').fill('3, 2.4')
-    await page.getByRole('button', { name: 'Save price book' }).click()
+    await page.getByRole('button', { name: 'Save rates and rules' }).click()
     await expectVisible(page.getByText('Saved. New quotes use these rates.'))
     expect(await page.getByLabel('Bead lengths you buy (m)').inputValue()).toBe('2.4, 3.0')
     await screenshot(page, 'price-book-making-good')

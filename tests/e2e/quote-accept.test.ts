@@ -37,10 +37,10 @@ describe('quoting from a measured visit', () => {
     expect(cornerWork.every((l: any) => l.unitPence > 0)).toBe(true)
     await expectVisible(owner.getByText(/How: Bead packed out along the 3\.40 m corner between Window wall and Window reveal: 3\.40 m/))
     await expectVisible(owner.getByText(/How: Return 80 mm wide .*narrower than the 100 mm corner trowel: made good by hand along 2\.40 m/))
-    // making good from the price book (seeded: "Make good round a socket or switch", £12.00), as a labour line
-    await owner.getByLabel('Making good from the price book').selectOption({ label: 'Make good round a socket or switch (£12.00 per item)' })
-    await owner.getByRole('button', { name: '+ Add from the price book' }).click()
-    await expectVisible(owner.getByTestId('quote-line').last().getByText('How: Making good from the price book: £12.00 per item'))
+    // making good from Rates and rules (seeded: "Make good round a socket or switch", £12.00), as a labour line
+    await owner.getByLabel('Making good from your rates').selectOption({ label: 'Make good round a socket or switch (£12.00 per item)' })
+    await owner.getByRole('button', { name: '+ Add making good' }).click()
+    await expectVisible(owner.getByTestId('quote-line').last().getByText('How: Making good from Rates and rules: £12.00 per item'))
     // the materials room by room
     await owner.getByTestId('room-estimates').getByText(/Materials room by room/).click()
     await expectVisible(owner.getByTestId('room-estimates').getByText(/How: .* rounded up to/).first())
@@ -55,7 +55,7 @@ describe('quoting from a measured visit', () => {
     const sent = (await api.get(`/api/quotes/${quoteId}`)).body
 
     // the customer's e-mail, opened on their own phone
-    const mail = await e2e.app.waitForMail('harriet.colley@example.invalid', /Your quote Q-/)
+    const mail = await e2e.app.waitForMail('harriet.colley@example.invalid', /Your quote [A-Z]+-Q[1-9]/)
     const link = /(http:\/\/\S+\/q\/[\w-]+)/.exec(mail.text ?? '')![1]!
     const harriet = await e2e.open()
     const customer = harriet.page

@@ -25,7 +25,7 @@ export async function jobBookedToday(api: Client, app: TestApp, appUrl: string, 
   expect(room.status, JSON.stringify(room.body)).toBe(200)
   const q = (await api.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
   expect((await api.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
   expect((await new Client(appUrl).post(`/api/public/quotes/${token}/accept`, { name: customer })).status).toBe(200)
   const job = (await api.post(`/api/quotes/${q.id}/job`)).body

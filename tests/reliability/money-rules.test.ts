@@ -279,8 +279,8 @@ async function linkToken(reference: string) {
 describe('invoice and credit-note references', () => {
   async function firmSettings() {
     const firm = (await owner.get('/api/firm')).body
-    const { tradingName, addressLine1, addressLine2, town, postcode, email, phone, vatRegistered, vatNumber, cisStatus, utr, dayRatePence, paymentTermsDays, invoicePrefix, bankDetails } = firm
-    return { tradingName, addressLine1, addressLine2, town, postcode, email, phone, vatRegistered, vatNumber, cisStatus, utr, dayRatePence, paymentTermsDays, invoicePrefix, bankDetails }
+    const { tradingName, addressLine1, addressLine2, town, postcode, email, phone, vatRegistered, vatNumber, cisStatus, utr, dayRatePence, paymentTermsDays, invoicePrefix } = firm
+    return { tradingName, addressLine1, addressLine2, town, postcode, email, phone, vatRegistered, vatNumber, cisStatus, utr, dayRatePence, paymentTermsDays, invoicePrefix }
   }
 
   it('refuses prefixes that would give an invoice and a credit note the same reference', async () => {

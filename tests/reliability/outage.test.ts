@@ -60,7 +60,7 @@ async function jobUnderWay() {
   expect(room.status, JSON.stringify(room.body)).toBe(200)
   const q = (await owner.post('/api/quotes', { customerId: c.id, siteId: c.sites[0].id, visitId: v.id })).body
   expect((await owner.post(`/api/quotes/${q.id}/send`)).status).toBe(200)
-  const mail = await app.waitForMail(email, /Your quote Q-/)
+  const mail = await app.waitForMail(email, /Your quote [A-Z]+-Q[1-9]/)
   const token = /\/q\/([\w-]+)/.exec(mail.text!)![1]!
   expect((await new PublicClient(app.url).post(`/api/public/quotes/${token}/accept`, { name: 'Tamsin Orrell' })).status).toBe(200)
   const made = await owner.post(`/api/quotes/${q.id}/job`)

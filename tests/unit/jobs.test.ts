@@ -356,10 +356,10 @@ describe('roomReadyToDecorate', () => {
     expect(roomReadyToDecorate(['B'], [log('2028-01-10', 'second', ['B'], 1)], PLAN).from).toBe('2028-01-17')
   })
 
-  it('the caution defers to building regulations and licensed practice, and is no promise', () => {
+  it('the caution defers to the Building Regulations and good trade practice, and is no promise', () => {
     expect(READY_CAUTION).toMatch(/not a promise/)
-    expect(READY_CAUTION).toMatch(/building regulations/)
-    expect(READY_CAUTION).toMatch(/licensed practice/)
+    expect(READY_CAUTION).toMatch(/the Building Regulations where they apply/)
+    expect(READY_CAUTION).toMatch(/good trade practice/)
   })
 })
 

@@ -63,19 +63,19 @@ describe('DEFAULT_MATERIALS', () => {
     // supplier listings: 2.5 m and 3.0 m lengths
     ['angle-bead-2500', 'bead', { kind: 'length', metresPerPack: 2.5 }, 'Supplier listings'],
     ['angle-bead-3000', 'bead', { kind: 'length', metresPerPack: 3 }, 'Supplier listings'],
-    // from memory (unverified)
-    ['scrim-tape', 'scrim', { kind: 'length', metresPerPack: 90 }, 'From memory'],
+    // from memory (unverified): said to the firm as a figure to check
+    ['scrim-tape', 'scrim', { kind: 'length', metresPerPack: 90 }, 'A roll of scrim tape is usually about 90 m'],
   ])('%s: %s, coverage and its source', (key, type, coverage, source) => {
     const m = byKey(key)
     expect(m).toMatchObject({ type, coverage })
     expect(m?.source.startsWith(source)).toBe(true)
   })
 
-  it('every price is an invented demo price in whole pence', () => {
+  it('every price is an invented starting price in whole pence, said to be one in the firm\'s words', () => {
     expect(DEFAULT_MATERIALS).toHaveLength(5)
     for (const m of DEFAULT_MATERIALS) {
       expect(Number.isSafeInteger(m.costPence) && m.costPence > 0).toBe(true)
-      expect(m.source).toContain('Demo price (invented)')
+      expect(m.source).toContain('a starting figure: set your own')
     }
     expect(new Set(DEFAULT_MATERIALS.map(m => m.key)).size).toBe(DEFAULT_MATERIALS.length)
   })

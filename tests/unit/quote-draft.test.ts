@@ -43,9 +43,9 @@ describe('draftLines: labour priced from the price book', () => {
       { description: 'Make good narrow returns: Back bedroom', quantityX1000: 2400, unitPence: 7_00, derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m' }],
     // our rule: a rate not set (0) still drafts the line, so the work is seen and priced, and says why it is £0
     ['a packed-out bead with no rate set', line('packed-bead', 'lm', 3400, { derivation: 'Bead packed out along the 3.40 m corner: 3.40 m' }), { packedBeadPerLmPence: 0 },
-      { description: 'Pack out beads: Back bedroom', quantityX1000: 3400, unitPence: 0, derivation: 'Bead packed out along the 3.40 m corner: 3.40 m. No rate for packing out a bead is set in the price book: enter the price here' }],
+      { description: 'Pack out beads: Back bedroom', quantityX1000: 3400, unitPence: 0, derivation: 'Bead packed out along the 3.40 m corner: 3.40 m. No rate for packing out a bead is set in Rates and rules: enter the price here' }],
     ['a narrow return with no rate set', line('narrow-return', 'lm', 2400, { derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m' }), { narrowReturnPerLmPence: 0 },
-      { description: 'Make good narrow returns: Back bedroom', quantityX1000: 2400, unitPence: 0, derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m. No rate for making good a narrow return is set in the price book: enter the price here' }],
+      { description: 'Make good narrow returns: Back bedroom', quantityX1000: 2400, unitPence: 0, derivation: 'Return 80 mm wide, narrower than the 100 mm corner trowel: made good by hand along 2.40 m. No rate for making good a narrow return is set in Rates and rules: enter the price here' }],
   ])('corner work: %s', (_what, takeoff, rates, expected) => {
     const { lines } = draftLines([takeoff], { ...book, ...rates }, DEFAULT_MATERIALS)
     expect(lines).toEqual([{ kind: 'labour', unit: 'm', vatRatePercent: 20, ...expected }])
@@ -110,8 +110,8 @@ describe('draftLines: the days estimate (the firm\'s pace, a rule of thumb), rou
 describe('makingGoodLine', () => {
   it.each<[string, { name: string, unit: string, pricePence: number }, string]>([
     // invented price book items
-    ['an item', { name: 'Make good round a socket', unit: 'item', pricePence: 12_00 }, 'Making good from the price book: £12.00 per item'],
-    ['by the metre', { name: 'Make good along a cable run', unit: 'metre', pricePence: 8_50 }, 'Making good from the price book: £8.50 per metre'],
+    ['an item', { name: 'Make good round a socket', unit: 'item', pricePence: 12_00 }, 'Making good from Rates and rules: £12.00 per item'],
+    ['by the metre', { name: 'Make good along a cable run', unit: 'metre', pricePence: 8_50 }, 'Making good from Rates and rules: £8.50 per metre'],
   ])('%s is one unit of labour at its price', (_what, item, derivation) => {
     expect(makingGoodLine(item)).toEqual({ kind: 'labour', description: item.name, quantityX1000: 1000, unit: item.unit, unitPence: item.pricePence, vatRatePercent: 20, derivation })
   })

@@ -4,16 +4,16 @@ import { jobsOfTheWeek, latestJobsWorked } from '../../shared/utils/today'
 // Our own rules for the Today screen (no trade figure): a job booked on several days or with
 // several people is one line; the days keep the diary's order; the latest jobs worked come first.
 
-const day = (jobId: string, number: number, d: string, person: string) => ({ jobId, number, customer: `Customer ${number}`, day: d, person })
+const day = (jobId: string, number: number, d: string, person: string) => ({ jobId, reference: `BP-J${number}`, customer: `Customer ${number}`, day: d, person })
 
 describe('jobsOfTheWeek: the week\'s booked days gathered by job', () => {
   it.each([
     ['nothing booked', [], []],
-    ['one day, one person', [day('a', 1, '2026-12-07', 'Jess')], [{ jobId: 'a', number: 1, customer: 'Customer 1', days: ['2026-12-07'], people: ['Jess'] }]],
+    ['one day, one person', [day('a', 1, '2026-12-07', 'Jess')], [{ jobId: 'a', reference: 'BP-J1', customer: 'Customer 1', days: ['2026-12-07'], people: ['Jess'] }]],
     ['two people on the same day: the day once, both people', [day('a', 1, '2026-12-07', 'Jess'), day('a', 1, '2026-12-07', 'Tamsin')],
-      [{ jobId: 'a', number: 1, customer: 'Customer 1', days: ['2026-12-07'], people: ['Jess', 'Tamsin'] }]],
+      [{ jobId: 'a', reference: 'BP-J1', customer: 'Customer 1', days: ['2026-12-07'], people: ['Jess', 'Tamsin'] }]],
     ['two jobs across three days, in the order each first appears', [day('b', 2, '2026-12-07', 'Jess'), day('a', 1, '2026-12-08', 'Jess'), day('b', 2, '2026-12-09', 'Jess')],
-      [{ jobId: 'b', number: 2, customer: 'Customer 2', days: ['2026-12-07', '2026-12-09'], people: ['Jess'] }, { jobId: 'a', number: 1, customer: 'Customer 1', days: ['2026-12-08'], people: ['Jess'] }]],
+      [{ jobId: 'b', reference: 'BP-J2', customer: 'Customer 2', days: ['2026-12-07', '2026-12-09'], people: ['Jess'] }, { jobId: 'a', reference: 'BP-J1', customer: 'Customer 1', days: ['2026-12-08'], people: ['Jess'] }]],
   ])('%s', (_what, entries, want) => expect(jobsOfTheWeek(entries)).toEqual(want))
 })
 

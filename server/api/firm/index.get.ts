@@ -7,8 +7,8 @@ export default defineEventHandler(async (event) => {
   const [firm] = await withFirm(auth, f => f.tx.select().from(firms).where(eq(firms.id, f.firmId)))
   if (!firm) notFound()
   // crew see the firm, but not its money (its day rate and bank account); the enquiry form link is
-  // for those who run the ledger. The old free-text bank details (replaced by the three fields) go to no one.
-  const { dayRatePence, bankDetails: _old, bankAccountName, bankSortCode, bankAccountNumber, enquiryFormKey, ...rest } = firm
+  // for those who run the ledger.
+  const { dayRatePence, bankAccountName, bankSortCode, bankAccountNumber, enquiryFormKey, ...rest } = firm
   return {
     ...rest,
     ...(can(auth.role, 'money:read') ? { dayRatePence, bankAccountName, bankSortCode, bankAccountNumber } : {}),

@@ -37,8 +37,6 @@ export default defineEventHandler(async (event) => {
     const [firm] = await f.tx.update(firms).set(input).where(eq(firms.id, f.firmId)).returning()
     if (!firm) notFound()
     await f.audit('firm.updated', 'firm', f.firmId, { fields: Object.keys(input) })
-    // the old free-text bank details are replaced by the three checked fields: not sent back
-    const { bankDetails: _old, ...kept } = firm
-    return kept
+    return firm
   })
 })

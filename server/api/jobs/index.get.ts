@@ -21,6 +21,7 @@ export default defineEventHandler(async (event) => {
       .leftJoin(sites, and(eq(sites.firmId, jobs.firmId), eq(sites.id, jobs.siteId)))
       .where(f.where(jobs, status ? eq(jobs.status, status) : undefined, visibleJobs(f, auth)))
       .orderBy(desc(jobs.number)).limit(pageSize).offset((page - 1) * pageSize)
-    return rows.map(({ grossPence, ...r }) => ({ ...r, reference: jobReference(r.number), ...(money ? { grossPence } : {}) }))
+    const letters = await referenceLettersOf(f)
+    return rows.map(({ grossPence, ...r }) => ({ ...r, reference: jobReference(letters, r.number), ...(money ? { grossPence } : {}) }))
   })
 })

@@ -29,6 +29,6 @@ export default defineEventHandler(async (event) => {
     await recordJobStatus(f, job!.id, null, 'booked')
     await f.audit('job.created', 'job', job!.id, { priced: 'netPence' in price })
     setResponseStatus(event, 201)
-    return { id: job!.id, reference: jobReference(job!.number) }
+    return { id: job!.id, reference: jobReference(await referenceLettersOf(f), job!.number) }
   })
 })

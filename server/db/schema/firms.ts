@@ -35,8 +35,6 @@ export const firms = pgTable('firms', {
   creditNoteNumbering: text().$type<'shared' | 'own'>().notNull().default('own'),
   /** Blank means the firm's letters then -C: BP-C3. */
   creditNotePrefix: text().notNull().default(''),
-  /** How the firm is paid by transfer, printed on invoices. Old free text, read into the fields below by migration 0027 (sort code and account number where plain to see). */
-  bankDetails: text().notNull().default(''),
   /** Whether invoices offer payment by bank transfer: then the three fields below must be filled in before one is issued. */
   takesTransfer: boolean().notNull().default(true),
   /** The name on the firm's bank account, as a payer's bank checks it. */

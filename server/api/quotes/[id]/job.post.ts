@@ -7,6 +7,6 @@ export default defineEventHandler(async (event) => {
   return withFirm(auth, async (f) => {
     const job = await jobFromQuote(f, id)
     setResponseStatus(event, 201)
-    return { id: job.id, reference: jobReference(job.number) }
+    return { id: job.id, reference: jobReference(await referenceLettersOf(f), job.number) }
   })
 })

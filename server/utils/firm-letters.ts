@@ -1,0 +1,17 @@
+// The firm's letters, read once per firm scope, for the references the server sends
+// (shared/utils/references.ts). Pages never rebuild a reference: the API sends `reference`.
+import { eq } from 'drizzle-orm'
+import { firms } from '../db/schema'
+
+const read = new WeakMap<FirmScope, Promise<string>>()
+
+/** The current firm's letters (BP); its trading name's initials should the column be blank. */
+export function referenceLettersOf(f: FirmScope): Promise<string> {
+  let letters = read.get(f)
+  if (!letters) {
+    letters = f.tx.select({ letters: firms.referenceLetters, name: firms.tradingName }).from(firms).where(eq(firms.id, f.firmId))
+      .then(([firm]) => firm?.letters || firmLetters(firm?.name ?? ''))
+    read.set(f, letters)
+  }
+  return letters
+}
