@@ -2,6 +2,7 @@ import { eq, ne, sql } from 'drizzle-orm'
 import { firms, invoices } from '../../db/schema'
 import { firmSettingsSchema } from '#shared/schemas/firm'
 import { prefixesClash } from '#shared/utils/invoices'
+import { creditNotePrefixOf, invoicePrefixOf } from '#shared/utils/references'
 
 /**
  * Firm settings: the owner only. Prefixes that would give an invoice and a credit note the same
@@ -17,10 +18,10 @@ export default defineEventHandler(async (event) => {
     if (!now) notFound()
     const numbering = input.creditNoteNumbering ?? now.creditNoteNumbering
     // a blank prefix means the firm's letters then a dash (invoices, BP-12) or then -C (credit
-    // notes, BP-C3): compared as they will read (shared/utils/references.ts, helper D's, says the same)
+    // notes, BP-C3): compared as they will read (shared/utils/references.ts)
     const letters = now.referenceLetters
-    const invoicePrefix = input.invoicePrefix || `${letters}-`
-    const creditNotePrefix = (input.creditNotePrefix ?? now.creditNotePrefix) || `${letters}-C`
+    const invoicePrefix = invoicePrefixOf(letters, input.invoicePrefix)
+    const creditNotePrefix = creditNotePrefixOf(letters, input.creditNotePrefix ?? now.creditNotePrefix)
     if (numbering === 'own') {
       if (prefixesClash(invoicePrefix, creditNotePrefix)) {
         throw fieldError({ creditNotePrefix: `Credit notes numbered on their own need a prefix unlike the invoices' (${invoicePrefix || 'none'}), or an invoice and a credit note could share a reference. Try CR-.` })
