@@ -42,7 +42,7 @@ export async function draftFromVisit(f: FirmScope, visitId: string) {
     cautions: textured ? [ASBESTOS_CAUTION] : [],
     rules: {
       voids: book.minDeductCm2 > 0
-        ? `Openings of ${formatSquareMetres(book.minDeductCm2)} m² or less are not deducted (the older UK measurement rule); larger ones are.`
+        ? `Openings of ${formatSquareMetres(book.minDeductCm2)} m² or less are measured as if plastered (the small-voids rule of SMM7, the older standard method of measurement); larger ones are taken off.`
         : 'Every opening is deducted from the area.',
       narrow: `Reveals and strips up to ${book.narrowMaxMm} mm wide are priced by the metre; wider ones by the square metre.`,
       days: `Days estimated at ${book.m2PerDay} m² a day, rounded up to the quarter day (a rule of thumb).`,

@@ -94,7 +94,7 @@ const WORKS: Record<string, { one: string, many: string } | null> = {
   'Skim ceilings': { one: 'ceiling', many: 'ceilings' },
   'Skim wide reveals and strips': null,
   'Undercoat where the old plaster is off': null,
-  'Undercoat, back to the background': null,
+  'Undercoat, back to the background': null, // words-test: old words, mended
   'Fill patches in undercoat': null,
   'Reveals and narrow strips': null,
   'Fit beads': null,
@@ -110,7 +110,7 @@ export function workAndRoom(description: string): { work: string, room: string }
   const work = description.slice(0, at)
   const room = description.slice(at + 2).trim()
   if (!(work in WORKS) || !room) return null
-  return { work: work === 'Undercoat, back to the background' ? 'Undercoat where the old plaster is off' : work, room }
+  return { work: work === 'Undercoat, back to the background' ? 'Undercoat where the old plaster is off' : work, room } // words-test: old words, mended
 }
 
 /** "Front room" -> "front room" inside a sentence; a name that starts with two capitals ("WC") stays. */

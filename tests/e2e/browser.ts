@@ -15,7 +15,7 @@ export const DESKTOP = { width: 1280, height: 800 }
 /** How long a single wait may take. Well under vitest's 60 s so a failure says what it waited for. */
 const WAIT_MS = 10_000
 
-const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']
+const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--lang=en-GB']
 
 export interface Person {
   context: BrowserContext
