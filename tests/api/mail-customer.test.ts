@@ -1,9 +1,11 @@
 import { addDays, londonToday } from '../../shared/utils/dates'
-import pg from 'pg'
 import type { ParsedMail } from 'mailparser'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { queryAsFirm } from '../support/db'
+
+const OWNER_URL = () => requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL')
 
 // Every e-mail to a customer comes from the firm: its trading name as the sender's name, Reply-To
 // its own address, its phone in the text, the link the customer needs, and dates in words (never
@@ -22,31 +24,11 @@ let firmId: string
 
 /** Set the firm's contact and bank details straight in the database (as the firm), whatever the settings screen takes. */
 async function setFirm(id: string, fields: { email: string, phone: string }) {
-  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-  await db.connect()
-  try {
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [id])
-    await db.query(`update firms set email = $1, phone = $2, takes_transfer = true, bank_account_name = $3, bank_sort_code = '608371', bank_account_number = '31926819' where id = $4`, [fields.email, fields.phone, FIRM, id])
-    await db.query('commit')
-  }
-  finally {
-    await db.end()
-  }
+  await queryAsFirm(OWNER_URL(), id, `update firms set email = $1, phone = $2, takes_transfer = true, bank_account_name = $3, bank_sort_code = '608371', bank_account_number = '31926819' where id = $4`, [fields.email, fields.phone, FIRM, id])
 }
 
 async function setDueOn(invoiceId: string, date: string) {
-  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-  await db.connect()
-  try {
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-    await db.query('update invoices set due_on = $1 where id = $2', [date, invoiceId])
-    await db.query('commit')
-  }
-  finally {
-    await db.end()
-  }
+  await queryAsFirm(OWNER_URL(), firmId, 'update invoices set due_on = $1 where id = $2', [date, invoiceId])
 }
 
 beforeAll(async () => {

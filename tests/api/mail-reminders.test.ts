@@ -1,9 +1,11 @@
 import { addDays, fullDate, londonToday } from '../../shared/utils/dates'
-import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
 import { Client, signUpFirm, uniqueEmail } from '../support/client'
+import { queryAsFirm } from '../support/db'
 import { statuses, together } from '../reliability/race'
+
+const OWNER_URL = () => requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL')
 
 // The reminder is chosen by where the invoice stands today (before its due date, on it, overdue by
 // N days), by "send now" and by the schedule alike, with the firm's starting words: never "is due
@@ -16,35 +18,15 @@ let firmId: string
 beforeAll(async () => {
   app = await startApp()
   ;({ client: owner, firmId } = await signUpFirm(app.url, 'Stagewise Plastering'))
-  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-  await db.connect()
-  try {
-    // bank details, so an invoice offering transfer can be issued
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-    await db.query(`update firms set phone = '01632 960 733', bank_account_name = 'Stagewise Plastering', bank_sort_code = '608371', bank_account_number = '31926819' where id = $1`, [firmId])
-    await db.query('commit')
-  }
-  finally {
-    await db.end()
-  }
+  // bank details, so an invoice offering transfer can be issued
+  await queryAsFirm(OWNER_URL(), firmId, `update firms set phone = '01632 960 733', bank_account_name = 'Stagewise Plastering', bank_sort_code = '608371', bank_account_number = '31926819' where id = $1`, [firmId])
 })
 afterAll(async () => {
   await app?.stop()
 })
 
 async function setDueOn(invoiceId: string, date: string) {
-  const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-  await db.connect()
-  try {
-    await db.query('begin')
-    await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-    await db.query('update invoices set due_on = $1 where id = $2', [date, invoiceId])
-    await db.query('commit')
-  }
-  finally {
-    await db.end()
-  }
+  await queryAsFirm(OWNER_URL(), firmId, 'update invoices set due_on = $1 where id = $2', [date, invoiceId])
 }
 
 /** An issued invoice due `daysFromToday` from today (negative: overdue). */
@@ -123,18 +105,8 @@ describe('at most once, whatever runs at once', () => {
     const mail = await onlyReminder(email)
     await new Promise(r => setTimeout(r, 500))
     expect(remindersTo(email)).toHaveLength(1)
-    const db = new pg.Client({ connectionString: requiredEnv('SETWELL_TEST_OWNER_DATABASE_URL') })
-    await db.connect()
-    try {
-      await db.query('begin')
-      await db.query(`select set_config('app.firm_id', $1, true)`, [firmId])
-      const { rows } = await db.query<{ reminder_key: string, sent: boolean }>(`select reminder_key, sent_at is not null as sent from chase_notes where firm_id = $1 and invoice_id = $2 and kind = 'reminder'`, [firmId, invoice.id])
-      await db.query('commit')
-      expect(rows).toEqual([{ reminder_key: `${invoice.id}:30`, sent: true }])
-    }
-    finally {
-      await db.end()
-    }
+    const rows = await queryAsFirm<{ reminder_key: string, sent: boolean }>(OWNER_URL(), firmId, `select reminder_key, sent_at is not null as sent from chase_notes where firm_id = $1 and invoice_id = $2 and kind = 'reminder'`, [firmId, invoice.id])
+    expect(rows).toEqual([{ reminder_key: `${invoice.id}:30`, sent: true }])
     // the link in the one e-mail sent is the invoice's live link
     const token = /\/i\/([\w-]+)/.exec(mail.text!)![1]!
     expect((await new Client(app.url).get(`/api/public/invoices/${token}`)).status).toBe(200)
