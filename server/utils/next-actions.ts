@@ -161,11 +161,15 @@ const purchasesNoReceipt: Source = async (f, today) => listed(await f.tx.select(
   .orderBy(asc(purchases.boughtOn), asc(purchases.id)).limit(ACTIONS_PER_KIND), r => purchaseNoReceiptAction(r, today))
 
 /**
- * Where helper F's broken promises to pay join the list: `brokenPromiseActions(f, today)` from
- * server/utils/promises.ts (issue 18, part 2), once it is on main. Each source answers its actions
- * and how many there are.
+ * Where broken promises to pay join the list: `brokenPromiseActions(f, today)` from
+ * server/utils/promises.ts (issue 18, part 2) goes in here once it is on main
+ * (`[brokenPromiseActions]`). Each answers its actions; the first five are shown, the rest counted.
  */
-export const PROMISE_SOURCES: Source[] = []
+export const PROMISE_SOURCES: ((f: FirmScope, today: string) => Promise<NextAction[]>)[] = []
+const promiseSource = (s: (f: FirmScope, today: string) => Promise<NextAction[]>): Source => async (f, today) => {
+  const all = await s(f, today)
+  return { actions: all.slice(0, ACTIONS_PER_KIND), total: all.length }
+}
 
 // ---------------------------------------------------------------------------------------------
 // The firm: its tax dates and what is missing from its set-up
@@ -310,7 +314,7 @@ export async function todayFor(f: FirmScope, who: Who, today: string): Promise<T
     ['invoice-overdue', invoicesOverdue],
     ['day-no-set-logged', daysNoSetLogged],
     ['purchase-no-receipt', purchasesNoReceipt],
-    ...PROMISE_SOURCES.map(s => ['promise-broken', s] as [NextActionKind, Source]),
+    ...PROMISE_SOURCES.map(s => ['promise-broken', promiseSource(s)] as [NextActionKind, Source]),
   ]
   // one transaction, so the statements run one after another on its connection
   const more: Partial<Record<NextActionKind, number>> = {}

@@ -124,7 +124,7 @@ describe('each next-action list, worked out by the test', () => {
     const quote = async (n: number, status: string, sentAgo: string, visitId: string | null = null) => {
       const q = await one('insert into quotes (firm_id, number, customer_id, site_id, visit_id) values ($1, $2, $3, $4, $5) returning id', [firmId, n, customerId, siteId, visitId])
       const v = await one(`insert into quote_versions (firm_id, quote_id, version, status, vat, valid_until, sent_at, responded_at, totals)
-        values ($1, $2, 1, $3, 'not-registered', '2027-01-31', now() - $4::interval, case when $3 = 'accepted' then now() - $4::interval + interval '1 day' end, '{"grossPence": 120000}') returning sent_at, responded_at`, [firmId, q.id, status, sentAgo])
+        values ($1, $2, 1, $3, 'not-registered', '2027-01-31', now() - $4::interval, case when $5 then now() - $4::interval + interval '1 day' end, '{"grossPence": 120000}') returning sent_at, responded_at`, [firmId, q.id, status, sentAgo, status === 'accepted'])
       return { id: q.id as string, sentAt: iso(v.sent_at), respondedAt: v.responded_at ? iso(v.responded_at) : null }
     }
     const q1 = await quote(901, 'sent', '10 days', v3.id)
