@@ -299,7 +299,9 @@ async function main() {
     ['lists', 'invoices (newest 50)', '/api/invoices'],
     ['lists', 'what is owed (50 customers a page)', '/api/owed'],
     ['record', 'one invoice', `/api/invoices/${invoice!.id}`],
-    ['render', 'dashboard (server-rendered)', '/'],
+    // Today's one request (every next-action list, counted in SQL) and the page that makes it
+    ['lists', 'Today: next actions (GET /api/today)', '/api/today'],
+    ['render', 'dashboard (server-rendered: Today, from /api/today)', '/'],
     ['render', 'invoice list (server-rendered)', '/invoices'],
   ]
   for (const connections of [1, 32]) {

@@ -24,6 +24,7 @@ export interface FirmRecord {
   bankAccountNumber?: string
   vatStagger?: number
   vatCashAccounting?: boolean
+  quoteChaseDays?: number
 }
 
 export function firmForm(f: FirmRecord | null | undefined) {
@@ -42,6 +43,7 @@ export function firmForm(f: FirmRecord | null | undefined) {
     bankAccountNumber: f?.bankAccountNumber ?? '',
     vatStagger: (f?.vatStagger ?? 1) as 1 | 2 | 3,
     vatCashAccounting: f?.vatCashAccounting ?? false,
+    quoteChaseDays: String(f?.quoteChaseDays ?? 7),
   }
 }
 export type FirmForm = ReturnType<typeof firmForm>
@@ -65,12 +67,14 @@ export function useFirmForm(firm: () => FirmRecord | null | undefined, onSaved: 
     const typed = form.value
     const dayRatePence = typed.dayRate.trim() === '' ? 0 : parsePounds(typed.dayRate)
     const terms = /^\d+$/.test(typed.paymentTermsDays.trim()) ? Number(typed.paymentTermsDays.trim()) : null
+    const chase = /^\d+$/.test(typed.quoteChaseDays.trim()) ? Number(typed.quoteChaseDays.trim()) : null
     const local: Record<string, string> = {}
     if (dayRatePence === null) local.dayRatePence = 'Enter the day rate in pounds, like 180 or 180.50.'
     if (terms === null) local.paymentTermsDays = 'Enter a whole number of days, like 30.'
+    if (chase === null) local.quoteChaseDays = 'Enter a whole number of days, like 7.'
     if (Object.keys(local).length) return fail(local)
-    const { dayRate: _d, paymentTermsDays: _t, ...rest } = typed
-    body = { ...rest, dayRatePence, paymentTermsDays: terms }
+    const { dayRate: _d, paymentTermsDays: _t, quoteChaseDays: _q, ...rest } = typed
+    body = { ...rest, dayRatePence, paymentTermsDays: terms, quoteChaseDays: chase }
     await submit()
   }
 

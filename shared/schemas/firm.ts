@@ -46,6 +46,8 @@ export const firmSettingsSchema = z.object({
   bankAccountNumber: bankDigits(accountNumberProblem).optional(),
   vatStagger: z.union([z.literal(1), z.literal(2), z.literal(3)], { error: 'Choose the months the VAT quarters end in.' }).optional(),
   vatCashAccounting: z.boolean({ error: 'Say whether the firm uses cash accounting.' }).optional(),
+  // optional, so a client that does not know it leaves it as it is
+  quoteChaseDays: z.int({ error: 'Enter the days in whole days.' }).min(1, { error: 'Follow up after at least 1 day.' }).max(90, { error: 'Keep it to 90 days or fewer.' }).optional(),
 })
   // `when` runs these even while other fields have errors, so every problem shows at once
   .refine(v => !(v.vatRegistered === true && !v.vatNumber), { path: ['vatNumber'], message: 'A VAT-registered firm needs its VAT number.', when: whenObject })

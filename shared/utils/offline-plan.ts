@@ -10,13 +10,13 @@ export interface KeepWho { userId: string, canLog: boolean }
 export const KEEP_DAYS = 7
 
 /**
- * The paths to keep: Today and who is signed in; each job the person is booked on between `from`
+ * The paths to keep: Today (its page and its one request) and who is signed in; each job the person is booked on between `from`
  * and `to` (ISO days) with its page, day sheet, set log page (if they may log) and its data; each
  * visit still booked for them that starts before the end of `to` (London's day, taken as UTC's
  * end of day: an hour's leeway in summer keeps a little more, never less) with its page, data and rooms.
  */
 export function pathsToKeep(who: KeepWho, days: readonly KeepDay[], visits: readonly KeepVisit[], from: string, to: string): string[] {
-  const paths = ['/', '/api/me']
+  const paths = ['/', '/api/me', '/api/today']
   const jobIds = [...new Set(days.filter(d => d.userId === who.userId && d.day >= from && d.day <= to).map(d => d.jobId))]
   for (const id of jobIds) {
     paths.push(`/jobs/${id}`, `/jobs/${id}/sheet`, `/api/jobs/${id}`)

@@ -116,8 +116,10 @@ describe('finishing, moving and cancelling visits', () => {
     const kieran = await e2e.open()
     const { page } = kieran
     await signInToDashboard(page, e2e.url, CREW.email, CREW.password)
-    const today = page.getByTestId('dashboard-visits')
+    // its time has gone by: a next action on Today (mark it done), not a visit to come
+    const today = page.getByTestId('dashboard-crew')
     await expectVisible(today.locator(`a[href="/visits/${toFinish}"]`))
+    expect(await page.getByTestId('dashboard-visits').locator(`a[href="/visits/${toFinish}"]`).count()).toBe(0)
 
     await today.locator(`a[href="/visits/${toFinish}"]`).click()
     await page.waitForURL(u => u.pathname === `/visits/${toFinish}`)
@@ -139,6 +141,7 @@ describe('finishing, moving and cancelling visits', () => {
     await visit(page, `${e2e.url}/`)
     await expectVisible(page.getByTestId('dashboard-visits'))
     expect(await page.getByTestId('dashboard-visits').locator(`a[href="/visits/${toFinish}"]`).count()).toBe(0)
+    expect(await page.getByTestId('dashboard-crew').locator(`a[href="/visits/${toFinish}"]`).count()).toBe(0)
     await visit(page, `${e2e.url}/visits`)
     expect(await page.getByRole('main').locator(`a[href="/visits/${toFinish}"]`).count()).toBe(0)
     await page.getByTestId('visits-tab-finished').click()

@@ -107,6 +107,8 @@ const TABLE: Record<string, [Need, string]> = {
   'GET /api/price-book': ['money:read', '401 ok ok 403 ok ok'],
   'PUT /api/price-book': ['firm:manage', '401 ok 403 403 403 ok'],
   'GET /api/profit': ['money:read', '401 ok ok 403 ok ok'],
+  // Today: every role has one (each its own lists); another firm's owner gets their own firm's
+  'GET /api/today': ['firm:read', '401 ok ok ok ok ok'],
   'GET /api/public/enquiry-forms/:key': ['public', 'ok ok ok ok ok ok'],
   'POST /api/public/enquiry-forms/:key': ['public', 'ok ok ok ok ok ok'],
   'GET /api/public/invoices/:token': ['public', 'ok ok ok ok ok ok'],

@@ -6,7 +6,7 @@ const ME = 'u-kieran'
 const OTHER = 'u-jess'
 const day = (jobId: string, userId: string, d: string): KeepDay => ({ jobId, userId, day: d })
 const visit = (id: string, visitor: string | null, startsAt: string, status = 'booked'): KeepVisit => ({ id, status, startsAt, visitor: visitor ? { id: visitor } : null })
-const base = ['/', '/api/me']
+const base = ['/', '/api/me', '/api/today']
 const job = (id: string, log = true) => [`/jobs/${id}`, `/jobs/${id}/sheet`, `/api/jobs/${id}`, ...(log ? [`/jobs/${id}/log`] : [])]
 const vis = (id: string) => [`/visits/${id}`, `/api/visits/${id}`, `/api/visits/${id}/rooms`]
 

@@ -24,6 +24,8 @@ export const firms = pgTable('firms', {
   utr: text(),
   dayRatePence: integer().notNull().default(0),
   paymentTermsDays: integer().notNull().default(30),
+  /** Days after a quote is sent before Today asks the firm to follow it up (shared/utils/next-actions.ts). */
+  quoteChaseDays: integer().notNull().default(7),
   /**
    * The firm's letters at the front of its references (shared/utils/references.ts): the initials of
    * the trading name when the firm is made ("Brackenridge Plastering" gives BP), which the owner can change.

@@ -114,6 +114,8 @@ export const quotes = pgTable('quotes', {
   foreignKey({ name: 'quotes_enquiry_fk', columns: [t.firmId, t.enquiryId], foreignColumns: [enquiries.firmId, enquiries.id] }).onDelete('set null'),
   foreignKey({ name: 'quotes_visit_fk', columns: [t.firmId, t.visitId], foreignColumns: [visits.firmId, visits.id] }).onDelete('set null'),
   index('quotes_customer_idx').on(t.firmId, t.customerId),
+  // Today: is there a quote made from this visit?
+  index('quotes_visit_idx').on(t.firmId, t.visitId).where(sql`${t.visitId} is not null`),
   firmPolicy('quotes'),
 ]).enableRLS()
 
@@ -157,6 +159,8 @@ export const quoteVersions = pgTable('quote_versions', {
   unique('quote_versions_quote_version_unique').on(t.firmId, t.quoteId, t.version),
   unique('quote_versions_token_unique').on(t.tokenHash),
   // one accepted version per quote at most: the database holds it whatever runs at once (issue 13)
+  // Today: versions sent and waiting, or accepted (the job to book): a few among many superseded and done
+  index('quote_versions_open_idx').on(t.firmId, t.status, t.sentAt).where(sql`${t.status} in ('sent', 'accepted')`),
   uniqueIndex('quote_versions_one_accepted').on(t.firmId, t.quoteId).where(sql`${t.status} = 'accepted'`),
   foreignKey({ name: 'quote_versions_quote_fk', columns: [t.firmId, t.quoteId], foreignColumns: [quotes.firmId, quotes.id] }).onDelete('cascade'),
   // someone holding the customer's link sees only that version (app.quote_token_hash), as with invitations

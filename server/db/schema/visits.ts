@@ -1,6 +1,7 @@
 // Site visits and what was measured and found: rooms, their surfaces with openings and
 // conditions, the corners between surfaces, and photos. Lengths are whole millimetres and areas
 // whole square centimetres, so no float ever reaches the database (shown as metres, 2 decimals).
+import { sql } from 'drizzle-orm'
 import { boolean, foreignKey, index, integer, pgEnum, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
 import { BACKGROUNDS, CONDITION_KINDS, CORNER_KINDS, OPENING_KINDS, SURFACE_KINDS, VISIT_STATUSES } from '../../../shared/utils/ledger'
 import { firmColumn, sameFirm, timestamps } from './common'
@@ -39,6 +40,10 @@ export const visits = pgTable('visits', {
   foreignKey({ name: 'visits_site_fk', columns: [t.firmId, t.siteId], foreignColumns: [sites.firmId, sites.id] }).onDelete('cascade'),
   foreignKey({ name: 'visits_enquiry_fk', columns: [t.firmId, t.enquiryId], foreignColumns: [enquiries.firmId, enquiries.id] }).onDelete('set null'),
   index('visits_firm_starts_idx').on(t.firmId, t.startsAt),
+  // Today: the visits still booked (gone by: a next action; to come: the list), a few among many
+  index('visits_booked_idx').on(t.firmId, t.startsAt).where(sql`${t.status} = 'booked'`),
+  // Today: visits done and not yet written up as a quote
+  index('visits_done_idx').on(t.firmId, t.doneAt).where(sql`${t.status} = 'done'`),
   firmPolicy('visits'),
 ]).enableRLS()
 
