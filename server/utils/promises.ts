@@ -52,7 +52,7 @@ export async function brokenPromiseActions(f: FirmScope, today: string): Promise
     customerName: customers.name,
     outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`,
     paidSincePence: sql<number>`coalesce((select sum(p.amount_pence) from payments p where p.firm_id = ${invoices.firmId} and p.invoice_id = ${invoices.id} and p.received_on >= (${latest.at} at time zone 'Europe/London')::date), 0)::int`,
-    chasedAfter: sql<boolean>`exists (select 1 from chase_notes later where later.firm_id = ${invoices.firmId} and later.invoice_id = ${invoices.id} and later.kind <> 'reminder' and (later.at at time zone 'Europe/London')::date > ${latest.promisedOn})`,
+    chasedAfter: sql<boolean>`exists (select 1 from chase_notes later where later.firm_id = ${invoices.firmId} and later.invoice_id = ${invoices.id} and later.kind <> 'reminder' and later.at > ${latest.at} and (later.at at time zone 'Europe/London')::date > ${latest.promisedOn})`,
   })
     .from(latest)
     .innerJoin(invoices, eq(invoices.id, latest.invoiceId))

@@ -63,7 +63,7 @@ export interface PromiseState {
   paidSincePence: number
   /** What is still to pay on the invoice now. */
   outstandingPence: number
-  /** Someone chased again (a call, a message or a letter) after the promised day. */
+  /** Someone chased again since the promise (a call, a message or a letter) on a day after the promised one. */
   chasedAfter: boolean
 }
 
