@@ -268,8 +268,9 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
   const paymentId = paid.payments[0].id
   // an entry in the issued invoice's chase log (a call, written by the owner), for its removal
   const newChaseNote = async () => {
-    const chase = ok(await o.post(`/api/invoices/${toIssue.id}/chase-notes`, { kind: 'call', outcome: 'no-reply', note: 'Rang, no answer' }), 'chase note').chase as { id: string }[]
-    return chase.at(-1)!.id
+    const note = `Rang, no answer (${randomUUID().slice(0, 8)})`
+    const chase = ok(await o.post(`/api/invoices/${toIssue.id}/chase-notes`, { kind: 'call', outcome: 'no-reply', note }), 'chase note').chase as { id: string, note: string }[]
+    return chase.find(c => c.note === note)!.id
   }
   const chaseNoteId = await newChaseNote()
 
