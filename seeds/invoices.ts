@@ -47,6 +47,6 @@ export async function seedInvoices(tx: Tx, o: { firmId: string, prefix: string, 
   })
   await tx.insert(schema.chaseNotes).values([
     { firmId: o.firmId, invoiceId: overdue.id, kind: 'reminder', note: 'Reminder 14 days after the due date', reminderKey: `${overdue.id}:14`, sentAt: new Date(), byUserId: null },
-    { firmId: o.firmId, invoiceId: overdue.id, kind: 'call', note: 'Spoke to Priti Hale: paperwork with their accounts team.', byUserId: o.officeId },
+    { firmId: o.firmId, invoiceId: overdue.id, kind: 'call', outcome: 'other', note: 'Spoke to Priti Hale: paperwork with their accounts team.', byUserId: o.officeId },
   ])
 }

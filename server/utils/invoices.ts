@@ -64,7 +64,7 @@ export async function invoiceDetail(f: FirmScope, id: string) {
     .from(invoices).where(f.where(invoices, eq(invoices.creditsInvoiceId, id))).orderBy(asc(invoices.createdAt))
   const [credits] = inv.creditsInvoiceId ? await f.tx.select({ id: invoices.id, reference: invoices.reference }).from(invoices).where(f.where(invoices, eq(invoices.id, inv.creditsInvoiceId))) : []
   const money = await moneyAgainst(f, [id])
-  const chase = await f.tx.select({ id: chaseNotes.id, kind: chaseNotes.kind, note: chaseNotes.note, promisedOn: chaseNotes.promisedOn, at: chaseNotes.at, sentAt: chaseNotes.sentAt, by: users.name })
+  const chase = await f.tx.select({ id: chaseNotes.id, kind: chaseNotes.kind, outcome: chaseNotes.outcome, note: chaseNotes.note, promisedPence: chaseNotes.promisedPence, promisedOn: chaseNotes.promisedOn, at: chaseNotes.at, sentAt: chaseNotes.sentAt, byUserId: chaseNotes.byUserId, by: users.name })
     .from(chaseNotes).leftJoin(users, eq(users.id, chaseNotes.byUserId)).where(f.where(chaseNotes, eq(chaseNotes.invoiceId, id))).orderBy(asc(chaseNotes.at))
   const { tokenHash: _t, ...rest } = inv
   return {

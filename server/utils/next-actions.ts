@@ -4,17 +4,18 @@
 // lists lacked); crew's day; the accountant's firms. The words are shared/utils/next-actions.ts.
 import { and, asc, eq, gte, isNotNull, isNull, lt, lte, ne, or, sql } from 'drizzle-orm'
 import {
-  customers, documents, enquiries, firms, invitations, invoices, jobDays, jobs, memberships, purchases,
+  chaseNotes, customers, documents, enquiries, firms, invitations, invoices, jobDays, jobs, memberships, purchases,
   quotes, quoteVersions, rooms, setLogs, sites, users, visits,
 } from '../db/schema'
 import type { FirmScope } from './db'
+import { brokenPromiseActions } from './promises'
 import type { Role } from '#shared/utils/roles'
 import { addDays } from '#shared/utils/dates'
 import { cisTaxMonth, vatQuarter } from '#shared/utils/periods'
 import { jobReference, quoteReference } from '#shared/utils/references'
 import {
   ACTIONS_PER_KIND, DEFAULT_QUOTE_CHASE_DAYS, RECEIPT_LOOKBACK_DAYS, SET_LOG_LOOKBACK_DAYS,
-  cisReturnAction, dayNoSetAction, enquiryAction, invoiceOverdueAction, jobNotInvoicedAction, onceEach,
+  cisReturnAction, dayNoSetAction, enquiryAction, invoiceOverdueAction, jobNotInvoicedAction, onceEach, promiseOverOverdue,
   purchaseNoReceiptAction, quoteNotBookedAction, quoteUnansweredAction, setupActions, sortActions,
   vatReturnAction, visitNotMarkedAction, visitNotWrittenUpAction,
   type MoneySummary, type NextAction, type NextActionKind, type OnSiteJob, type ServedFirm, type ServedQuarter, type TodayView, type VisitToCome,
@@ -124,7 +125,9 @@ const invoicesOverdue: Source = async (f, today) => listed(await f.tx.select({
   outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`, total,
 }).from(invoices)
   .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-  .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`, lt(invoices.dueOn, today)))
+  .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`, lt(invoices.dueOn, today),
+    // a customer who promised to pay by today or later is left until that day has passed
+    sql`not exists (select 1 from ${chaseNotes} c where c.firm_id = ${invoices.firmId} and c.invoice_id = ${invoices.id} and c.promised_on >= ${today})`))
   .orderBy(asc(invoices.dueOn), asc(invoices.number)).limit(ACTIONS_PER_KIND),
 r => invoiceOverdueAction({ ...r, reference: r.reference ?? '', dueOn: r.dueOn! }, today))
 
@@ -162,10 +165,9 @@ const purchasesNoReceipt: Source = async (f, today) => listed(await f.tx.select(
 
 /**
  * Where broken promises to pay join the list: `brokenPromiseActions(f, today)` from
- * server/utils/promises.ts (issue 18, part 2) goes in here once it is on main
- * (`[brokenPromiseActions]`). Each answers its actions; the first five are shown, the rest counted.
+ * server/utils/promises.ts. Each answers its actions; the first five are shown, the rest counted.
  */
-export const PROMISE_SOURCES: ((f: FirmScope, today: string) => Promise<NextAction[]>)[] = []
+export const PROMISE_SOURCES: ((f: FirmScope, today: string) => Promise<NextAction[]>)[] = [brokenPromiseActions]
 const promiseSource = (s: (f: FirmScope, today: string) => Promise<NextAction[]>): Source => async (f, today) => {
   const all = await s(f, today)
   return { actions: all.slice(0, ACTIONS_PER_KIND), total: all.length }
@@ -338,7 +340,7 @@ export async function todayFor(f: FirmScope, who: Who, today: string): Promise<T
   return {
     today,
     role: who.role,
-    actions: sortActions(onceEach(actions)),
+    actions: sortActions(promiseOverOverdue(onceEach(actions))),
     more,
     onSite: seesWork ? await onSiteToday(f, today, who) : [],
     visits: seesWork ? await visitsToCome(f, who) : [],

@@ -80,12 +80,6 @@ export const paymentSchema = z.object({
   requestId: z.uuid({ error: 'Send the payment again from the invoice page.' }),
 })
 
-export const chaseNoteSchema = z.object({
-  kind: z.enum(['call', 'message', 'promise'], { error: 'Call, message or promise to pay?' }),
-  note: text().trim().max(2000).default(''),
-  promisedOn: isoDate('Pick the date they promised.').nullable().default(null),
-}).refine(v => v.kind !== 'promise' || v.promisedOn !== null, { path: ['promisedOn'], error: 'Pick the date they promised to pay by.', when: whenObject })
-
 export { PAYMENT_METHODS }
 
 /** The invoices list's query: the newest `pageSize`. */

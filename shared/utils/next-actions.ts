@@ -96,6 +96,15 @@ export function onceEach(actions: readonly NextAction[]): NextAction[] {
   return actions.filter(a => (seen.has(a.key) ? false : (seen.add(a.key), true)))
 }
 
+/**
+ * An invoice is chased once: where a customer broke a promise to pay, that is the action, and the
+ * same invoice is not also listed as merely overdue (both would send the office to one invoice).
+ */
+export function promiseOverOverdue(actions: readonly NextAction[]): NextAction[] {
+  const broken = new Set(actions.filter(a => a.kind === 'promise-broken').map(a => a.href))
+  return actions.filter(a => !(a.kind === 'invoice-overdue' && broken.has(a.href)))
+}
+
 const iso = (v: string | Date) => (v instanceof Date ? v.toISOString() : v)
 const possessive = (name: string) => (name.endsWith('s') ? `${name}'` : `${name}'s`)
 const short = (text: string, max = 60) => {

@@ -3,7 +3,7 @@ import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { extractText, getDocumentProxy } from 'unpdf'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { fullDate, londonToday } from '../../shared/utils/dates'
+import { addDays, fullDate, londonToday } from '../../shared/utils/dates'
 import { formatPence } from '../../shared/utils/money'
 import { latePaymentClaim } from '../../shared/utils/late-payment'
 import { requiredEnv, startApp, type TestApp } from '../support/app'
@@ -81,10 +81,10 @@ describe('reminders', () => {
     expect(now.status).toBe(200)
     await app.waitForMail(email, new RegExp(invoice.reference))
     expect(now.body.chase).toEqual([expect.objectContaining({ kind: 'reminder', note: 'Reminder sent by hand' })])
-    expect((await owner.post(`/api/invoices/${invoice.id}/chase-notes`, { kind: 'promise' })).body.data.fields.promisedOn).toBeTruthy()
-    const promised = await owner.post(`/api/invoices/${invoice.id}/chase-notes`, { kind: 'promise', note: 'Will pay Friday', promisedOn: '2026-12-04' })
+    expect((await owner.post(`/api/invoices/${invoice.id}/chase-notes`, { kind: 'call', outcome: 'promised' })).body.data.fields.promisedOn).toBeTruthy()
+    const promised = await owner.post(`/api/invoices/${invoice.id}/chase-notes`, { kind: 'call', outcome: 'promised', note: 'Will pay Friday', promisedPence: 200_00, promisedOn: addDays(londonToday(), 3) })
     expect(promised.status).toBe(201)
-    expect(promised.body.chase.map((c: any) => c.kind)).toEqual(['reminder', 'promise'])
+    expect(promised.body.chase.map((c: any) => [c.kind, c.outcome, c.promisedPence])).toEqual([['reminder', null, null], ['call', 'promised', 200_00]])
 
     const rules = (await owner.get('/api/reminders')).body
     expect(rules.map((r: any) => r.offsetDays)).toEqual([-3, 0, 7, 14, 30])

@@ -1,9 +1,12 @@
 // The office partner chases on a phone (390 x 844): from what is owed to the demo builder's
-// overdue invoice, its chase log, a call noted, the statutory claim worked out with its caution
+// overdue invoice, its chase log, a call with a promise noted (a past day refused beside its field),
+// an entry removed the same day, the statutory claim worked out with its caution
 // and letter; then the reminder words changed, a bad day refused beside its field.
 import { describe, expect, it } from 'vitest'
 import { Client } from '../support/client'
-import { expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
+import { addDays, londonToday } from '../../shared/utils/dates'
+import { PROMISE_DATE_PAST } from '../../shared/utils/chase'
+import { expectAbsent, expectCleanRun, expectText, expectVisible, screenshot, signInToDashboard, useE2E, visit } from './browser'
 import { OFFICE } from './demo'
 
 const e2e = useE2E()
@@ -23,9 +26,31 @@ describe('chasing what is owed', () => {
     const chase = page.getByTestId('chase')
     await expectVisible(chase.getByText('Reminder 14 days after the due date'))
 
-    await chase.getByLabel('Add to the log').selectOption('call')
+    // a call and its promise in one entry; a day already past is refused beside its field, nothing typed lost
+    await chase.getByLabel('How you chased').selectOption('call')
+    await chase.getByLabel('How it went').selectOption('promised')
+    await chase.getByLabel('Amount promised (£)').fill('500')
+    await chase.getByLabel('Promised to pay by').fill(addDays(londonToday(), -1))
     await chase.getByLabel('What was said').fill('Priti says it is in this week\'s payment run')
     await chase.getByRole('button', { name: 'Add to the log' }).click()
+    await expectVisible(chase.getByText(PROMISE_DATE_PAST))
+    expect(await chase.getByLabel('What was said').inputValue()).toBe('Priti says it is in this week\'s payment run')
+    expect(await chase.getByLabel('Amount promised (£)').inputValue()).toBe('500')
+    await chase.getByLabel('Promised to pay by').fill(londonToday())
+    await chase.getByRole('button', { name: 'Add to the log' }).click()
+    await expectVisible(chase.getByText('Priti says it is in this week\'s payment run'))
+    await expectVisible(chase.getByText(/£500\.00 promised by/))
+
+    // an entry written by mistake, taken back out the same day (asked first)
+    await chase.getByLabel('How you chased').selectOption('letter')
+    await chase.getByLabel('How it went').selectOption('no-reply')
+    await chase.getByLabel('What was said').fill('Sent to the wrong office')
+    await chase.getByRole('button', { name: 'Add to the log' }).click()
+    const mistake = chase.getByTestId('chase-log').locator('li', { hasText: 'Sent to the wrong office' })
+    await expectVisible(mistake)
+    await mistake.getByRole('button', { name: 'Remove' }).click()
+    await page.getByRole('alertdialog').getByRole('button', { name: 'Remove the entry' }).click()
+    await expectAbsent(mistake)
     await expectVisible(chase.getByText('Priti says it is in this week\'s payment run'))
 
     const claim = page.getByTestId('late-claim')

@@ -68,6 +68,8 @@ const TABLE: Record<string, [Need, string]> = {
   'DELETE /api/invoices/:id': ['money:write', '401 ok ok 403 403 404'],
   'GET /api/invoices/:id': ['money:read', '401 ok ok 403 ok 404'],
   'POST /api/invoices/:id/chase-notes': ['money:write', '401 ok ok 403 403 404'],
+  // the table's entry was written by the owner: the office (another writer) is refused it in words
+  'DELETE /api/invoices/:id/chase-notes/:noteId': ['money:write', '401 ok 403 403 403 404'],
   'GET /api/invoices/:id/claim': ['money:read', '401 ok ok 403 ok 404'],
   'POST /api/invoices/:id/credit-note': ['money:write', '401 ok ok 403 403 404'],
   'PUT /api/invoices/:id/draft': ['money:write', '401 ok ok 403 403 404'],
@@ -109,6 +111,7 @@ const TABLE: Record<string, [Need, string]> = {
   'GET /api/profit': ['money:read', '401 ok ok 403 ok ok'],
   // Today: every role has one (each its own lists); another firm's owner gets their own firm's
   'GET /api/today': ['firm:read', '401 ok ok ok ok ok'],
+  'GET /api/promises/broken': ['money:read', '401 ok ok 403 ok ok'],
   'GET /api/public/enquiry-forms/:key': ['public', 'ok ok ok ok ok ok'],
   'POST /api/public/enquiry-forms/:key': ['public', 'ok ok ok ok ok ok'],
   'GET /api/public/invoices/:token': ['public', 'ok ok ok ok ok ok'],
@@ -172,6 +175,7 @@ const TABLE: Record<string, [Need, string]> = {
 const FRESH: Record<string, { param: string, make: (f: Firm) => Promise<string> }> = {
   'DELETE /api/cis-statements/:id': { param: 'id', make: f => f.fresh.cisStatement() },
   'DELETE /api/documents/:id': { param: 'id', make: f => f.fresh.document() },
+  'DELETE /api/invoices/:id/chase-notes/:noteId': { param: 'noteId', make: f => f.fresh.chaseNote() },
   'DELETE /api/jobs/:id/logs/:logId': { param: 'logId', make: f => f.fresh.setLog() },
   'DELETE /api/photos/:id': { param: 'id', make: f => f.fresh.photo() },
   'DELETE /api/purchases/:id': { param: 'id', make: f => f.fresh.purchase() },
@@ -192,9 +196,10 @@ const ROLES_OF_FIRM = ['owner', 'office', 'crew', 'accountant'] as const
 /**
  * Routes on a row that is someone's own: a role with the permission is still refused (403, in
  * words) a row that is not theirs. A set log entry is changed by the person who logged it (that
- * day) or the owner; the table's entry was logged by the owner.
+ * day) or the owner; the table's entry was logged by the owner. A chase log entry likewise (its
+ * writer that day, or the owner); the table's was written by the owner.
  */
-const OWN_ROWS = new Set(['PATCH /api/jobs/:id/logs/:logId', 'DELETE /api/jobs/:id/logs/:logId'])
+const OWN_ROWS = new Set(['PATCH /api/jobs/:id/logs/:logId', 'DELETE /api/jobs/:id/logs/:logId', 'DELETE /api/invoices/:id/chase-notes/:noteId'])
 
 function expected(key: string): Record<Caller, Outcome> {
   const tokens = TABLE[key]![1].split(/\s+/)

@@ -171,6 +171,7 @@ export interface Firm {
     purchase(): Promise<string>
     photo(): Promise<string>
     setLog(): Promise<string>
+    chaseNote(): Promise<string>
     document(): Promise<string>
     invitation(): Promise<string>
     room(): Promise<string>
@@ -265,6 +266,13 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
   const invoiceToken = /\/i\/([\w-]+)/.exec(invoiceMail.text ?? '')![1]!
   const paid = ok(await o.post(`/api/invoices/${toIssue.id}/payments`, { requestId: randomUUID(), method: 'transfer', amountPence: 50_00, receivedOn: TODAY, reference: 'BACS 1' }), 'payment')
   const paymentId = paid.payments[0].id
+  // an entry in the issued invoice's chase log (a call, written by the owner), for its removal
+  const newChaseNote = async () => {
+    const note = `Rang, no answer (${randomUUID().slice(0, 8)})`
+    const chase = ok(await o.post(`/api/invoices/${toIssue.id}/chase-notes`, { kind: 'call', outcome: 'no-reply', note }), 'chase note').chase as { id: string, note: string }[]
+    return chase.find(c => c.note === note)!.id
+  }
+  const chaseNoteId = await newChaseNote()
 
   const newPurchase = async () => ok(await o.post('/api/purchases', { supplier: 'Trowel & Hawk Supplies', boughtOn: TODAY, category: 'materials', netPence: 100_00, vatPence: 20_00, jobs: [{ jobId: job.id, netPence: 50_00 }] }), 'purchase').id as string
   const purchaseId = await newPurchase()
@@ -331,6 +339,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
       documentId,
       invitationId: openInvitation.id,
       setLogId,
+      chaseNoteId,
     },
     tokens: { invitation: invitationTokenValue, quote: quoteToken, invoice: invoiceToken, calendar: calendarToken, formKey: firm.enquiryFormKey },
     vat: { invoice: draftInvoice.vat, quote: draftQuoteDetail.current.vat },
@@ -339,6 +348,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
       purchase: newPurchase,
       photo: newPhoto,
       setLog: newSetLog,
+      chaseNote: newChaseNote,
       document: newDocument,
       invitation: async () => (await invite()).id,
       room: async () => {
@@ -383,7 +393,7 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
   'POST /api/enquiries': f => ({ customerId: f.ids.customerId, siteId: f.ids.siteId, source: 'message', description: 'Patch a ceiling after a leak', preferredDates: '', followUpOn: null }),
   'PATCH /api/firm': f => ({ tradingName: f.name, addressLine1: '1 Hawk Lane', addressLine2: '', town: 'Kettlebury', postcode: 'KB1 1AA', email: 'office@test.example', phone: '01632 960000', vatRegistered: false, vatNumber: null, cisStatus: 'not-registered', utr: null, dayRatePence: 220_00, paymentTermsDays: 14, invoicePrefix: 'INV-', takesTransfer: true, bankAccountName: f.name, bankSortCode: '00-00-00', bankAccountNumber: '00000000' }),
   'POST /api/invitations/:token/accept': () => ({ name: 'Ivo Newstart', password: GOOD_PASSWORD }),
-  'POST /api/invoices/:id/chase-notes': () => ({ kind: 'promise', note: 'Will pay on Friday', promisedOn: inDays(3) }),
+  'POST /api/invoices/:id/chase-notes': () => ({ kind: 'call', outcome: 'promised', note: 'Will pay on Friday', promisedPence: 100_00, promisedOn: inDays(3) }),
   'PUT /api/invoices/:id/draft': f => ({ vat: f.vat.invoice, vatReason: '', cisRatePercent: null, notes: 'Thank you', lines: [{ kind: 'labour', description: 'Skim the landing ceiling', quantityX1000: 1500, unit: 'm²', unitPence: 12_00, vatRatePercent: 0 }] }),
   'POST /api/invoices/:id/payments': () => ({ requestId: randomUUID(), method: 'cheque', amountPence: 10_00, receivedOn: TODAY, reference: 'Cheque 100234' }),
   'POST /api/invoices/:id/refunds': f => ({ paymentId: f.ids.paymentId, amountPence: 1_00, reference: 'Overpaid' }),
@@ -456,12 +466,14 @@ const ROW_FOR_RESOURCE: Record<string, string> = {
   'invitations': 'invitationId',
   'visits': 'visitId',
   'logs': 'setLogId',
+  'chase-notes': 'chaseNoteId',
 }
 
 export const ROW_FOR_ROUTE: Record<string, Partial<Record<string, string>>> = {
   // issued: these act on an issued invoice (a draft would 409 before the body is read, or be issued)
   'DELETE /api/invoices/:id': { id: 'issuedInvoiceId' },
   'POST /api/invoices/:id/chase-notes': { id: 'issuedInvoiceId' },
+  'DELETE /api/invoices/:id/chase-notes/:noteId': { id: 'issuedInvoiceId' },
   'POST /api/invoices/:id/issue': { id: 'issuedInvoiceId' },
   'POST /api/invoices/:id/payments': { id: 'issuedInvoiceId' },
   'POST /api/invoices/:id/refunds': { id: 'issuedInvoiceId' },

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import {
   KIND_URGENCY, MAX_WAIT_BONUS, cisReturnAction, dayNoSetAction, daysWaited, enquiryAction, invoiceOverdueAction,
-  onceEach, setupActions, sortActions, urgencyOf, vatReturnAction, waitingWords, type NextAction,
+  onceEach, promiseOverOverdue, setupActions, sortActions, urgencyOf, vatReturnAction, waitingWords, type NextAction,
 } from '../../shared/utils/next-actions'
 import { vatQuarter, cisTaxMonth } from '../../shared/utils/periods'
 
@@ -48,6 +48,16 @@ describe('onceEach: a thing listed once', () => {
   it('drops later copies of a key (one job on two people\'s days)', () => {
     expect(onceEach([action('x', 1, '2026-12-01'), action('y', 1, '2026-12-01'), action('x', 9, '2026-12-02')]).map(a => a.key)).toEqual(['x', 'y'])
   })
+})
+
+describe('promiseOverOverdue: an invoice chased once', () => {
+  const on = (kind: NextAction['kind'], key: string, href: string): NextAction => ({ ...action(key, 1, '2026-12-01'), kind, href })
+  it.each<[string, NextAction[], string[]]>([
+    ['a broken promise replaces the same invoice overdue', [on('invoice-overdue', 'o1', '/invoices/1'), on('promise-broken', 'p1', '/invoices/1')], ['p1']],
+    ['another invoice overdue stays', [on('invoice-overdue', 'o2', '/invoices/2'), on('promise-broken', 'p1', '/invoices/1')], ['o2', 'p1']],
+    ['no promise: overdue stays', [on('invoice-overdue', 'o1', '/invoices/1')], ['o1']],
+    ['other kinds to the same page stay', [on('job-not-invoiced', 'j1', '/jobs/1'), on('day-no-set-logged', 'd1', '/jobs/1')], ['j1', 'd1']],
+  ])('%s', (_what, list, want) => expect(promiseOverOverdue(list).map(a => a.key)).toEqual(want))
 })
 
 describe('the words of each action', () => {

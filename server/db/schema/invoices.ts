@@ -13,6 +13,7 @@ import { lineKind, vatTreatment } from './quotes'
 import { jobs } from './jobs'
 import { INVOICE_KINDS, PAYMENT_METHODS } from '../../../shared/utils/invoices'
 import { PURCHASE_CATEGORIES } from '../../../shared/schemas/purchase'
+import type { ChaseKind, ChaseOutcome } from '../../../shared/utils/chase'
 
 /** What an issued invoice keeps of who it is from and to (see `invoices.parties`). */
 export interface InvoiceParties {
@@ -152,14 +153,22 @@ export const stripeEvents = pgTable('stripe_events', {
   firmPolicy('stripe_events'),
 ]).enableRLS()
 
-/** The chase log of an invoice: calls, messages, promises to pay, reminders sent. */
+/**
+ * The chase log of an invoice: the partner's calls, messages and letters (how each went, and a
+ * promise to pay when there was one), and the reminders sent by the schedule or by hand.
+ */
 export const chaseNotes = pgTable('chase_notes', {
   firmId: firmColumn(),
   id: uuid().notNull().defaultRandom(),
   invoiceId: uuid().notNull(),
-  kind: text().$type<'call' | 'message' | 'promise' | 'reminder'>().notNull(),
+  kind: text().$type<ChaseKind | 'reminder'>().notNull(),
+  /** How it went (shared/utils/chase.ts); null on reminders. */
+  outcome: text().$type<ChaseOutcome>(),
   note: text().notNull().default(''),
+  /** With the outcome "promised": the day they promised to pay by... */
   promisedOn: date({ mode: 'string' }),
+  /** ...and how much (null on promises logged before amounts were kept: the whole of what was owed). */
+  promisedPence: integer(),
   /** A reminder sent by the schedule: invoice + step, so a retried job never sends twice. */
   reminderKey: text(),
   /** When the reminder's e-mail went (null while sending, or when it failed). */
@@ -170,7 +179,12 @@ export const chaseNotes = pgTable('chase_notes', {
   primaryKey({ columns: [t.firmId, t.id] }),
   foreignKey({ name: 'chase_notes_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }).onDelete('cascade'),
   index('chase_notes_invoice_idx').on(t.firmId, t.invoiceId),
+  /** The promises of a firm, newest first per invoice: the broken-promise list (server/utils/promises.ts). */
+  index('chase_notes_promise_idx').on(t.firmId, t.invoiceId, t.at).where(sql`${t.promisedOn} is not null`),
   unique('chase_notes_reminder_unique').on(t.firmId, t.reminderKey),
+  check('chase_notes_kind', sql`${t.kind} in ('call', 'message', 'letter', 'reminder')`),
+  check('chase_notes_outcome', sql`(${t.kind} = 'reminder') = (${t.outcome} is null) and (${t.outcome} is null or ${t.outcome} in ('promised', 'no-reply', 'disputed', 'says-paid', 'other'))`),
+  check('chase_notes_promise', sql`(coalesce(${t.outcome}, '') = 'promised') = (${t.promisedOn} is not null) and (${t.promisedPence} is null or (${t.promisedOn} is not null and ${t.promisedPence} > 0))`),
   firmPolicy('chase_notes'),
 ]).enableRLS()
 
