@@ -113,6 +113,22 @@ export function dayRateVerdict(ratePence: number | null, targetPence: number, st
   return { standing: 'on', shape: '●', words: 'On your target day rate', tone: 'good', differencePence }
 }
 
+/** Where a job's materials figure came from, in words. */
+export const MATERIALS_FROM_NOTE = { 'purchases': 'from receipts', 'set-log': 'from the set log', 'none': 'none recorded' } as const
+
+/**
+ * A job's costs in words, only the parts it had: "materials £100.00 from receipts, labour paid
+ * £90.00"; "none recorded" when it had none (worth a look: were the receipts put against the job?).
+ */
+export function costsInWords(r: { materialsPence: number, materialsFrom: keyof typeof MATERIALS_FROM_NOTE, otherCostsPence: number, labourPaidPence: number }): string {
+  const parts = [
+    r.materialsPence ? `materials ${formatPence(r.materialsPence)} ${MATERIALS_FROM_NOTE[r.materialsFrom]}` : '',
+    r.otherCostsPence ? `other costs ${formatPence(r.otherCostsPence)}` : '',
+    r.labourPaidPence ? `labour paid ${formatPence(r.labourPaidPence)}` : '',
+  ].filter(Boolean)
+  return parts.length ? parts.join(', ') : 'none recorded'
+}
+
 /** The rows the totals count (finished jobs, and the ones still on site when asked for) and the ones kept apart. */
 export function splitProfitRows<T extends { provisional: boolean }>(rows: readonly T[], countOnSite: boolean): { counted: T[], apart: T[] } {
   const counted: T[] = []

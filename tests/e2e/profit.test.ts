@@ -86,10 +86,12 @@ describe('is the work paying?', () => {
     expect(kitchenCard).toMatch(/Day rate earned £500\.00 a day/)
     expect(kitchenCard).toContain('Your target day rate £200.00')
     expect(kitchenCard).toContain('▲ £300.00 a day above your target')
+    expect(kitchenCard).toContain('Costs materials £100.00 from receipts £100.00')
     expect(kitchenCard).toMatch(/Margin on the price left after costs as a share of the price; not the day rate 83\.3%/)
     const loftCard = await textOf(card(loft!.reference))
     expect(loftCard).toMatch(/Day rate earned £125\.00 a day/)
     expect(loftCard).toContain('▼ £75.00 a day below your target')
+    expect(loftCard).toContain('Costs none recorded £0.00')
     // the job on site: its day rate so far, not judged (no red "below"), listed apart after its heading
     const extensionCard = await textOf(card(extension!.reference))
     expect(extensionCard).toMatch(/Day rate so far £100\.64 a day/)

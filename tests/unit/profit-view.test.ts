@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import {
-  dayRateAgainst, dayRateVerdict, nextProfitSort, PROFIT_CHOSEN_COLUMNS, PROFIT_EVERY_COLUMN, PROFIT_FIGURES, PROFIT_SORT_KEYS, profitChartSummary, profitColumns,
+  costsInWords, dayRateAgainst, dayRateVerdict, nextProfitSort, PROFIT_CHOSEN_COLUMNS, PROFIT_EVERY_COLUMN, PROFIT_FIGURES, PROFIT_SORT_KEYS, profitChartSummary, profitColumns,
   sortProfitRows, sortWithin, splitProfitRows, type DayRateVerdict, type ProfitSort, type SortableProfitRow,
 } from '../../shared/utils/profit-view'
 
@@ -120,4 +120,14 @@ describe('the columns: chosen for a laptop, every figure behind the toggle', () 
     expect(new Set(labels).size).toBe(labels.length)
     for (const f of Object.values(PROFIT_FIGURES)) expect(f.hint).toMatch(/\.$/)
   })
+})
+
+describe('costsInWords: only the costs a job had', () => {
+  it.each<[number, 'purchases' | 'set-log' | 'none', number, number, string]>([
+    [100_00, 'purchases', 0, 0, 'materials £100.00 from receipts'],
+    [21_99, 'set-log', 12_50, 90_00, 'materials £21.99 from the set log, other costs £12.50, labour paid £90.00'],
+    [0, 'none', 0, 90_00, 'labour paid £90.00'],
+    [0, 'none', 0, 0, 'none recorded'],
+  ])('%i %s %i %i', (materialsPence, materialsFrom, otherCostsPence, labourPaidPence, want) =>
+    expect(costsInWords({ materialsPence, materialsFrom, otherCostsPence, labourPaidPence })).toBe(want))
 })
