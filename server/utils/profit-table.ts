@@ -16,21 +16,26 @@
 //   half day, for whoever worked it (shared/utils/jobs.ts daysWorked, summed over the people). Two
 //   people on site for a day are two days: the day rate the firm aims for is per person.
 // - target: the firm's day rate (firms.day_rate_pence).
-// Totals: the sum of each pence column and of the days; the effective day rate and the margin are
-// worked out again from the totals (not averaged from the rows).
+// - provisional: a job still on site (booked or on site, not marked finished: shared/utils/profit.ts
+//   isStillOnSite). Its figures are so far only (a deposit may be all that is invoiced), so the
+//   page shows it apart and never judges it against the target.
+// Totals: the finished jobs' (and the ones still on site too with `onSite: 'include'`): the sum of
+// each pence column and of the days; the effective day rate and the margin are worked out again
+// from the totals (not averaged from the rows). `onSiteJobs` counts the jobs still on site.
 //
 // Five grouped queries whatever the number of jobs; a request covers at most 366 days.
 import { and, asc, eq, inArray, isNotNull, ne, sql } from 'drizzle-orm'
 import { customers, firms, invoices, jobDays, jobs, materialUses, purchaseJobs, purchases } from '../db/schema'
 import { CUSTOMER_KIND_LABELS, type CustomerKind } from '#shared/utils/ledger'
-import { jobProfit } from '#shared/utils/profit'
+import { isStillOnSite, jobProfit } from '#shared/utils/profit'
+import type { ProfitOnSite } from '#shared/schemas/profit'
 import type { JobStatus } from '#shared/utils/jobs'
 import { poundsCell, toCsv, type CsvCell } from '#shared/utils/csv'
 
 // The query's schema (at most PROFIT_MAX_DAYS days, one kind of customer) is shared/schemas/profit.ts.
 
 /** Shown wherever the figures are (shared/utils/profit.ts gives the basis). */
-export const PROFIT_CAUTION = 'A rule of thumb, not accounts or tax advice: these figures leave out your overheads (van, insurance, tools kept between jobs), VAT and tax, and your own time off site (quoting, buying, paperwork). Your accountant decides what your books say.'
+export const PROFIT_CAUTION = 'A rule of thumb for pricing your work, not accounts or tax advice: these figures leave out your overheads (van, insurance, tools kept between jobs), VAT and tax, and your own time off site (quoting, buying, paperwork); a job still on site shows its figures so far. Your accountant decides what your books say.'
 
 export type PriceFrom = 'invoiced' | 'as-won'
 export type MaterialsFrom = 'purchases' | 'set-log' | 'none'
@@ -42,6 +47,8 @@ export interface ProfitRow {
   reference: string
   title: string
   status: JobStatus
+  /** Still on site (not yet marked finished): the figures are so far only, kept apart from the totals by default. */
+  provisional: boolean
   customerId: string
   customerName: string
   customerKind: CustomerKind
@@ -50,6 +57,10 @@ export interface ProfitRow {
   lastDay: string
   priceNetPence: number
   priceFrom: PriceFrom
+  /** The price the job was won at (jobs.net_pence), whatever has been invoiced so far. */
+  priceAsWonPence: number
+  /** Materials, other costs and labour paid to others, together. */
+  costsPence: number
   materialsPence: number
   materialsFrom: MaterialsFrom
   otherCostsPence: number
@@ -67,6 +78,7 @@ export interface ProfitRow {
 export interface ProfitTotals {
   jobs: number
   priceNetPence: number
+  costsPence: number
   materialsPence: number
   otherCostsPence: number
   labourPaidPence: number
@@ -79,10 +91,19 @@ export interface ProfitTotals {
   marginPercent: number | null
 }
 
-export interface ProfitTable { rows: ProfitRow[], totals: ProfitTotals, targetDayRatePence: number }
+export interface ProfitTable {
+  rows: ProfitRow[]
+  totals: ProfitTotals
+  targetDayRatePence: number
+  /** Whether the totals count the jobs still on site ('apart': they do not). */
+  onSite: ProfitOnSite
+  /** How many of the rows are jobs still on site. */
+  onSiteJobs: number
+}
 
 /** The profit table of the firm's jobs whose last worked day falls in [from, to]. */
-export async function profitTable(f: FirmScope, q: { from: string, to: string, customerKind?: CustomerKind }): Promise<ProfitTable> {
+export async function profitTable(f: FirmScope, q: { from: string, to: string, customerKind?: CustomerKind, onSite?: ProfitOnSite }): Promise<ProfitTable> {
+  const onSite = q.onSite ?? 'apart'
   const [firm] = await f.tx.select({ dayRatePence: firms.dayRatePence }).from(firms).where(eq(firms.id, f.firmId))
   const targetDayRatePence = firm?.dayRatePence ?? 0
 
@@ -158,20 +179,23 @@ export async function profitTable(f: FirmScope, q: { from: string, to: string, c
     const daysWorked = halfDaysWorked / 2
     const profit = jobProfit({ priceNetPence, materialsPence, otherCostsPence: c.other, labourPaidPence: c.labour, daysWorked, targetDayRatePence })
     return {
-      jobId: j.id, reference: jobReference(letters, j.number), title: j.title, status: j.status,
+      jobId: j.id, reference: jobReference(letters, j.number), title: j.title, status: j.status, provisional: isStillOnSite(j.status),
       customerId: j.customerId, customerName: j.customerName, customerKind: j.customerKind,
       firstDay: j.firstDay, lastDay: j.lastDay,
-      priceNetPence, priceFrom, materialsPence, materialsFrom, otherCostsPence: c.other, labourPaidPence: c.labour,
+      priceNetPence, priceFrom, priceAsWonPence: j.netPence, costsPence: materialsPence + c.other + c.labour,
+      materialsPence, materialsFrom, otherCostsPence: c.other, labourPaidPence: c.labour,
       halfDaysWorked, daysWorked, ...profit,
     }
   })
 
-  const sum = (k: 'priceNetPence' | 'materialsPence' | 'otherCostsPence' | 'labourPaidPence' | 'halfDaysWorked' | 'targetPricePence' | 'differencePence') => rows.reduce((s, r) => s + r[k], 0)
+  const counted = onSite === 'include' ? rows : rows.filter(r => !r.provisional)
+  const sum = (k: 'priceNetPence' | 'costsPence' | 'materialsPence' | 'otherCostsPence' | 'labourPaidPence' | 'halfDaysWorked' | 'targetPricePence' | 'differencePence') => counted.reduce((s, r) => s + r[k], 0)
   const halfDaysWorked = sum('halfDaysWorked')
   const whole = jobProfit({ priceNetPence: sum('priceNetPence'), materialsPence: sum('materialsPence'), otherCostsPence: sum('otherCostsPence'), labourPaidPence: sum('labourPaidPence'), daysWorked: halfDaysWorked / 2, targetDayRatePence })
   const totals: ProfitTotals = {
-    jobs: rows.length,
+    jobs: counted.length,
     priceNetPence: sum('priceNetPence'),
+    costsPence: sum('costsPence'),
     materialsPence: sum('materialsPence'),
     otherCostsPence: sum('otherCostsPence'),
     labourPaidPence: sum('labourPaidPence'),
@@ -184,7 +208,7 @@ export async function profitTable(f: FirmScope, q: { from: string, to: string, c
     differencePence: sum('differencePence'),
     marginPercent: whole.marginPercent,
   }
-  return { rows, totals, targetDayRatePence }
+  return { rows, totals, targetDayRatePence, onSite, onSiteJobs: rows.filter(r => r.provisional).length }
 }
 
 /** The CSV's columns, in words; amounts in pounds with two decimals, dates ISO. */
@@ -192,7 +216,8 @@ export const PROFIT_CSV_HEADER = [
   'Job', 'Job title', 'Customer', 'Customer kind', 'First day worked', 'Last day worked', 'Days worked',
   'Price net (pounds)', 'Price from', 'Materials (pounds)', 'Materials from', 'Other costs (pounds)',
   'Labour paid to others (pounds)', 'Left after costs (pounds)', 'Day rate earned (pounds)',
-  'Target day rate (pounds)', 'Target price (pounds)', 'Difference from target price (pounds)', 'Margin (percent)',
+  'Target day rate (pounds)', 'Target price (pounds)', 'Difference from target price (pounds)', 'Margin on the price (percent)',
+  'Still on site (figures so far)',
 ] as const
 
 /** The table as CSV text (one row per job, no totals row, so a spreadsheet's own sums are right). */
@@ -203,6 +228,7 @@ export function profitCsv(table: ProfitTable): string {
     poundsCell(r.otherCostsPence), poundsCell(r.labourPaidPence), poundsCell(r.contributionPence), poundsCell(r.effectiveDayRatePence),
     poundsCell(table.targetDayRatePence), poundsCell(r.targetPricePence), poundsCell(r.differencePence),
     r.marginPercent === null ? '' : r.marginPercent.toFixed(1),
+    r.provisional ? 'Yes' : 'No',
   ])
   return toCsv(PROFIT_CSV_HEADER, rows)
 }

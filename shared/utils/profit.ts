@@ -21,6 +21,8 @@
 // -250.5p -> -251p, so a loss rounds to the same size as a profit of the same size (only the
 // effective day rate and the margin can be negative). Anything else is a RangeError naming the field.
 
+import type { JobStatus } from './jobs'
+
 export interface JobProfitInput {
   /** The price of the job, excluding VAT. */
   priceNetPence: number
@@ -99,4 +101,21 @@ export function jobProfit(input: JobProfitInput): JobProfit {
     differencePence: toSafe(price - targetPrice, 'differencePence'),
     marginPercent: marginTenths === null ? null : Number(marginTenths) / 10,
   }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Provisional: a job still on site
+
+/**
+ * The statuses of a job still on site (our rule): booked or on site, not yet marked finished. Its
+ * figures are so far only (a deposit may be all that is invoiced, more days may come), so the
+ * profit table shows it as provisional, apart from the totals unless asked for, and never judges
+ * its day rate against the target. Finished, invoiced and paid jobs are judged; cancelled ones are
+ * not in the table at all.
+ */
+export const STILL_ON_SITE_STATUSES = ['booked', 'in-progress'] as const satisfies readonly JobStatus[]
+
+/** Whether a job's profit figures are provisional: it is still on site (see STILL_ON_SITE_STATUSES). */
+export function isStillOnSite(status: JobStatus): boolean {
+  return (STILL_ON_SITE_STATUSES as readonly JobStatus[]).includes(status)
 }

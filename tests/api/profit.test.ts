@@ -9,7 +9,8 @@ import { penceToDecimal } from '#shared/utils/money'
 // Is the work paying? (issue 7): each job whose last worked day falls in the period, its price
 // (invoiced, or as won) against materials (receipts, or the set log at cost), other costs, labour
 // paid to others and the person-days worked, against the firm's target day rate; the same table as
-// a CSV; money kept from crew, from people signed out and from other firms.
+// a CSV; money kept from crew, from people signed out and from other firms. Jobs still on site
+// (issue 18) are marked provisional and left out of the totals unless `onSite=include`.
 
 let app: TestApp
 let owner: Client
@@ -39,10 +40,22 @@ async function customer(client: Client, kind: string, name: string) {
   return res.body as { id: string, email: string }
 }
 
-async function directJob(client: Client, customerId: string, title: string) {
-  const res = await client.post('/api/jobs', { customerId, title })
+async function directJob(client: Client, customerId: string, title: string, price: { labourNetPence?: number, materialsNetPence?: number } = {}) {
+  const res = await client.post('/api/jobs', { customerId, title, ...price })
   expect(res.status, JSON.stringify(res.body)).toBe(201)
   return res.body as { id: string, reference: string }
+}
+
+/** Move a job on by hand to `to` (booked -> on site -> finished), as the job page does. */
+async function moveJob(client: Client, jobId: string, to: 'in-progress' | 'finished') {
+  const path: string[] = []
+  const now = (await client.get(`/api/jobs/${jobId}`)).body.status as string
+  if (now === 'booked') path.push('in-progress')
+  if (to === 'finished' && now !== 'finished') path.push('finished')
+  for (const step of path) {
+    const res = await client.post(`/api/jobs/${jobId}/status`, { to: step })
+    expect(res.status, JSON.stringify(res.body)).toBe(200)
+  }
 }
 
 /** Book the days, then mark as worked those not given `worked: false`. */
@@ -104,7 +117,7 @@ async function jobFromAcceptedQuote(client: Client) {
 }
 
 // The firm's jobs in March 2026, made in beforeAll; their rows are checked below.
-const jobs: Record<'hand' | 'quoted' | 'landlord' | 'cancelled' | 'runsOn' | 'notWorked' | 'theirs', { id: string, reference: string }> = {} as never
+const jobs: Record<'hand' | 'quoted' | 'landlord' | 'cancelled' | 'runsOn' | 'notWorked' | 'onSite' | 'theirs', { id: string, reference: string }> = {} as never
 let quotedPrice = 0
 
 beforeAll(async () => {
@@ -143,6 +156,7 @@ beforeAll(async () => {
   expect(note.status, JSON.stringify(note.body)).toBe(201)
   expect((await owner.post(`/api/invoices/${note.body.id}/issue`)).status).toBe(200)
   await invoice(owner, jobs.hand.id, ffion.id, [{ kind: 'labour', unitPence: 999_00 }], false)
+  await moveJob(owner, jobs.hand.id, 'finished')
 
   // 2. a job won from a quote, nothing invoiced but a draft: the price as won; no receipts, so the
   //    set log's bags at the cost recorded; two people for a day
@@ -159,11 +173,13 @@ beforeAll(async () => {
     expect(logged.status, JSON.stringify(logged.body)).toBe(201)
   }
   await invoice(owner, jobs.quoted.id, quoted.customer.id, [{ kind: 'labour', unitPence: 10_00 }], false)
+  await moveJob(owner, jobs.quoted.id, 'finished')
 
   // 3. a landlord's job: one day, nothing priced, nothing bought (its name starts like a formula)
   const lets = await customer(owner, 'landlord', '=Harbour Lets')
   jobs.landlord = await directJob(owner, lets.id, 'Patch the stairwell')
   await bookDays(owner, jobs.landlord.id, [{ day: '2026-03-10', userId: crewId }])
+  await moveJob(owner, jobs.landlord.id, 'finished')
 
   // 4. cancelled after a day's work: never in the table
   jobs.cancelled = await directJob(owner, lets.id, 'Ceiling (cancelled)')
@@ -173,10 +189,20 @@ beforeAll(async () => {
   // 5. worked in March and again in April: its last worked day is in April
   jobs.runsOn = await directJob(owner, ffion.id, 'Render the back wall')
   await bookDays(owner, jobs.runsOn.id, [{ day: '2026-03-25', userId: ownerId }, { day: '2026-04-02', userId: ownerId }])
+  await moveJob(owner, jobs.runsOn.id, 'finished')
 
   // 6. booked in March, never marked worked
   jobs.notWorked = await directJob(owner, ffion.id, 'Booked, not yet started')
   await bookDays(owner, jobs.notWorked.id, [{ day: '2026-03-16', userId: ownerId, worked: false }])
+
+  // 7. still on site (issue 18): won at £1,200.00, two days worked so far, only a deposit of
+  //    £201.28 invoiced: £100.64 a day so far, which is not what the job earned
+  jobs.onSite = await directJob(owner, ffion.id, 'Board and skim the extension', { labourNetPence: 1_000_00, materialsNetPence: 200_00 })
+  await bookDays(owner, jobs.onSite.id, [{ day: '2026-03-26', userId: ownerId }, { day: '2026-03-27', userId: ownerId }, { day: '2026-04-20', userId: ownerId, worked: false }])
+  await moveJob(owner, jobs.onSite.id, 'in-progress')
+  const deposit = await owner.post('/api/invoices', { kind: 'deposit', jobId: jobs.onSite.id, amountPence: 201_28 })
+  expect(deposit.status, JSON.stringify(deposit.body)).toBe(201)
+  expect((await owner.post(`/api/invoices/${deposit.body.id}/issue`)).status).toBe(200)
 
   // another firm's job, worked in March
   const theirOwnerId = (await other.get('/api/me')).body.user.id
@@ -184,6 +210,7 @@ beforeAll(async () => {
   jobs.theirs = await directJob(other, theirCustomer.id, 'Their job')
   await bookDays(other, jobs.theirs.id, [{ day: '2026-03-15', userId: theirOwnerId }])
   await purchase(other, 'materials', 40_00, [{ jobId: jobs.theirs.id, netPence: 40_00 }])
+  await moveJob(other, jobs.theirs.id, 'finished')
 })
 afterAll(async () => {
   await app?.stop()
@@ -195,7 +222,7 @@ describe('the profit table', () => {
   it('works out a job by hand: invoiced price, receipts, labour paid, a day and a half day', async () => {
     const res = await owner.get(`/api/profit?${MARCH}`)
     expect(res.status, JSON.stringify(res.body)).toBe(200)
-    expect(res.body).toMatchObject({ from: '2026-03-01', to: '2026-03-31', customerKind: null, targetDayRatePence: 200_00 })
+    expect(res.body).toMatchObject({ from: '2026-03-01', to: '2026-03-31', customerKind: null, targetDayRatePence: 200_00, onSite: 'apart', onSiteJobs: 1 })
     expect(res.body.caution).toMatch(/rule of thumb/i)
     expect(res.body.caution).toMatch(/accountant/)
     // By hand (shared/utils/profit.ts rules):
@@ -210,10 +237,10 @@ describe('the profit table', () => {
     //   target price = 120.00 + 12.50 + 90.00 + 1.5 x 200.00 = £522.50
     //   difference = 600.00 - 522.50 = +£77.50; margin = 377.50 / 600.00 = 62.916...% -> 62.9
     expect(row(res.body, jobs.hand)).toEqual({
-      jobId: jobs.hand.id, reference: jobs.hand.reference, title: 'Skim the lounge and hall', status: expect.any(String),
+      jobId: jobs.hand.id, reference: jobs.hand.reference, title: 'Skim the lounge and hall', status: 'finished', provisional: false,
       customerId: expect.any(String), customerName: 'Ffion Lacey', customerKind: 'homeowner',
       firstDay: '2026-03-02', lastDay: '2026-03-03',
-      priceNetPence: 600_00, priceFrom: 'invoiced',
+      priceNetPence: 600_00, priceFrom: 'invoiced', priceAsWonPence: 0, costsPence: 120_00 + 12_50 + 90_00,
       materialsPence: 120_00, materialsFrom: 'purchases',
       otherCostsPence: 12_50, labourPaidPence: 90_00,
       halfDaysWorked: 3, daysWorked: 1.5,
@@ -242,22 +269,25 @@ describe('the profit table', () => {
     })
   })
 
-  it('takes the jobs whose last worked day is in the period, never cancelled or unworked ones, and adds them up', async () => {
+  it('takes the jobs whose last worked day is in the period, never cancelled or unworked ones, and adds up the finished ones', async () => {
     const march = (await owner.get(`/api/profit?${MARCH}`)).body
     // oldest last day first
-    expect(march.rows.map((r: any) => r.reference)).toEqual([jobs.hand.reference, jobs.landlord.reference, jobs.quoted.reference])
+    expect(march.rows.map((r: any) => r.reference)).toEqual([jobs.hand.reference, jobs.landlord.reference, jobs.quoted.reference, jobs.onSite.reference])
     const spring = (await owner.get('/api/profit?from=2026-03-01&to=2026-04-30')).body
-    expect(spring.rows.map((r: any) => r.jobId)).toEqual([jobs.hand.id, jobs.landlord.id, jobs.quoted.id, jobs.runsOn.id])
+    expect(spring.rows.map((r: any) => r.jobId)).toEqual([jobs.hand.id, jobs.landlord.id, jobs.quoted.id, jobs.onSite.id, jobs.runsOn.id])
     expect(row(spring, jobs.runsOn)).toMatchObject({ firstDay: '2026-03-25', lastDay: '2026-04-02', daysWorked: 2 })
     // the period holds the last day, not just any worked day
     expect((await owner.get('/api/profit?from=2026-03-03&to=2026-03-03')).body.rows.map((r: any) => r.jobId)).toEqual([jobs.hand.id])
     expect((await owner.get('/api/profit?from=2026-03-02&to=2026-03-02')).body.rows).toEqual([])
 
-    const sum = (k: string) => march.rows.reduce((s: number, r: any) => s + r[k], 0)
+    // the totals are the finished jobs': the one still on site is left out
+    const finished = march.rows.filter((r: any) => r.jobId !== jobs.onSite.id)
+    const sum = (k: string) => finished.reduce((s: number, r: any) => s + r[k], 0)
     const whole = jobProfit({ priceNetPence: sum('priceNetPence'), materialsPence: sum('materialsPence'), otherCostsPence: sum('otherCostsPence'), labourPaidPence: sum('labourPaidPence'), daysWorked: sum('halfDaysWorked') / 2, targetDayRatePence: 200_00 })
     expect(march.totals).toEqual({
       jobs: 3,
       priceNetPence: 600_00 + quotedPrice,
+      costsPence: 120_00 + 21_99 + 12_50 + 90_00,
       materialsPence: 120_00 + 21_99,
       otherCostsPence: 12_50,
       labourPaidPence: 90_00,
@@ -272,15 +302,65 @@ describe('the profit table', () => {
     })
   })
 
+  it('marks a job still on site provisional, keeps it out of the totals unless asked, and counts it once finished', async () => {
+    const march = (await owner.get(`/api/profit?${MARCH}`)).body
+    // by hand: £201.28 invoiced so far (a deposit) over 2 days = £100.64 a day so far; won at £1,200.00
+    expect(row(march, jobs.onSite)).toMatchObject({
+      status: 'in-progress', provisional: true, priceNetPence: 201_28, priceFrom: 'invoiced', priceAsWonPence: 1_200_00, costsPence: 0,
+      halfDaysWorked: 4, daysWorked: 2, contributionPence: 201_28, effectiveDayRatePence: 100_64,
+    })
+    // every other row is finished: not provisional
+    expect(march.rows.filter((r: any) => r.provisional).map((r: any) => r.jobId)).toEqual([jobs.onSite.id])
+    expect(march).toMatchObject({ onSite: 'apart', onSiteJobs: 1, totals: { jobs: 3 } })
+    expect(march.totals.priceNetPence).toBe(600_00 + quotedPrice)
+
+    // counted on asking: the same rows, the totals with the job on site in them
+    const all = (await owner.get(`/api/profit?${MARCH}&onSite=include`)).body
+    expect(all.rows).toEqual(march.rows)
+    const sum = (k: string) => all.rows.reduce((s: number, r: any) => s + r[k], 0)
+    const whole = jobProfit({ priceNetPence: sum('priceNetPence'), materialsPence: sum('materialsPence'), otherCostsPence: sum('otherCostsPence'), labourPaidPence: sum('labourPaidPence'), daysWorked: sum('halfDaysWorked') / 2, targetDayRatePence: 200_00 })
+    expect(all).toMatchObject({ onSite: 'include', onSiteJobs: 1 })
+    expect(all.totals).toEqual({
+      jobs: 4,
+      priceNetPence: 600_00 + quotedPrice + 201_28,
+      costsPence: sum('costsPence'),
+      materialsPence: sum('materialsPence'),
+      otherCostsPence: 12_50,
+      labourPaidPence: 90_00,
+      halfDaysWorked: 3 + 4 + 2 + 4,
+      daysWorked: 6.5,
+      contributionPence: sum('contributionPence'),
+      effectiveDayRatePence: whole.effectiveDayRatePence,
+      marginPercent: whole.marginPercent,
+      targetPricePence: sum('targetPricePence'),
+      differencePence: sum('differencePence'),
+    })
+    // an empty choice is the default
+    expect((await owner.get(`/api/profit?${MARCH}&onSite=`)).body.totals).toEqual(march.totals)
+    const bad = await owner.get(`/api/profit?${MARCH}&onSite=yes`)
+    expect(bad.status).toBe(400)
+    expect(Object.keys(bad.body.data.fields)).toEqual(['onSite'])
+
+    // marked finished, it is judged and counted like any other; reopened, it is provisional again
+    await moveJob(owner, jobs.onSite.id, 'finished')
+    const done = (await owner.get(`/api/profit?${MARCH}`)).body
+    expect(row(done, jobs.onSite).provisional).toBe(false)
+    expect(done).toMatchObject({ onSiteJobs: 0, totals: { jobs: 4, priceNetPence: 600_00 + quotedPrice + 201_28 } })
+    const reopened = await owner.post(`/api/jobs/${jobs.onSite.id}/status`, { to: 'in-progress' })
+    expect(reopened.status, JSON.stringify(reopened.body)).toBe(200)
+    expect((await owner.get(`/api/profit?${MARCH}`)).body).toMatchObject({ onSiteJobs: 1, totals: { jobs: 3 } })
+  })
+
   it('filters by the kind of customer', async () => {
     const landlords = (await owner.get(`/api/profit?${MARCH}&customerKind=landlord`)).body
     expect(landlords.customerKind).toBe('landlord')
     expect(landlords.rows.map((r: any) => r.jobId)).toEqual([jobs.landlord.id])
     expect(landlords.totals).toMatchObject({ jobs: 1, priceNetPence: 0, differencePence: -200_00 })
     const homeowners = (await owner.get(`/api/profit?${MARCH}&customerKind=homeowner`)).body
-    expect(homeowners.rows.map((r: any) => r.jobId)).toEqual([jobs.hand.id, jobs.quoted.id])
-    expect((await owner.get(`/api/profit?${MARCH}&customerKind=builder`)).body).toMatchObject({ rows: [], totals: { jobs: 0, priceNetPence: 0, effectiveDayRatePence: null, marginPercent: null } })
-    expect((await owner.get(`/api/profit?${MARCH}&customerKind=`)).body.rows).toHaveLength(3)
+    expect(homeowners.rows.map((r: any) => r.jobId)).toEqual([jobs.hand.id, jobs.quoted.id, jobs.onSite.id])
+    expect(homeowners.totals.jobs).toBe(2)
+    expect((await owner.get(`/api/profit?${MARCH}&customerKind=builder`)).body).toMatchObject({ rows: [], onSiteJobs: 0, totals: { jobs: 0, priceNetPence: 0, effectiveDayRatePence: null, marginPercent: null } })
+    expect((await owner.get(`/api/profit?${MARCH}&customerKind=`)).body.rows).toHaveLength(4)
   })
 
   it('answers the same table as a CSV, in words and pounds', async () => {
@@ -292,7 +372,7 @@ describe('the profit table', () => {
     const bytes = new Uint8Array(await res.arrayBuffer())
     expect([...bytes.slice(0, 3)]).toEqual([0xEF, 0xBB, 0xBF])
     const text = new TextDecoder('utf-8', { ignoreBOM: true }).decode(bytes)
-    expect(text.split('\r\n')[0]).toBe('\uFEFFJob,Job title,Customer,Customer kind,First day worked,Last day worked,Days worked,Price net (pounds),Price from,Materials (pounds),Materials from,Other costs (pounds),Labour paid to others (pounds),Left after costs (pounds),Day rate earned (pounds),Target day rate (pounds),Target price (pounds),Difference from target price (pounds),Margin (percent)')
+    expect(text.split('\r\n')[0]).toBe('\uFEFFJob,Job title,Customer,Customer kind,First day worked,Last day worked,Days worked,Price net (pounds),Price from,Materials (pounds),Materials from,Other costs (pounds),Labour paid to others (pounds),Left after costs (pounds),Day rate earned (pounds),Target day rate (pounds),Target price (pounds),Difference from target price (pounds),Margin on the price (percent),Still on site (figures so far)')
     const records = parse(text, { columns: true, bom: true, skip_empty_lines: true }) as Record<string, string>[]
     const pounds = (p: number | null) => (p === null ? '' : penceToDecimal(p))
     expect(records).toEqual(json.rows.map((r: any) => ({
@@ -315,10 +395,12 @@ describe('the profit table', () => {
       'Target day rate (pounds)': '200.00',
       'Target price (pounds)': pounds(r.targetPricePence),
       'Difference from target price (pounds)': pounds(r.differencePence),
-      'Margin (percent)': r.marginPercent === null ? '' : r.marginPercent.toFixed(1),
+      'Margin on the price (percent)': r.marginPercent === null ? '' : r.marginPercent.toFixed(1),
+      'Still on site (figures so far)': r.provisional ? 'Yes' : 'No',
     })))
     // the hand-checked row, as the accountant reads it
-    expect(records[0]).toMatchObject({ 'Price net (pounds)': '600.00', 'Materials (pounds)': '120.00', 'Days worked': '1.5', 'Day rate earned (pounds)': '251.67', 'Difference from target price (pounds)': '77.50', 'Margin (percent)': '62.9' })
+    expect(records[0]).toMatchObject({ 'Price net (pounds)': '600.00', 'Materials (pounds)': '120.00', 'Days worked': '1.5', 'Day rate earned (pounds)': '251.67', 'Difference from target price (pounds)': '77.50', 'Margin on the price (percent)': '62.9', 'Still on site (figures so far)': 'No' })
+    expect(records.find(r => r.Job === jobs.onSite.reference)).toMatchObject({ 'Day rate earned (pounds)': '100.64', 'Still on site (figures so far)': 'Yes' })
     expect(records[1]!['Difference from target price (pounds)']).toBe('-200.00')
   })
 

@@ -198,7 +198,7 @@ const GOOD_QUERIES: Record<string, (f: Firm) => Record<string, string>[]> = {
   'GET /api/jobs': () => [{ status: 'booked', page: '1', pageSize: '50' }],
   'GET /api/owed': () => [{ page: '1', pageSize: '50' }],
   'GET /api/photos': f => [{ visitId: f.ids.visitId! }],
-  'GET /api/profit': () => [{ from: FROM, to: TODAY, customerKind: 'homeowner' }],
+  'GET /api/profit': () => [{ from: FROM, to: TODAY, customerKind: 'homeowner', onSite: 'include' }],
   'GET /api/purchases': f => [{ from: FROM, to: TODAY, jobId: f.ids.jobId! }],
   'GET /api/vat-return': () => PERIODS,
   'GET /api/visits': () => [{ from: `${TODAY}T00:00:00.000Z`, to: VISIT_AT, limit: '50' }],

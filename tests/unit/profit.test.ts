@@ -1,7 +1,8 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import type { JobProfit, JobProfitInput } from '../../shared/utils/profit'
-import { jobProfit } from '../../shared/utils/profit'
+import { isStillOnSite, jobProfit } from '../../shared/utils/profit'
+import { JOB_STATUSES, type JobStatus } from '../../shared/utils/jobs'
 
 // Source: DOMAIN.md ("Is the work paying?"): the day rate is (price - materials - other costs) /
 // days worked, compared with the day rate the plasterer aims for. Our own rules: labour paid to
@@ -153,4 +154,19 @@ describe('jobProfit: bad input is a RangeError naming the field (our own rules)'
     expect(call).toThrow(RangeError)
     expect(call).toThrow(field)
   })
+})
+
+// Our own rule (issue 18): a job still on site (booked or on site, not yet marked finished) has
+// figures so far only; finished, invoiced and paid jobs are judged. Cancelled jobs never reach the
+// table, but are not "on site" either.
+describe('isStillOnSite', () => {
+  it.each<[JobStatus, boolean]>([
+    ['booked', true],
+    ['in-progress', true],
+    ['finished', false],
+    ['invoiced', false],
+    ['paid', false],
+    ['cancelled', false],
+  ])('%s: %s', (status, want) => expect(isStillOnSite(status)).toBe(want))
+  it('covers every status', () => expect(JOB_STATUSES.length).toBe(6))
 })

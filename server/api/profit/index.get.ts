@@ -2,7 +2,8 @@ import { profitQuerySchema } from '#shared/schemas/profit'
 /**
  * Is the work paying? Each job whose last worked day falls in the period (at most 366 days),
  * optionally for one kind of customer: its price against its costs and the days it took, with the
- * totals and the firm's target day rate (server/utils/profit-table.ts). Owner, office and
+ * totals and the firm's target day rate (server/utils/profit-table.ts). Each job still on site is
+ * marked `provisional` and left out of the totals unless `onSite=include`. Owner, office and
  * accountant; crew never see money.
  */
 export default defineEventHandler(async (event) => {
