@@ -50,7 +50,7 @@ describe('the phone\'s bottom bar', () => {
     await expectPath(page, '/customers')
     await expectAbsent(sheet)
     expect(await more.getAttribute('aria-expanded')).toBe('false')
-    expect(await more.evaluate(el => el.className)).toContain('text-plaster-700')
+    await expect.poll(() => more.evaluate(el => el.className), { timeout: 10_000 }).toContain('text-plaster-700')
 
     // Escape and a tap beside the sheet close it too
     await more.click()
