@@ -29,5 +29,11 @@ export const useOfflineStore = defineStore('offline', () => {
     if (at) noteSavedAt(at)
   }
 
-  return { pageSavedAt, keptAt, unreachable, noteSavedAt, readPageMeta }
+  /** The person switched firm: what was said about the first firm's kept pages is not true of the next. */
+  function forgetFirm() {
+    pageSavedAt.value = null
+    keptAt.value = null
+  }
+
+  return { pageSavedAt, keptAt, unreachable, noteSavedAt, readPageMeta, forgetFirm }
 })

@@ -22,6 +22,8 @@ describe('inviting a crew member', () => {
     const jess = await e2e.open()
     const owner = jess.page
     await signInToDashboard(owner, e2e.url, OWNER.email, OWNER.password)
+    // on the phone, Settings is under More
+    await owner.getByTestId('nav-more').click()
     await owner.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Settings' }).click()
     await expectPath(owner, '/settings')
     await owner.getByRole('main').getByRole('link', { name: 'Team' }).click()

@@ -24,8 +24,9 @@ describe('sign in', () => {
     await expectText(page.getByText(`${FIRM_NAME} · Owner`), FIRM_NAME)
     expect(await page.title()).toBe('Today · Setwell')
 
-    // an owner sees every section in the bottom bar
-    expect(await menuLabels(page)).toEqual(['Today', 'Enquiries', 'Visits', 'Customers', 'Jobs', 'Money', 'Settings'])
+    // an owner's bottom bar: four sections and More (which holds Enquiries, Customers and Settings)
+    expect(await menuLabels(page)).toEqual(['Today', 'Visits', 'Jobs', 'Money'])
+    await expectVisible(page.getByTestId('nav-more'))
     expect(await textOf(page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Today' }))).toBe('Today')
     expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Today' }).getAttribute('aria-current')).toBe('page')
 
