@@ -300,3 +300,28 @@ describe('the firm\'s own interval for following up a quote', () => {
     expect(keysOf(await todayOf(owner))).not.toContain(unanswered)
   })
 })
+
+describe('an invoice chased once, and not before the day its customer promised', () => {
+  it('a promise for later keeps the invoice off Today; a broken one lists it once, as the broken promise', async () => {
+    const waiting = await issuedInvoice(310_00)
+    const late = await issuedInvoice(420_00)
+    await sql('update invoices set due_on = $1 where id = any($2)', [addDays(today, -12), [waiting.id, late.id]])
+    const before = keysOf(await todayOf(owner))
+    expect(before).toContain(`invoice-overdue:${waiting.id}`)
+    expect(before).toContain(`invoice-overdue:${late.id}`)
+
+    // the customer promised on the phone to pay in three days: left until that day has passed
+    const promise = await office.post(`/api/invoices/${waiting.id}/chase-notes`, { kind: 'call', outcome: 'promised', promisedPence: 310_00, promisedOn: addDays(today, 3) })
+    expect(promise.status, JSON.stringify(promise.body)).toBe(201)
+    // a promise made a week ago for four days ago, not kept
+    const broken = await one('insert into chase_notes (firm_id, invoice_id, kind, outcome, promised_on, at) values ($1, $2, \'call\', \'promised\', $3, now() - interval \'7 days\') returning id', [firmId, late.id, addDays(today, -4)])
+
+    for (const who of [owner, office]) {
+      const t = await todayOf(who)
+      expect(keysOf(t)).not.toContain(`invoice-overdue:${waiting.id}`)
+      expect(t.actions.filter(a => a.href === `/invoices/${late.id}`).map(a => a.key)).toEqual([`promise-broken:${broken.id}`])
+      // above every invoice merely overdue
+      expect(action(t, `promise-broken:${broken.id}`)!.urgency).toBeGreaterThan(KIND_URGENCY['invoice-overdue'] + 90)
+    }
+  })
+})

@@ -27,8 +27,8 @@ export interface TestApp {
   /** This server's own Stripe fake (webhooks go back to this server). */
   stripe: StripeFake
   mails: ParsedMail[]
-  /** Wait for a message to this address (and matching `subject` when given). */
-  waitForMail(to: string, subject?: RegExp, timeoutMs?: number): Promise<ParsedMail>
+  /** Wait for a message to this address (matching `subject` when given), among those caught after the first `after` (default all). */
+  waitForMail(to: string, subject?: RegExp, timeoutMs?: number, after?: number): Promise<ParsedMail>
   /** Server output so far, for debugging a failure. */
   output(): string
   stop(): Promise<void>
@@ -130,8 +130,8 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<T
     stripe,
     mails,
     output: () => out,
-    async waitForMail(to, subject, timeoutMs = 10_000) {
-      const find = () => mails.find(m => [m.to].flat().some(a => a?.text.toLowerCase().includes(to.toLowerCase())) && (!subject || subject.test(m.subject ?? '')))
+    async waitForMail(to, subject, timeoutMs = 10_000, after = 0) {
+      const find = () => mails.slice(after).find(m => [m.to].flat().some(a => a?.text.toLowerCase().includes(to.toLowerCase())) && (!subject || subject.test(m.subject ?? '')))
       const until = Date.now() + timeoutMs
       for (;;) {
         const found = find()

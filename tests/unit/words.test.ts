@@ -69,7 +69,8 @@ export function stringLiterals(src: string): { text: string, at: number, holes: 
       }
       if (c === '`') {
         // sql`...` and the like: a tag's text is for a machine
-        const tagged = /[\w$]$/.test(src.slice(0, i))
+        // a tag, with or without a type argument: sql`...`, sql<number>`...`
+        const tagged = /[\w$](<[\w$<>[\], |]*>)?$/.test(src.slice(0, i))
         const start = i++
         let text = ''
         const holes: string[] = []
