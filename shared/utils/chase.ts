@@ -28,6 +28,15 @@ export const CHASE_OUTCOME_LABELS: Record<ChaseOutcome, string> = {
   'other': 'Something else (say what in the note)',
 }
 
+/** How it went, as the log reads it afterwards ("other" says nothing: its note says what happened). */
+export const CHASE_OUTCOME_IN_LOG: Record<ChaseOutcome, string> = {
+  'promised': 'Promised to pay',
+  'no-reply': 'No answer',
+  'disputed': 'Invoice questioned',
+  'says-paid': 'Says it is paid',
+  'other': '',
+}
+
 export const PROMISE_DATE_PAST = 'A promise to pay is for today or a later day: pick the day they said.'
 
 /** The promise's day against today (both London days, YYYY-MM-DD): the problem in words, or null. */
