@@ -1,8 +1,9 @@
-// Sessions and roles. The sealed cookie (nuxt-auth-utils) holds only our session id; every
+// Sessions and roles. The sealed cookie (nuxt-auth-utils) holds our session id and the person's
+// (the session's key: sessions are keyed and spread by person, README "Scaling out"); every
 // request looks the row up, with the person's membership of the current firm, so revoking a
 // session, changing a password or removing a membership takes effect on the next request.
 import type { H3Event } from 'h3'
-import { and, eq, gt, isNull, sql } from 'drizzle-orm'
+import { and, eq, gt, inArray, isNull, sql } from 'drizzle-orm'
 import { memberships, sessions, users } from '../db/schema'
 import type { Permission, Role } from '#shared/utils/roles'
 
@@ -31,6 +32,7 @@ declare module '#auth-utils' {
   interface SecureSessionData { sid: string }
 }
 
+const UUID = /^[0-9a-f-]{36}$/i
 const SESSION_DAYS = 14
 export const SESSION_MAX_AGE_SECONDS = SESSION_DAYS * 24 * 60 * 60
 
@@ -42,18 +44,19 @@ function unauthorised(): never {
 async function loadContext(event: H3Event): Promise<FirmContext | null> {
   const cookie = await getUserSession(event)
   const sid = cookie.secure?.sid
-  if (!sid || !/^[0-9a-f-]{36}$/i.test(sid)) return null
+  const uid = cookie.user?.id
+  if (!sid || !uid || !UUID.test(sid) || !UUID.test(uid)) return null
   return useDb().transaction(async (tx) => {
     const [row] = await tx.select({
       sessionId: sessions.id,
       userId: sessions.userId,
-      firmId: sessions.firmId,
+      firmId: sessions.currentFirmId,
       lastSeenAt: sessions.lastSeenAt,
       name: users.name,
       email: users.email,
     }).from(sessions)
       .innerJoin(users, eq(users.id, sessions.userId))
-      .where(and(eq(sessions.id, sid), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql`now()`)))
+      .where(and(eq(sessions.userId, uid), eq(sessions.id, sid), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql`now()`)))
     if (!row || !row.firmId) return null
     await scopeTransaction(tx, row.firmId, row.userId)
     const [m] = await tx.select({ id: memberships.id, role: memberships.role })
@@ -61,11 +64,11 @@ async function loadContext(event: H3Event): Promise<FirmContext | null> {
       .where(and(eq(memberships.firmId, row.firmId), eq(memberships.userId, row.userId)))
     if (!m) {
       // the membership was removed: this session ends now
-      await tx.update(sessions).set({ revokedAt: sql`now()` }).where(eq(sessions.id, row.sessionId))
+      await tx.update(sessions).set({ revokedAt: sql`now()` }).where(and(eq(sessions.userId, row.userId), eq(sessions.id, row.sessionId)))
       return null
     }
     if (Date.now() - row.lastSeenAt.getTime() > 5 * 60_000) {
-      await tx.update(sessions).set({ lastSeenAt: sql`now()` }).where(eq(sessions.id, row.sessionId))
+      await tx.update(sessions).set({ lastSeenAt: sql`now()` }).where(and(eq(sessions.userId, row.userId), eq(sessions.id, row.sessionId)))
     }
     return { sessionId: row.sessionId, userId: row.userId, name: row.name, email: row.email, firmId: row.firmId, role: m.role, membershipId: m.id }
   })
@@ -97,7 +100,7 @@ export async function requireAuth(event: H3Event, permission?: Permission): Prom
 export async function startSession(event: H3Event, tx: Tx, userId: string, firmId: string) {
   const [row] = await tx.insert(sessions).values({
     userId,
-    firmId,
+    currentFirmId: firmId,
     expiresAt: new Date(Date.now() + SESSION_MAX_AGE_SECONDS * 1000),
     ip: getRequestIP(event) ?? null,
     userAgent: (getRequestHeader(event, 'user-agent') ?? '').slice(0, 300),
@@ -111,8 +114,9 @@ export async function startSession(event: H3Event, tx: Tx, userId: string, firmI
 export async function endSession(event: H3Event) {
   const cookie = await getUserSession(event)
   const sid = cookie.secure?.sid
-  if (sid && /^[0-9a-f-]{36}$/i.test(sid)) {
-    await useDb().update(sessions).set({ revokedAt: sql`now()` }).where(eq(sessions.id, sid))
+  const uid = cookie.user?.id
+  if (sid && uid && UUID.test(sid) && UUID.test(uid)) {
+    await useDb().update(sessions).set({ revokedAt: sql`now()` }).where(and(eq(sessions.userId, uid), eq(sessions.id, sid)))
   }
   await clearUserSession(event)
   event.context.auth = null
@@ -121,12 +125,12 @@ export async function endSession(event: H3Event) {
 /** The firm a person lands in at sign-in: the one they used last, else their oldest membership. */
 export async function defaultFirmFor(tx: Tx, userId: string): Promise<string | null> {
   await scopeTransaction(tx, null, userId)
-  const [last] = await tx.select({ firmId: sessions.firmId }).from(sessions)
-    .innerJoin(memberships, and(eq(memberships.userId, sessions.userId), eq(memberships.firmId, sql`${sessions.firmId}`)))
-    .where(eq(sessions.userId, userId))
+  // two queries, not a join: sessions are spread by person and memberships by firm (README "Scaling out")
+  const mine = await tx.select({ firmId: memberships.firmId }).from(memberships)
+    .where(eq(memberships.userId, userId)).orderBy(memberships.createdAt)
+  if (!mine.length) return null
+  const [last] = await tx.select({ firmId: sessions.currentFirmId }).from(sessions)
+    .where(and(eq(sessions.userId, userId), inArray(sessions.currentFirmId, mine.map(m => m.firmId))))
     .orderBy(sql`${sessions.createdAt} desc`).limit(1)
-  if (last?.firmId) return last.firmId
-  const [first] = await tx.select({ firmId: memberships.firmId }).from(memberships)
-    .where(eq(memberships.userId, userId)).orderBy(memberships.createdAt).limit(1)
-  return first?.firmId ?? null
+  return last?.firmId ?? mine[0]!.firmId
 }

@@ -13,9 +13,9 @@ export function calendarUrl(token: string) {
 
 /** Make (or remake) the person's feed in this firm; returns the new URL. */
 export async function resetCalendarFeed(f: FirmScope, userId: string) {
-  const token = newToken()
-  await f.tx.insert(calendarFeeds).values({ firmId: f.firmId, userId, tokenHash: hashToken(token) })
-    .onConflictDoUpdate({ target: [calendarFeeds.firmId, calendarFeeds.userId], set: { tokenHash: hashToken(token), updatedAt: sql`now()` } })
+  const { token, hash } = newLinkToken(f.firmId)
+  await f.tx.insert(calendarFeeds).values({ firmId: f.firmId, userId, tokenHash: hash })
+    .onConflictDoUpdate({ target: [calendarFeeds.firmId, calendarFeeds.userId], set: { tokenHash: hash, updatedAt: sql`now()` } })
   await f.audit('calendar.reset', 'user', userId, {})
   return calendarUrl(token)
 }
@@ -31,7 +31,7 @@ export async function calendarFor(token: string): Promise<string> {
     const { f, feed } = await withSecretLink(tx, {
       setting: 'app.calendar_token_hash',
       secret: token,
-      find: async (tx, tokenHash) => (await tx.select({ firmId: calendarFeeds.firmId, tokenHash: calendarFeeds.tokenHash }).from(calendarFeeds).where(eq(calendarFeeds.tokenHash, tokenHash)))[0],
+      find: (tx, tokenHash, firmId) => tx.select({ firmId: calendarFeeds.firmId, tokenHash: calendarFeeds.tokenHash }).from(calendarFeeds).where(and(eq(calendarFeeds.tokenHash, tokenHash), inLinkFirm(calendarFeeds.firmId, firmId))),
       // A feed answers only while its person is a member, and only a feed made (or reset) since they
       // joined: a removed member's link is dead, and stays dead if they are invited back later.
       open: async (f, found) => {

@@ -11,7 +11,7 @@ export function openInvitation(tx: Tx, token: string, lock = false) {
   return withSecretLink(tx, {
     setting: 'app.invite_token_hash',
     secret: token,
-    find: async (tx, tokenHash) => (await tx.select().from(invitations).where(stillOpen(tokenHash)))[0],
+    find: (tx, tokenHash, firmId) => tx.select().from(invitations).where(and(stillOpen(tokenHash), inLinkFirm(invitations.firmId, firmId))),
     open: async (f, found) => {
       let inv: typeof found | undefined = found
       // locking needs the firm's own policy (FOR UPDATE checks it), so lock once scoped; re-check it is still open

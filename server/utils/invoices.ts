@@ -285,7 +285,7 @@ export async function issueInvoice(f: FirmScope, id: string) {
   const prefix = series === 'credit-note' ? creditNotePrefixOf(letters, firm!.creditNotePrefix) : invoicePrefixOf(letters, firm!.invoicePrefix)
   const reference = invoiceReference(prefix, number)
   const issuedOn = todayIso()
-  const token = newToken()
+  const { token, hash } = newLinkToken(f.firmId)
   const parties = await partiesNow(f, inv)
   // references are unique per firm (a unique index); prefixes set alike would repeat one: say so, write nothing
   const [clash] = await f.tx.select({ id: invoices.id }).from(invoices).where(f.where(invoices, eq(invoices.reference, reference)))
@@ -294,7 +294,7 @@ export async function issueInvoice(f: FirmScope, id: string) {
     await f.tx.update(invoices).set({
       series, number, reference, issuedOn, parties,
       dueOn: inv.kind === 'credit-note' ? null : dueDateFor(issuedOn, firm!.paymentTermsDays),
-      tokenHash: inv.kind === 'credit-note' ? null : hashToken(token), updatedAt: sql`now()`,
+      tokenHash: inv.kind === 'credit-note' ? null : hash, updatedAt: sql`now()`,
     }).where(f.where(invoices, eq(invoices.id, id)))
   }
   catch (err) {

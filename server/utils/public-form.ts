@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
 import { firms } from '../db/schema'
 
 /**
@@ -10,10 +10,11 @@ export function firmByFormKey(tx: Tx, key: string) {
     setting: 'app.enquiry_form_key',
     secret: key,
     hashed: false, // the firm resets the key to end the link; it is not a password
-    find: async (tx, key) => {
-      const [firm] = await tx.select({ id: firms.id, tradingName: firms.tradingName, email: firms.email, phone: firms.phone })
-        .from(firms).where(eq(firms.enquiryFormKey, key))
-      return firm && { ...firm, firmId: firm.id }
+    secretLength: FORM_KEY_LENGTH,
+    find: async (tx, key, firmId) => {
+      const found = await tx.select({ id: firms.id, tradingName: firms.tradingName, email: firms.email, phone: firms.phone })
+        .from(firms).where(and(eq(firms.enquiryFormKey, key), inLinkFirm(firms.id, firmId)))
+      return found.map(firm => ({ ...firm, firmId: firm.id }))
     },
     open: async (_f, { firmId: _, ...firm }) => firm,
     gone: notFound,

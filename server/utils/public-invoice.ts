@@ -1,6 +1,6 @@
 // The customer's link to an invoice (/i/<token>): like the quote's, the token's hash makes that
 // one invoice visible under RLS (app.invoice_token_hash), then the transaction is scoped to its firm.
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
 import { firms, invoices } from '../db/schema'
 import { bankAccountLines, hasBankAccount } from '#shared/utils/bank-details'
 import { groupLines } from '#shared/utils/line-groups'
@@ -9,7 +9,7 @@ export function openInvoiceByToken(tx: Tx, token: string) {
   return withSecretLink(tx, {
     setting: 'app.invoice_token_hash',
     secret: token,
-    find: async (tx, tokenHash) => (await tx.select({ firmId: invoices.firmId, id: invoices.id }).from(invoices).where(eq(invoices.tokenHash, tokenHash)))[0],
+    find: (tx, tokenHash, firmId) => tx.select({ firmId: invoices.firmId, id: invoices.id }).from(invoices).where(and(eq(invoices.tokenHash, tokenHash), inLinkFirm(invoices.firmId, firmId))),
     open: async (f, found) => ({ f, invoiceId: found.id }),
     gone: () => { throw createError({ statusCode: 404, statusMessage: 'Not found', data: { message: 'This invoice link is not right. Ask the firm to send it again.' } }) },
   })

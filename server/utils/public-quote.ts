@@ -13,8 +13,8 @@ export function openQuoteByToken(tx: Tx, token: string, lock = false) {
   return withSecretLink(tx, {
     setting: 'app.quote_token_hash',
     secret: token,
-    find: async (tx, tokenHash) => (await tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id, quoteId: quoteVersions.quoteId }).from(quoteVersions)
-      .where(and(eq(quoteVersions.tokenHash, tokenHash), inArray(quoteVersions.status, ['sent', 'accepted', 'declined', 'superseded']), gt(quoteVersions.tokenExpiresAt, new Date()))))[0],
+    find: (tx, tokenHash, firmId) => tx.select({ firmId: quoteVersions.firmId, id: quoteVersions.id, quoteId: quoteVersions.quoteId }).from(quoteVersions)
+      .where(and(eq(quoteVersions.tokenHash, tokenHash), inLinkFirm(quoteVersions.firmId, firmId), inArray(quoteVersions.status, ['sent', 'accepted', 'declined', 'superseded']), gt(quoteVersions.tokenExpiresAt, new Date()))),
     open: async (f, found) => {
       // an answer locks the quote, then the version, in the order the firm's own changes (revise, send)
       // lock them: an answer and a revision at the same moment go one after the other

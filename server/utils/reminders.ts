@@ -66,8 +66,8 @@ export async function sendReminder(scope: { firmId: string, userId: string | nul
     const [note] = await f.tx.update(chaseNotes).set({ sentAt: new Date() }).where(f.where(chaseNotes, eq(chaseNotes.reminderKey, key), isNull(chaseNotes.sentAt))).returning()
     if (!note) return 'already sent' as const
     // a new link to the invoice page (only its hash is kept); the old one is put back if the e-mail fails
-    const token = newToken()
-    await f.tx.update(invoices).set({ tokenHash: hashToken(token), updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, inv.id)))
+    const { token, hash } = newLinkToken(f.firmId)
+    await f.tx.update(invoices).set({ tokenHash: hash, updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, inv.id)))
     const contact = await firmContact(f)
     const bank = firm!.takesTransfer && hasBankAccount(firm!) ? bankAccountInline(firm!) : ''
     const values = { customer: customer.contactName || customer.name, reference: inv.reference ?? '', amount: formatPence(owed), due: fullDate(inv.dueOn), ...lateness(inv.dueOn, today), firm: contact.tradingName, phone: contact.phone, bank }
@@ -81,7 +81,7 @@ export async function sendReminder(scope: { firmId: string, userId: string | nul
         'This link replaces the one sent before, which no longer works. It is for you only; please do not forward it.',
       ].filter(Boolean).join('\n\n'),
     })
-    return { noteId: note!.id, oldTokenHash: inv.tokenHash, newTokenHash: hashToken(token), mail }
+    return { noteId: note!.id, oldTokenHash: inv.tokenHash, newTokenHash: hash, mail }
   })
   if (prepared === null) return 'nothing owed'
   if (prepared === 'already sent') return 'already sent'

@@ -1,4 +1,4 @@
-import { count, eq, isNull, ne, sql } from 'drizzle-orm'
+import { and, count, eq, isNull, ne, sql } from 'drizzle-orm'
 import { calendarFeeds, firms, memberships, sessions } from '../db/schema'
 
 /**
@@ -27,6 +27,7 @@ export async function assertAnotherOwner(f: FirmScope, membershipId: string) {
  */
 export async function endAccessToFirm(f: FirmScope, userId: string) {
   await f.tx.delete(calendarFeeds).where(f.where(calendarFeeds, eq(calendarFeeds.userId, userId)))
+  // sessions are the person's, not the firm's (keyed by user_id): those working in this firm now
   await f.tx.update(sessions).set({ revokedAt: sql`now()` })
-    .where(f.where(sessions, eq(sessions.userId, userId), isNull(sessions.revokedAt)))
+    .where(and(eq(sessions.userId, userId), eq(sessions.currentFirmId, f.firmId), isNull(sessions.revokedAt)))
 }

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { requiredEnv } from '../support/app'
@@ -8,10 +9,13 @@ import { requiredEnv } from '../support/app'
 // installed here, so this test reads the migrated database's catalog and checks the plan:
 //   - a firm table (a firm_id column) is distributed by firm_id, `firms` by its id (co-located);
 //   - `sessions` is distributed by user_id (a person's sign-ins, whichever firm they work in);
-//   - the rest are reference tables (a copy on every server), named below.
-// A table in none of these fails, so a new table has to be placed on purpose.
+//   - `users` is a reference table (a copy on every server); two small tables stay on the
+//     coordinator, undistributed. Neither kind may point at a distributed table.
+// A table in none of these fails, so a new table has to be placed on purpose. The README's
+// create_distributed_table calls are checked against the same plan and the foreign keys' order.
 
-const REFERENCE_TABLES = ['users', 'limit_hits', 'pending_sign_ups']
+const REFERENCE_TABLES = ['users']
+const COORDINATOR_TABLES = ['limit_hits', 'pending_sign_ups']
 const DISTRIBUTED_BY_OTHER: Record<string, string> = { firms: 'id', sessions: 'user_id' }
 /** Tables distributed together (co-located): a foreign key may join only tables of one group. */
 const GROUP_OF = (table: string) => (table === 'sessions' ? 'person' : 'firm')
@@ -64,7 +68,7 @@ async function readCatalog() {
 function planOf(table: string, firmTables: string[]): string | null | undefined {
   if (table in DISTRIBUTED_BY_OTHER) return DISTRIBUTED_BY_OTHER[table]
   if (firmTables.includes(table)) return 'firm_id'
-  if (REFERENCE_TABLES.includes(table)) return null
+  if (REFERENCE_TABLES.includes(table) || COORDINATOR_TABLES.includes(table)) return null
   return undefined
 }
 
@@ -77,9 +81,12 @@ function problems({ tables, firmTables, keys }: Awaited<ReturnType<typeof readCa
   for (const k of keys) {
     const by = planOf(k.table, firmTables)
     if (!by) {
-      // a reference table (a copy everywhere) may not point at a distributed one
-      if (by === null && k.kind === 'foreign key' && k.refTable && planOf(k.refTable, firmTables)) {
-        out.push(`${k.table}: foreign key ${k.name} (${k.cols.join(', ')}) points from a reference table at ${k.refTable}, a distributed table`)
+      // a reference or coordinator table may point only at a reference table
+      if (by === null && k.kind === 'foreign key' && k.refTable && planOf(k.refTable, firmTables) !== null) {
+        out.push(`${k.table}: foreign key ${k.name} (${k.cols.join(', ')}) points from an undistributed table at ${k.refTable}, which is not a reference table`)
+      }
+      if (k.kind === 'foreign key' && COORDINATOR_TABLES.includes(k.refTable ?? '')) {
+        out.push(`${k.table}: foreign key ${k.name} (${k.cols.join(', ')}) points at ${k.refTable}, which stays on the coordinator`)
       }
       continue
     }
@@ -88,7 +95,11 @@ function problems({ tables, firmTables, keys }: Awaited<ReturnType<typeof readCa
       continue
     }
     const target = planOf(k.refTable!, firmTables)
-    if (target === null) continue // to a reference table: fine anywhere
+    if (target === null) {
+      // to a reference table: fine anywhere; to a coordinator table: not from a distributed one
+      if (COORDINATOR_TABLES.includes(k.refTable!)) out.push(`${k.table}: foreign key ${k.name} (${k.cols.join(', ')}) points at ${k.refTable}, which stays on the coordinator`)
+      continue
+    }
     const at = k.cols.indexOf(by)
     if (GROUP_OF(k.table) !== GROUP_OF(k.refTable!)) {
       out.push(`${k.table}: foreign key ${k.name} (${k.cols.join(', ')}) points at ${k.refTable}, which is distributed apart from it`)
@@ -96,6 +107,39 @@ function problems({ tables, firmTables, keys }: Awaited<ReturnType<typeof readCa
     else if (at < 0 || k.refCols[at] !== target) {
       out.push(`${k.table}: foreign key ${k.name} (${k.cols.join(', ')}) -> ${k.refTable} (${k.refCols.join(', ')}) does not pair ${by} with ${k.refTable}.${target}`)
     }
+  }
+  return out
+}
+
+/** The README's calls, in order: `create_reference_table('t')` or `create_distributed_table('t', 'col', colocate_with => 'g')`. */
+function readmeCalls() {
+  const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8')
+  const section = readme.split(/^## /m).find(s => s.startsWith('Scaling out\n')) ?? ''
+  return [...section.matchAll(/SELECT (create_reference_table|create_distributed_table)\('(\w+)'(?:, '(\w+)')?(?:, colocate_with => '(\w+)')?\);/g)]
+    .map(m => ({ fn: m[1]!, table: m[2]!, column: m[3] ?? null, colocateWith: m[4] ?? null }))
+}
+
+/** What is wrong with the README's calls against the catalog: a table missed, twice, by the wrong column, or before a table it names. */
+function callProblems({ tables, firmTables, keys }: Awaited<ReturnType<typeof readCatalog>>, calls: ReturnType<typeof readmeCalls>): string[] {
+  const out: string[] = []
+  const position = new Map<string, number>()
+  calls.forEach((c, i) => {
+    if (position.has(c.table)) out.push(`${c.table}: called twice`)
+    position.set(c.table, i)
+    const by = planOf(c.table, firmTables)
+    if (c.fn === 'create_reference_table' && !REFERENCE_TABLES.includes(c.table)) out.push(`${c.table}: made a reference table, but the plan distributes it by ${by}`)
+    if (c.fn === 'create_distributed_table' && c.column !== by) out.push(`${c.table}: distributed by ${c.column}, but the plan says ${by}`)
+    if (c.fn === 'create_distributed_table' && by === 'firm_id' && c.colocateWith !== 'firms') out.push(`${c.table}: not co-located with firms`)
+  })
+  for (const t of tables) {
+    const by = planOf(t, firmTables)
+    if ((by || REFERENCE_TABLES.includes(t)) && !position.has(t)) out.push(`${t}: no call in the README`)
+  }
+  for (const k of keys) {
+    if (k.kind !== 'foreign key' || k.refTable === k.table) continue
+    const from = position.get(k.table)
+    const to = position.get(k.refTable!)
+    if (from !== undefined && to !== undefined && to > from) out.push(`${k.table}: called before ${k.refTable}, which its foreign key ${k.name} names`)
   }
   return out
 }
@@ -110,6 +154,13 @@ describe('the schema is ready to be distributed by firm (catalog)', () => {
 
   it('every primary key, unique constraint, unique index and foreign key between distributed tables includes the distribution column', async () => {
     const found = problems(await readCatalog())
+    expect(found, found.join('\n')).toEqual([])
+  })
+
+  it('the README\'s create_distributed_table calls place every table as planned, each after the tables it points at', async () => {
+    const calls = readmeCalls()
+    expect(calls.length).toBeGreaterThan(30)
+    const found = callProblems(await readCatalog(), calls)
     expect(found, found.join('\n')).toEqual([])
   })
 

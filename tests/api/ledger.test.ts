@@ -241,9 +241,13 @@ describe('the public enquiry form', () => {
 
   it('stops the old link when the owner makes a new one', async () => {
     const reset = await owner.post('/api/firm/enquiry-form-key')
-    expect(reset.body.enquiryFormKey).toMatch(/^[0-9a-f]{32}$/)
+    // the firm's part (22 characters), then the key (32 hex): the link finds its firm
+    expect(reset.body.enquiryFormKey).toMatch(/^[\w-]{22}[0-9a-f]{32}$/)
+    expect(reset.body.enquiryFormKey.slice(0, 22)).toBe(key.slice(0, 22))
     expect(reset.body.enquiryFormKey).not.toBe(key)
     expect((await new Client(app.url).get(`/api/public/enquiry-forms/${key}`)).status).toBe(404)
+    // the old key in the form sent before links carried their firm is dead too
+    expect((await new Client(app.url).get(`/api/public/enquiry-forms/${key.slice(22)}`)).status).toBe(404)
     expect((await new Client(app.url).get(`/api/public/enquiry-forms/${reset.body.enquiryFormKey}`)).status).toBe(200)
   })
 

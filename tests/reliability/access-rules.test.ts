@@ -101,7 +101,7 @@ describe('removing a member ends every way in (issue 13, case 1)', () => {
     })
     expect(feeds).toBe(0)
     // and their sessions in the firm were revoked by the removal itself, not on their next request
-    const live = await ownerDb(async db => (await db.query('select count(*)::int as n from sessions where firm_id = $1 and revoked_at is null and user_id = (select id from users where lower(email) = $2)', [firmId, email])).rows[0].n as number)
+    const live = await ownerDb(async db => (await db.query('select count(*)::int as n from sessions where current_firm_id = $1 and revoked_at is null and user_id = (select id from users where lower(email) = $2)', [firmId, email])).rows[0].n as number)
     expect(live).toBe(0)
     expect((await crew.get('/api/me')).status).toBe(401)
 

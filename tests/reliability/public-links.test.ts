@@ -46,7 +46,8 @@ afterAll(async () => {
   await app?.stop()
 })
 
-const sha = (token: string) => createHash('sha256').update(token).digest('hex')
+// the hash kept is of the secret: the link's last 43 characters, after the firm's part (22)
+const sha = (token: string) => createHash('sha256').update(token.slice(-43)).digest('hex')
 const unknownToken = (kind: Kind) => kind === 'form' ? randomBytes(16).toString('hex') : randomBytes(32).toString('base64url')
 
 async function call(route: LinkRoute, token: string, firm: Firm): Promise<ApiResponse> {
@@ -135,6 +136,29 @@ describe('every public link, dead in every way, answers 404 with none of the fir
       const text = typeof res.body === 'string' ? res.body : JSON.stringify(res.body ?? '')
       const leaked = [a.name, ...Object.values(a.ids)].filter(w => text.includes(w))
       if (leaked.length) wrong.push(`${route.key}: shows the first firm's ${leaked.join(', ')}`)
+    }
+    expect(wrong).toEqual([])
+  })
+
+  it('a link sent before links carried their firm (the secret alone) still opens; a secret under another firm\'s part does not', async () => {
+    const live: Record<Kind, string> = { quote: b.tokens.quote, invoice: b.tokens.invoice, calendar: b.tokens.calendar, invitation: b.tokens.invitation, form: b.tokens.formKey }
+    const firmPartOf = (firm: Firm) => Buffer.from(firm.firmId.replace(/-/g, ''), 'hex').toString('base64url')
+    const wrong: string[] = []
+    for (const route of LINK_ROUTES.filter(r => r.method === 'GET')) {
+      const link = live[route.kind]
+      // the new form: the firm's part, then the secret
+      if (!link.startsWith(firmPartOf(b))) wrong.push(`${route.key}: the link does not start with its firm's part: ${link}`)
+      const secret = link.slice(22)
+      // the old form, as sent before: the secret alone (the hash kept is the same)
+      const old = await call(route, secret, b)
+      if (old.status !== 200) wrong.push(`${route.key} old form: ${old.status}`)
+      // the same secret under another firm's part, or a firm that does not exist: nothing
+      for (const [why, part] of [['another firm', firmPartOf(a)], ['no firm', Buffer.from(randomBytes(16)).toString('base64url')]] as const) {
+        const res = await call(route, part + secret, b)
+        if (res.status !== 404) wrong.push(`${route.key} under ${why}'s part: ${res.status}`)
+        const leaked = leaks(res, b)
+        if (leaked.length) wrong.push(`${route.key} under ${why}'s part: shows ${leaked.join(', ')}`)
+      }
     }
     expect(wrong).toEqual([])
   })

@@ -19,9 +19,9 @@ function walk(dir: string): string[] {
  * secrets of links, matched whole by a strict pattern (a NUL or anything else fails it: 404).
  */
 const ALLOWED = [
-  ['shared/schemas/links.ts', 'key: z.string().regex(/^[0-9a-f]{32}$/'],
-  ['shared/schemas/links.ts', 'token: z.string().regex(/^[\\w-]{40,60}$/'],
-  ['shared/schemas/links.ts', 'token: z.string().regex(/^[\\w-]{40,60}\\.ics$/'],
+  ['shared/schemas/links.ts', 'key: z.string().regex(/^(?:[\\w-]{22})?[0-9a-f]{32}$/'],
+  ['shared/schemas/links.ts', 'token: z.string().regex(/^[\\w-]{40,70}$/'],
+  ['shared/schemas/links.ts', 'token: z.string().regex(/^[\\w-]{40,70}\\.ics$/'],
 ]
 const RAW = /\bz\s*\.\s*(string|iso\s*\.\s*\w+|coerce\s*\.\s*\w+|date|stringFormat|templateLiteral)\s*\(/
 

@@ -8,6 +8,6 @@ export default defineEventHandler(async (event) => {
     const [firm] = await f.tx.update(firms).set({ enquiryFormKey: sql`replace(gen_random_uuid()::text, '-', '')` })
       .where(eq(firms.id, f.firmId)).returning({ enquiryFormKey: firms.enquiryFormKey })
     await f.audit('firm.enquiry-form-reset', 'firm', f.firmId)
-    return firm
+    return { enquiryFormKey: publicFormKey(f.firmId, firm!.enquiryFormKey) }
   })
 })

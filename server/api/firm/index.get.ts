@@ -12,6 +12,6 @@ export default defineEventHandler(async (event) => {
   return {
     ...rest,
     ...(can(auth.role, 'money:read') ? { dayRatePence, bankAccountName, bankSortCode, bankAccountNumber } : {}),
-    ...(can(auth.role, 'ledger:write') ? { enquiryFormKey } : {}),
+    ...(can(auth.role, 'ledger:write') ? { enquiryFormKey: publicFormKey(firm.id, enquiryFormKey) } : {}),
   }
 })

@@ -38,6 +38,6 @@ export default defineEventHandler(async (event) => {
     const [firm] = await f.tx.update(firms).set(input).where(eq(firms.id, f.firmId)).returning()
     if (!firm) notFound()
     await f.audit('firm.updated', 'firm', f.firmId, { fields: Object.keys(input) })
-    return firm
+    return { ...firm, enquiryFormKey: publicFormKey(firm.id, firm.enquiryFormKey) }
   })
 })

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
     const [m] = await tx.select({ id: memberships.id }).from(memberships)
       .where(and(eq(memberships.firmId, firmId), eq(memberships.userId, auth.userId)))
     if (!m) notFound()
-    await tx.update(sessions).set({ firmId }).where(and(eq(sessions.id, auth.sessionId), eq(sessions.userId, auth.userId)))
+    await tx.update(sessions).set({ currentFirmId: firmId }).where(and(eq(sessions.userId, auth.userId), eq(sessions.id, auth.sessionId)))
   })
   event.context.auth = undefined
   return { ok: true }

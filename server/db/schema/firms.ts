@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { boolean, integer, pgEnum, pgPolicy, pgTable, text, uuid } from 'drizzle-orm/pg-core'
+import { boolean, index, integer, pgEnum, pgPolicy, pgTable, text, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './common'
 
 export const cisStatus = pgEnum('cis_status', ['not-registered', 'registered', 'gross'])
@@ -45,10 +45,16 @@ export const firms = pgTable('firms', {
   bankSortCode: text().notNull().default(''),
   /** Eight digits. */
   bankAccountNumber: text().notNull().default(''),
-  /** The secret part of the firm's public enquiry form link; the owner can reset it. */
-  enquiryFormKey: text().notNull().unique('firms_enquiry_form_key_unique').default(sql`replace(gen_random_uuid()::text, '-', '')`),
+  /**
+   * The secret part of the firm's public enquiry form link; the owner can reset it. The link
+   * carries the firm's id in front (server/utils/tokens.ts publicFormKey), so the key is looked up
+   * with the firm's id; not unique on its own (firms are spread across servers by id).
+   */
+  enquiryFormKey: text().notNull().default(sql`replace(gen_random_uuid()::text, '-', '')`),
   ...timestamps,
-}, () => [
+}, t => [
+  // links made before links carried their firm name the key alone (server/utils/public-form.ts)
+  index('firms_enquiry_form_key_idx').on(t.enquiryFormKey),
   // A firm is visible when it is the current firm, or one the signed-in person belongs to (the firm switcher).
   pgPolicy('firms_visible', {
     for: 'select',

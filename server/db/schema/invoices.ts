@@ -71,7 +71,8 @@ export const invoices = pgTable('invoices', {
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
   unique('invoices_firm_number_unique').on(t.firmId, t.series, t.number),
-  unique('invoices_token_unique').on(t.tokenHash),
+  // unique within the firm; token_hash first, so a link from before links carried their firm is found by it alone
+  unique('invoices_token_unique').on(t.tokenHash, t.firmId),
   // a reference is never given twice in a firm, whatever the prefixes and numbering (issue 13)
   uniqueIndex('invoices_firm_reference_unique').on(t.firmId, t.reference).where(sql`${t.reference} is not null`),
   foreignKey({ name: 'invoices_customer_fk', columns: [t.firmId, t.customerId], foreignColumns: [customers.firmId, customers.id] }),

@@ -173,7 +173,8 @@ export const calendarFeeds = pgTable('calendar_feeds', {
   ...timestamps,
 }, t => [
   primaryKey({ columns: [t.firmId, t.userId] }),
-  unique('calendar_feeds_token_unique').on(t.tokenHash),
+  // unique within the firm; token_hash first, so a link from before links carried their firm is found by it alone
+  unique('calendar_feeds_token_unique').on(t.tokenHash, t.firmId),
   pgPolicy('calendar_feeds_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.calendar_token_hash', true), '')` }),
   firmPolicy('calendar_feeds'),
 ]).enableRLS()

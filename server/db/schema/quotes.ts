@@ -157,7 +157,8 @@ export const quoteVersions = pgTable('quote_versions', {
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
   unique('quote_versions_quote_version_unique').on(t.firmId, t.quoteId, t.version),
-  unique('quote_versions_token_unique').on(t.tokenHash),
+  // unique within the firm; token_hash first, so a link from before links carried their firm is found by it alone
+  unique('quote_versions_token_unique').on(t.tokenHash, t.firmId),
   // one accepted version per quote at most: the database holds it whatever runs at once (issue 13)
   // Today: versions sent and waiting, or accepted (the job to book): a few among many superseded and done
   index('quote_versions_open_idx').on(t.firmId, t.status, t.sentAt).where(sql`${t.status} in ('sent', 'accepted')`),

@@ -38,7 +38,8 @@ export const invitations = pgTable('invitations', {
   ...timestamps,
 }, t => [
   primaryKey({ columns: [t.firmId, t.id] }),
-  unique('invitations_token_unique').on(t.tokenHash),
+  // unique within the firm; token_hash first, so a link from before links carried their firm is found by it alone
+  unique('invitations_token_unique').on(t.tokenHash, t.firmId),
   // Someone holding the link, not signed in, sees only that invitation (app.invite_token_hash).
   pgPolicy('invitations_visible', { for: 'select', using: sql`${sameFirm} or token_hash = nullif(current_setting('app.invite_token_hash', true), '')` }),
   pgPolicy('invitations_write', { for: 'all', using: sameFirm, withCheck: sameFirm }),

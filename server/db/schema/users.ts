@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { bigserial, index, inet, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { bigserial, index, inet, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './common'
 
 /**
@@ -16,21 +16,23 @@ export const users = pgTable('users', {
 }, t => [uniqueIndex('users_email_unique').on(sql`lower(${t.email})`)])
 
 /**
- * One row per sign-in. The sealed cookie holds only this id; every request checks the row, so
- * signing out, changing the password or losing the membership ends the session at once.
+ * One row per sign-in. The sealed cookie holds this id and the person's; every request checks the
+ * row, so signing out, changing the password or losing the membership ends the session at once.
+ * Keyed by the person (user_id, id), not by a firm: a person works in several firms and switches
+ * between them in one session, so sessions are spread across servers by user_id (README "Scaling out").
  */
 export const sessions = pgTable('sessions', {
-  id: uuid().primaryKey().defaultRandom(),
   userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
-  /** The firm the person is working in now (switchable among their memberships). */
-  firmId: uuid(),
+  id: uuid().notNull().defaultRandom(),
+  /** The firm the person is working in now (switchable among their memberships). Not a tenant key: no firm owns a session. */
+  currentFirmId: uuid(),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   lastSeenAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   expiresAt: timestamp({ withTimezone: true }).notNull(),
   revokedAt: timestamp({ withTimezone: true }),
   ip: inet(),
   userAgent: text().notNull().default(''),
-}, t => [index('sessions_user_idx').on(t.userId)])
+}, t => [primaryKey({ columns: [t.userId, t.id] })])
 
 /**
  * One row per attempt counted against a limit (sign-in, the public enquiry form), by key

@@ -19,8 +19,8 @@ export default defineEventHandler(async (event) => {
     if (!customer?.email) throw fieldError({ email: `${customer?.name ?? 'The customer'} has no e-mail address: add one on their page first.` })
     const [bank] = await f.tx.select({ takesTransfer: firms.takesTransfer, bankAccountName: firms.bankAccountName, bankSortCode: firms.bankSortCode, bankAccountNumber: firms.bankAccountNumber }).from(firms).where(eq(firms.id, f.firmId))
     const firm = await firmContact(f)
-    const token = newToken()
-    await f.tx.update(invoices).set({ tokenHash: hashToken(token), updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, id)))
+    const { token, hash } = newLinkToken(f.firmId)
+    await f.tx.update(invoices).set({ tokenHash: hash, updatedAt: sql`now()` }).where(f.where(invoices, eq(invoices.id, id)))
     await f.audit('invoice.resent', 'invoice', id, { to: customer.email })
     try {
       await sendMail(invoiceMail({ customer, firm, bank, token, invoice: { ...inv, totals: inv.totals }, again: true }))

@@ -17,7 +17,7 @@ import { fullDate } from '#shared/utils/dates'
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'ledger:write')
   const { id } = await readParamsWith(event, idParam)
-  const token = newToken()
+  const { token, hash } = newLinkToken(auth.firmId)
   const sent = await withFirm(auth, async (f) => {
     const quote = await findOr404(f, quotes, id, { lock: true })
     const version = await currentVersion(f, quote, true)
@@ -32,7 +32,7 @@ export default defineEventHandler(async (event) => {
     const totals = await refreshTotals(f, version.id)
     await f.tx.update(quoteVersions).set({ status: 'superseded' })
       .where(f.where(quoteVersions, eq(quoteVersions.quoteId, id), eq(quoteVersions.status, 'sent'), ne(quoteVersions.id, version.id)))
-    await f.tx.update(quoteVersions).set({ status: 'sent', sentAt: sql`now()`, tokenHash: hashToken(token), tokenExpiresAt: expires })
+    await f.tx.update(quoteVersions).set({ status: 'sent', sentAt: sql`now()`, tokenHash: hash, tokenExpiresAt: expires })
       .where(f.where(quoteVersions, eq(quoteVersions.id, version.id)))
     if (quote.enquiryId) {
       const [e] = await f.tx.select({ status: enquiries.status }).from(enquiries).where(f.where(enquiries, and(eq(enquiries.id, quote.enquiryId))))

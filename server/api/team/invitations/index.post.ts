@@ -10,7 +10,7 @@ export const INVITATION_DAYS = 7
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'team:manage')
   const input = await readBodyWith(event, inviteSchema)
-  const token = newToken()
+  const { token, hash } = newLinkToken(auth.firmId)
   const { invitation, firmName } = await withFirm(auth, async (f) => {
     const [member] = await f.tx.select({ id: memberships.id }).from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
@@ -22,7 +22,7 @@ export default defineEventHandler(async (event) => {
     const [row] = await f.tx.insert(invitations).values(f.values({
       email: input.email,
       role: input.role,
-      tokenHash: hashToken(token),
+      tokenHash: hash,
       invitedBy: auth.userId,
       expiresAt: new Date(Date.now() + INVITATION_DAYS * 24 * 3600_000),
     })).returning()
