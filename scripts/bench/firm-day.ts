@@ -12,9 +12,10 @@
 // and fonts are precached by the service worker and hashed: after the first visit they cost the
 // server nothing, and they are not in the mix.
 //
-// Left out, and why: photo uploads (each is an image re-encoded on the server, seconds of CPU
-// for a phone photo: measured on their own, they would be the mix's largest cost per request at
-// a few a day; see the report), the rooms of a visit saved as they are measured (each save is
+// Left out, and why: photo uploads (each a phone photo of several megabytes, decoded and
+// re-encoded twice by sharp on the server: a different kind of load, of CPU and upload bandwidth,
+// that would need real photos in the bench; not measured here), the rooms of a visit saved as
+// they are measured (each save is
 // checked against the room's revision, so sends to one room must go one at a time: a paced
 // open-loop load cannot honour that), quotes drafted and sent, invoices drafted and issued (mail
 // and PDF work), sign-in (a password hash by design slow, a few a week per person).
