@@ -1,4 +1,32 @@
 // Setwell's Nuxt configuration. Everything runs on this machine: no telemetry, no font or CDN hosts.
+import { readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs'
+import { join } from 'node:path'
+import { brotliCompressSync, constants as zlibConstants, gzipSync } from 'node:zlib'
+
+/**
+ * Nitro compresses the public files (compressPublicAssets) before @vite-pwa writes the final
+ * /sw.js and manifest over the copies it had: a .br or .gz older than its file is made again from
+ * the file, so a browser asking for brotli never gets yesterday's service worker.
+ */
+function refreshCompressed(dir: string) {
+  for (const name of readdirSync(dir, { recursive: true, encoding: 'utf8' })) {
+    const m = /^(.*)\.(br|gz)$/.exec(name)
+    if (!m) continue
+    const source = join(dir, m[1]!)
+    let body: Buffer
+    try {
+      if (statSync(source).mtimeMs <= statSync(join(dir, name)).mtimeMs) continue
+      body = readFileSync(source)
+    }
+    catch {
+      continue
+    }
+    writeFileSync(join(dir, name), m[2] === 'br'
+      ? brotliCompressSync(body, { params: { [zlibConstants.BROTLI_PARAM_QUALITY]: zlibConstants.BROTLI_MAX_QUALITY, [zlibConstants.BROTLI_PARAM_SIZE_HINT]: body.length } })
+      : gzipSync(body, { level: zlibConstants.Z_BEST_COMPRESSION }))
+  }
+}
+
 export default defineNuxtConfig({
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt'],
   devtools: { enabled: false },
@@ -54,6 +82,11 @@ export default defineNuxtConfig({
     },
   },
   routeRules: {
+    // the build's scripts and styles carry their content's hash in their names: a phone keeps them
+    // a year and never asks again (a new build has new names). Pages (no cache-control: the server
+    // draws them afresh each time), the service worker and the manifest are never kept long.
+    '/_nuxt/**': { headers: { 'cache-control': 'public, max-age=31536000, immutable' } },
+    '/sw.js': { headers: { 'cache-control': 'no-cache' } },
     // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
     // app with no server-side data, which draws the page from what the phone kept
     '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },
@@ -115,6 +148,10 @@ export default defineNuxtConfig({
   // (its own build folder and its own Vite cache, so two builds at once do not share files)
   ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}-nuxt`, vite: { cacheDir: `${process.env.SETWELL_OUTPUT_DIR}-vite` } } : {}),
   nitro: {
+    // the public files (scripts, styles, fonts, the service worker) are also written as .br and .gz
+    // at build; the server sends the one the browser takes (Accept-Encoding). Pages and API answers
+    // are compressed as they go out (server/middleware/00.compression.ts).
+    compressPublicAssets: { gzip: true, brotli: true },
     // Node 20 runs ES2022; the default es2019 target warns on the BigInt literals in shared/utils
     esbuild: { options: { target: 'es2022' } },
     output: process.env.SETWELL_OUTPUT_DIR ? { dir: process.env.SETWELL_OUTPUT_DIR } : undefined,
@@ -123,6 +160,10 @@ export default defineNuxtConfig({
     strict: true,
   },
   hooks: {
+    // after Nitro's compressPublicAssets and @vite-pwa's final /sw.js (both in rollup:before)
+    'nitro:build:before'(nitro) {
+      nitro.hooks.hook('rollup:before', () => refreshCompressed(nitro.options.output.publicDir))
+    },
     // `nuxt dev --host 127.0.0.1` still opens Vite's HMR socket on every interface
     'vite:extendConfig'(config) {
       const server = config.server as { hmr?: boolean | Record<string, unknown> } | undefined

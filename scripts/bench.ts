@@ -16,6 +16,8 @@
 // 7. Working with no signal: what the service worker precaches (files, bytes, gzipped), and how
 //    long Today takes to open on a throttled phone (4x slower CPU, a slow 3G line) from what the
 //    phone kept, against the same phone opening it with that line.
+// 8. Lighthouse 12, mobile on slow 4G (scripts/bench/lighthouse.ts): largest contentful paint and
+//    bytes transferred for sign-in, and signed in for Today, the invoice list and a job.
 //
 // Budgets are printed beside each figure, met or missed; missing one is reported, not hidden, and
 // does not fail the command (it is a measurement, not a test).
@@ -31,6 +33,7 @@ import { chromium } from 'playwright-core'
 import { planSets, setLowerBound, type PlanCorner, type PlanSurface } from '../shared/utils/set-plan'
 import { randomJob, seeded } from '../tests/support/plan-rooms'
 import { DEMO_PEOPLE } from '../seeds/demo'
+import { lighthouseRows } from './bench/lighthouse'
 
 const env = await import('./lib/env.mjs')
 const pgLib = await import('./lib/pg.mjs')
@@ -427,6 +430,10 @@ async function main() {
   finally {
     await phone.close()
   }
+
+  // 8: Lighthouse on a phone (scripts/bench/lighthouse.ts)
+  const [job] = await ownerQuery<{ id: string }>('select id from jobs where number = 1500', [], demoId)
+  for (const r of await lighthouseRows(url, cookie, [{ name: 'sign-in', path: '/sign-in', signedIn: false }, { name: 'Today', path: '/', signedIn: true }, { name: 'invoice list', path: '/invoices', signedIn: true }, { name: 'a job', path: `/jobs/${job!.id}`, signedIn: true }])) add(r)
 
   const out = join(env.root, 'tests/bench')
   mkdirSync(out, { recursive: true })
