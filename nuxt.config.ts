@@ -1,32 +1,4 @@
 // Setwell's Nuxt configuration. Everything runs on this machine: no telemetry, no font or CDN hosts.
-import { readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs'
-import { join } from 'node:path'
-import { brotliCompressSync, constants as zlibConstants, gzipSync } from 'node:zlib'
-
-/**
- * Nitro compresses the public files (compressPublicAssets) before @vite-pwa writes the final
- * /sw.js and manifest over the copies it had: a .br or .gz older than its file is made again from
- * the file, so a browser asking for brotli never gets yesterday's service worker.
- */
-function refreshCompressed(dir: string) {
-  for (const name of readdirSync(dir, { recursive: true, encoding: 'utf8' })) {
-    const m = /^(.*)\.(br|gz)$/.exec(name)
-    if (!m) continue
-    const source = join(dir, m[1]!)
-    let body: Buffer
-    try {
-      if (statSync(source).mtimeMs <= statSync(join(dir, name)).mtimeMs) continue
-      body = readFileSync(source)
-    }
-    catch {
-      continue
-    }
-    writeFileSync(join(dir, name), m[2] === 'br'
-      ? brotliCompressSync(body, { params: { [zlibConstants.BROTLI_PARAM_QUALITY]: zlibConstants.BROTLI_MAX_QUALITY, [zlibConstants.BROTLI_PARAM_SIZE_HINT]: body.length } })
-      : gzipSync(body, { level: zlibConstants.Z_BEST_COMPRESSION }))
-  }
-}
-
 export default defineNuxtConfig({
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt'],
   devtools: { enabled: false },
@@ -160,10 +132,6 @@ export default defineNuxtConfig({
     strict: true,
   },
   hooks: {
-    // after Nitro's compressPublicAssets and @vite-pwa's final /sw.js (both in rollup:before)
-    'nitro:build:before'(nitro) {
-      nitro.hooks.hook('rollup:before', () => refreshCompressed(nitro.options.output.publicDir))
-    },
     // `nuxt dev --host 127.0.0.1` still opens Vite's HMR socket on every interface
     'vite:extendConfig'(config) {
       const server = config.server as { hmr?: boolean | Record<string, unknown> } | undefined

@@ -55,7 +55,9 @@
 // "Least-loaded set in a range" is a segment tree over the sets, so each pass is about
 // tasks x log(sets): a house takes a few milliseconds, a 2,000-surface estate a fraction of a second.
 
-import { PLAN_ACTIONS, PLAN_ACTION_WORDS, type PlanAction } from './plan-actions'
+// the actions and their words live on their own (plan-actions.ts), so a screen that only names them
+// does not load the planner
+import type { PlanAction } from './plan-actions'
 
 export interface PlanSurface {
   id: string
@@ -79,9 +81,6 @@ export interface PlanOptions {
   /** Each room's ceiling in a set no later than its walls, and first in a set it shares (the firm's rule, on unless false). */
   ceilingsFirst?: boolean
 }
-// the actions and their words live on their own (plan-actions.ts), so a screen that only names them
-// does not load the planner
-export { PLAN_ACTIONS, PLAN_ACTION_WORDS, type PlanAction }
 export interface PlanTask { surfaceId: string, action: PlanAction, bags: number, reason: string }
 export interface PlannedSet { number: number, tasks: PlanTask[], bags: number }
 export interface SetPlan { sets: PlannedSet[], warnings: string[] }

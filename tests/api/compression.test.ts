@@ -123,7 +123,7 @@ describe('static files', () => {
     }
   })
 
-  it('never lets the service worker be kept, and its compressed copy is the worker itself (not the one before the precache list was written into it)', async () => {
+  it('never lets the service worker be kept, and whatever the encoding asked for, it is the worker with its precache list', async () => {
     const plain = await wire('/sw.js')
     expect(plain.status).toBe(200)
     expect(plain.headers['cache-control']).toBe('no-cache')
