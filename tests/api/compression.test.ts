@@ -15,7 +15,7 @@ beforeAll(async () => {
   app = await startApp()
   owner = (await signUpFirm(app.url, 'Wire Test Plastering')).client
   // enough customers that the list is well over the 1 KB below which nothing is compressed
-  for (let i = 0; i < 8; i++) {
+  for (let i = 0; i < 15; i++) {
     const res = await owner.post('/api/customers', { customer: { kind: 'homeowner', name: `Wire Customer ${i} Longbottom`, email: uniqueEmail(`wire${i}`), billingLine1: `${i} Kiln Row`, billingPostcode: 'KB1 2AB' } })
     expect(res.status, JSON.stringify(res.body)).toBe(201)
   }
