@@ -59,6 +59,7 @@ export default defineNuxtConfig({
     // draws them afresh each time), the service worker and the manifest are never kept long.
     '/_nuxt/**': { headers: { 'cache-control': 'public, max-age=31536000, immutable' } },
     '/sw.js': { headers: { 'cache-control': 'no-cache' } },
+    '/manifest.webmanifest': { headers: { 'cache-control': 'no-cache' } },
     // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
     // app with no server-side data, which draws the page from what the phone kept
     '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },

@@ -124,6 +124,9 @@ describe('static files', () => {
   })
 
   it('never lets the service worker be kept, and whatever the encoding asked for, it is the worker with its precache list', async () => {
+    const manifest = await wire('/manifest.webmanifest')
+    expect(manifest.status).toBe(200)
+    expect(manifest.headers['cache-control']).toBe('no-cache')
     const plain = await wire('/sw.js')
     expect(plain.status).toBe(200)
     expect(plain.headers['cache-control']).toBe('no-cache')
