@@ -54,6 +54,12 @@ export default defineNuxtConfig({
     },
   },
   routeRules: {
+    // the build's scripts and styles carry their content's hash in their names: a phone keeps them
+    // a year and never asks again (a new build has new names). Pages (no cache-control: the server
+    // draws them afresh each time), the service worker and the manifest are never kept long.
+    '/_nuxt/**': { headers: { 'cache-control': 'public, max-age=31536000, immutable' } },
+    '/sw.js': { headers: { 'cache-control': 'no-cache' } },
+    '/manifest.webmanifest': { headers: { 'cache-control': 'no-cache' } },
     // the app shell a phone with no signal is given for any page (app/service-worker/sw.ts): the
     // app with no server-side data, which draws the page from what the phone kept
     '/app-shell': { ssr: false, headers: { 'cache-control': 'no-store' } },
@@ -115,6 +121,10 @@ export default defineNuxtConfig({
   // (its own build folder and its own Vite cache, so two builds at once do not share files)
   ...(process.env.SETWELL_OUTPUT_DIR ? { buildDir: `${process.env.SETWELL_OUTPUT_DIR}-nuxt`, vite: { cacheDir: `${process.env.SETWELL_OUTPUT_DIR}-vite` } } : {}),
   nitro: {
+    // the public files (scripts, styles, fonts, the service worker) are also written as .br and .gz
+    // at build; the server sends the one the browser takes (Accept-Encoding). Pages and API answers
+    // are compressed as they go out (server/middleware/00.compression.ts).
+    compressPublicAssets: { gzip: true, brotli: true },
     // Node 20 runs ES2022; the default es2019 target warns on the BigInt literals in shared/utils
     esbuild: { options: { target: 'es2022' } },
     output: process.env.SETWELL_OUTPUT_DIR ? { dir: process.env.SETWELL_OUTPUT_DIR } : undefined,

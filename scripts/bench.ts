@@ -16,7 +16,10 @@
 // 7. Working with no signal: what the service worker precaches (files, bytes, gzipped), and how
 //    long Today takes to open on a throttled phone (4x slower CPU, a slow 3G line) from what the
 //    phone kept, against the same phone opening it with that line.
-// 8. A firm's day (scripts/bench/firm-day.ts): 200 small firms seeded beside the busy one, the
+// 8. Lighthouse 12, mobile on slow 4G (scripts/bench/lighthouse.ts): largest contentful paint and
+//    bytes transferred for sign-in, and signed in for Today, the invoice list and a job.
+//    `npm run bench -- --only=lighthouse` runs the seed and this section alone.
+// 9. A firm's day (scripts/bench/firm-day.ts): 200 small firms seeded beside the busy one, the
 //    requests a firm makes in a working day (plasterer, office, accountant) sent as one mix at
 //    rising rates until p95 passes 300 ms; the sustainable rate in firms per 2-core server.
 //    `npm run bench -- --only=firm-day` runs the seed and this section alone.
@@ -36,6 +39,7 @@ import { planSets, setLowerBound, type PlanCorner, type PlanSurface } from '../s
 import { randomJob, seeded } from '../tests/support/plan-rooms'
 import { DEMO_PEOPLE } from '../seeds/demo'
 import { firmDay } from './bench/firm-day'
+import { lighthouseRows } from './bench/lighthouse'
 
 const env = await import('./lib/env.mjs')
 const pgLib = await import('./lib/pg.mjs')
@@ -45,9 +49,9 @@ const SIZE = {
   customers: 20_000, jobs: 50_000, invoices: 100_000, linesPerInvoice: 3, payments: 150_000, setLogs: 400_000,
 }
 const SECONDS = Number(process.env.SETWELL_BENCH_SECONDS ?? 5)
-// `npm run bench -- --only=firm-day` (or SETWELL_BENCH_ONLY=firm-day): the seed, then that section alone
+// `npm run bench -- --only=firm-day` or `--only=lighthouse` (or SETWELL_BENCH_ONLY=…): the seed, then that section alone
 const only = process.env.SETWELL_BENCH_ONLY ?? process.argv.find(a => a.startsWith('--only='))?.slice('--only='.length)
-if (only && only !== 'firm-day') throw new Error(`--only=${only}: the sections that run alone are: firm-day`)
+if (only && only !== 'firm-day' && only !== 'lighthouse') throw new Error(`--only=${only}: the sections that run alone are: firm-day, lighthouse`)
 const p = { name: 'bench', dataDir: join(env.root, '.data/bench'), pgPort: Number(process.env.SETWELL_BENCH_PG_PORT ?? 54359), fast: true }
 const outputDir = process.env.SETWELL_OUTPUT_DIR ?? '.output'
 
@@ -300,10 +304,15 @@ async function main() {
   }
   const url = await startServer()
   const cookie = await signIn(url)
-  // 8: a firm's day, the mixed load of many firms (scripts/bench/firm-day.ts); last, as it adds firms and writes
+  // 8: Lighthouse on a phone (scripts/bench/lighthouse.ts)
+  const phoneRows = async () => {
+    const [job] = await ownerQuery<{ id: string }>('select id from jobs where number = 1500', [], demoId)
+    for (const r of await lighthouseRows(url, cookie, [{ name: 'sign-in', path: '/sign-in', signedIn: false }, { name: 'Today', path: '/', signedIn: true }, { name: 'invoice list', path: '/invoices', signedIn: true }, { name: 'a job', path: `/jobs/${job!.id}`, signedIn: true }])) add(r)
+  }
+  // 9: a firm's day, the mixed load of many firms (scripts/bench/firm-day.ts); last, as it adds firms and writes
   const day = () => firmDay({ url, superuserUrl: env.urls(p).superuser.replace(/\/postgres$/, `/${env.DB_NAME}`), busyFirmId: demoId, add })
-  if (only === 'firm-day') {
-    await day()
+  if (only === 'firm-day' || only === 'lighthouse') {
+    await (only === 'firm-day' ? day() : phoneRows())
     return writeReport(started)
   }
   const [invoice] = await ownerQuery<{ id: string }>('select id from invoices where number = 1500 and series = \'invoice\'', [], demoId)
@@ -444,6 +453,7 @@ async function main() {
     await phone.close()
   }
 
+  await phoneRows()
   await day()
   writeReport(started)
 }

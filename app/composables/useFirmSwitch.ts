@@ -9,7 +9,6 @@
 //   5. the person stays on the section they were on when it is a list the new role may open
 //      (/quarter stays /quarter), otherwise goes to Today (one invoice of the first firm means
 //      nothing in the second), and the page is drawn again, fetching everything afresh.
-import { forgetKept } from '~/utils/offline-cache'
 
 /** A section page the person may open in the firm they are now in: the lists under the bar, Money and Settings. */
 function sectionStays(path: string, allows: (p: import('#shared/utils/roles').Permission) => boolean) {
@@ -35,7 +34,8 @@ export function useFirmSwitch() {
     try {
       await nextTick()
       await $fetch('/api/me/firm', { method: 'PUT', body: { firmId } })
-      // what was kept for no signal was the other firm's
+      // what was kept for no signal was the other firm's (that code loads with the offline part)
+      const { forgetKept } = await import('~/utils/offline-cache')
       await forgetKept()
       offline.forgetFirm()
       clearNuxtData()

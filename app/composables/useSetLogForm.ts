@@ -8,7 +8,7 @@ import {
   coatForSet, inTheFuture, loggedTasks, MAX_PACKS_X1000, plannedBags, setLogFieldErrors, setLogTimes, setProgress, setToLog,
   setTooLong, taskKey, tasksToTick, type LogTask,
 } from '#shared/utils/set-log'
-import { PLAN_ACTION_WORDS } from '#shared/utils/set-plan'
+import { PLAN_ACTION_WORDS } from '#shared/utils/plan-actions'
 
 type Job = ApiResponse<'/api/jobs/:id'>
 type Entry = Job['logs'][number]

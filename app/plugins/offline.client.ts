@@ -4,7 +4,8 @@
 // - once someone of a firm is signed in: the service worker is registered, their jobs for the next
 //   7 days and the visits booked for them are kept (at start, when the signal returns and every 15
 //   minutes), and writes waiting in the outbox and rooms waiting on the phone go when the signal
-//   returns. That part is loaded only then: the sign-in page and customers' pages do without it.
+//   returns. That part is loaded only then (after the page has loaded): the sign-in page and
+//   customers' pages do without it.
 import { SAVED_AT_HEADER } from '~/utils/offline-names'
 
 export default defineNuxtPlugin((nuxtApp) => {
@@ -36,6 +37,13 @@ export default defineNuxtPlugin((nuxtApp) => {
     const { startOffline } = await import('~/utils/offline-start')
     startOffline()
   }
-  nuxtApp.hook('app:mounted', () => void start())
+  // on a page load, once the page is in and the phone is idle: the service worker's first download
+  // (the app's files) and what is kept for no signal never compete with the page's own first paint;
+  // on a sign-in within the app, at once
+  nuxtApp.hook('app:mounted', () => {
+    const idle = () => ('requestIdleCallback' in window ? requestIdleCallback(() => void start(), { timeout: 2000 }) : setTimeout(() => void start(), 0))
+    if (document.readyState === 'complete') idle()
+    else window.addEventListener('load', idle, { once: true })
+  })
   watch(() => shell.me?.user.id, () => void start())
 })

@@ -92,6 +92,9 @@ const stampAndGuard: WorkboxPlugin = {
     if (response.status !== 200) return null
     const headers = new Headers(response.headers)
     headers.set(SAVED_AT_HEADER, new Date().toISOString())
+    // the body kept is the decoded one: the server's compression (and length) no longer describe it
+    headers.delete('content-encoding')
+    headers.delete('content-length')
     return new Response(await response.blob(), { status: 200, statusText: response.statusText, headers })
   },
   // signed out (or the session ended): nothing kept may be shown again

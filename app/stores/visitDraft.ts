@@ -1,8 +1,7 @@
 import { defineStore } from 'pinia'
 import { useEventListener, useIntervalFn } from '@vueuse/core'
 import type { FetchError } from 'ofetch'
-import { fieldErrors } from '#shared/schemas/common'
-import { roomSchema, type Room } from '#shared/schemas/room'
+import type { Room } from '#shared/schemas/room'
 import type { Background, ConditionKind, CornerKind, OpeningKind, SurfaceKind } from '#shared/utils/ledger'
 import { formatSquareMetres, parseMetres, parseSquareMetres } from '#shared/utils/measure'
 import { roomTotals, type RoomTotals } from '#shared/utils/room-area'
@@ -183,8 +182,16 @@ export function toBody(room: DraftRoom) {
   }
 }
 
+/**
+ * The room's schema (and zod), loaded when a room is sent, not with the store: the store comes with
+ * every signed-in page (app/utils/offline-start.ts), a room is sent on a visit.
+ */
+const roomChecks = () => Promise.all([import('#shared/schemas/room'), import('#shared/schemas/common')])
+  .then(([{ roomSchema }, { fieldErrors }]) => ({ roomSchema, fieldErrors }))
+type RoomSchema = Awaited<ReturnType<typeof roomChecks>>['roomSchema']
+
 /** The same room, whatever the revision: what this draft would save is what is saved. */
-export function sameRoom(draft: DraftRoom, saved: SavedRoom): boolean {
+export function sameRoom(draft: DraftRoom, saved: SavedRoom, roomSchema: RoomSchema): boolean {
   const a = roomSchema.safeParse(toBody(draft))
   const b = roomSchema.safeParse(toBody(fromSaved(saved)))
   if (!a.success || !b.success) return false
@@ -319,6 +326,8 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
   }
 
   async function send(key: string): Promise<SendResult> {
+    // first, so nothing waits between the checks below and marking it sending (a double tap sends once)
+    const { roomSchema, fieldErrors } = await roomChecks()
     const e = entries.value[key]
     if (!e) return 'refused'
     if (e.state === 'sending') return 'busy'
@@ -359,7 +368,7 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
         return 'waiting'
       }
       const data = fe.data?.data
-      if (fe.statusCode === 409 && data?.current && now.version === version && sameRoom(now.room, data.current)) {
+      if (fe.statusCode === 409 && data?.current && now.version === version && sameRoom(now.room, data.current, roomSchema)) {
         // our own earlier send got there and only its answer was lost: the room as saved is this draft
         discard(key)
         lastSaved.value = { key, room: data.current, at: Date.now() }

@@ -3,7 +3,7 @@ import { isoDate, isoDateTime, queryWholeNumber, text, whenObject } from './comm
 import { daysBetween } from '../utils/dates'
 import { DAY_PORTIONS, JOB_STATUSES, LOG_COATS } from '../utils/jobs'
 import { inTheFuture, MAX_PACKS_X1000, setTooLong } from '../utils/set-log'
-import { PLAN_ACTIONS } from '../utils/set-plan'
+import { PLAN_ACTIONS } from '../utils/plan-actions'
 
 const pickDate = isoDate('Pick a date.')
 const upTo = (max: number) => text().trim().max(max, { error: `Keep it under ${max} characters.` })

@@ -1,8 +1,8 @@
 import { z } from 'zod'
 import { text } from './common'
 
-/** The longest edge of a photo as kept (server/utils/images.ts); a phone shrinks what it queues to this. */
-export const PHOTO_FULL_EDGE_PX = 2560
+// the longest edge kept (shared/utils/photo-size.ts, apart so the phone's shrinking does not load zod)
+export { PHOTO_FULL_EDGE_PX } from '../utils/photo-size'
 
 export const PHOTO_TARGET_KEYS = ['enquiryId', 'visitId', 'surfaceId', 'conditionId', 'setLogId'] as const
 export type PhotoTargetKey = (typeof PHOTO_TARGET_KEYS)[number]

@@ -2,7 +2,7 @@
 // materials used against the estimate, and the "ready to decorate from" date. Pure.
 import { JOB_CAUTIONS } from './cautions'
 import { addDays } from './dates'
-import type { PlanAction } from './set-plan'
+import type { PlanAction } from './plan-actions'
 
 export const JOB_STATUSES = ['booked', 'in-progress', 'finished', 'invoiced', 'paid', 'cancelled'] as const
 export type JobStatus = (typeof JOB_STATUSES)[number]

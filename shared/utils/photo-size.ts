@@ -1,4 +1,5 @@
-import { PHOTO_FULL_EDGE_PX } from '../schemas/photo'
+/** The longest edge of a photo as kept (server/utils/images.ts); a phone shrinks what it queues to this. */
+export const PHOTO_FULL_EDGE_PX = 2560
 
 /** The size a photo is drawn at before it is queued on the phone: the longest edge at most `edge`, never enlarged, the shape kept. */
 export function shrunkSize(width: number, height: number, edge = PHOTO_FULL_EDGE_PX): { width: number, height: number } {

@@ -2,7 +2,7 @@
 // the plan is logged as, and the two times typed on site as instants.
 import { addDays, londonDay, londonInstant, londonTime, shortDay } from './dates'
 import type { LogCoat } from './jobs'
-import type { PlanAction } from './set-plan'
+import type { PlanAction } from './plan-actions'
 
 /**
  * The coat a set on the plan is logged as. A set is both coats laid on and trowelled up in one go,

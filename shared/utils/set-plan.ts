@@ -55,6 +55,10 @@
 // "Least-loaded set in a range" is a segment tree over the sets, so each pass is about
 // tasks x log(sets): a house takes a few milliseconds, a 2,000-surface estate a fraction of a second.
 
+// the actions and their words live on their own (plan-actions.ts), so a screen that only names them
+// does not load the planner
+import type { PlanAction } from './plan-actions'
+
 export interface PlanSurface {
   id: string
   areaM2: number
@@ -77,11 +81,6 @@ export interface PlanOptions {
   /** Each room's ceiling in a set no later than its walls, and first in a set it shares (the firm's rule, on unless false). */
   ceilingsFirst?: boolean
 }
-/** What a task does: a patch fill, an undercoat over the whole surface, a thin tight coat over scrim, or the skim. */
-export const PLAN_ACTIONS = ['fill', 'undercoat', 'tight-coat', 'skim'] as const
-export type PlanAction = (typeof PLAN_ACTIONS)[number]
-/** Each action in a word or two, for the screens. */
-export const PLAN_ACTION_WORDS: Record<PlanAction, string> = { 'fill': 'Fill', 'tight-coat': 'Tight coat', 'undercoat': 'Undercoat', 'skim': 'Skim' }
 export interface PlanTask { surfaceId: string, action: PlanAction, bags: number, reason: string }
 export interface PlannedSet { number: number, tasks: PlanTask[], bags: number }
 export interface SetPlan { sets: PlannedSet[], warnings: string[] }

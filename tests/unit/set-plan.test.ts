@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import type { PlanCorner, PlanOptions, PlanSurface, SetPlan } from '../../shared/utils/set-plan'
-import { checkPlan, PLAN_ACTION_WORDS, PLAN_ACTIONS, planSets, setLowerBound } from '../../shared/utils/set-plan'
+import { PLAN_ACTION_WORDS, PLAN_ACTIONS } from '../../shared/utils/plan-actions'
+import { checkPlan, planSets, setLowerBound } from '../../shared/utils/set-plan'
 import { randomJob, seeded } from '../support/plan-rooms'
 
 // Sources. The order rules are common practice (../shared/DOMAIN.md, "Planning the sets"): split
