@@ -12,6 +12,6 @@ export default defineEventHandler(async (event) => {
     if (!m) notFound()
     await tx.update(sessions).set({ firmId }).where(and(eq(sessions.id, auth.sessionId), eq(sessions.userId, auth.userId)))
   })
-  event.context.auth = undefined
+  forgetAuth(event)
   return { ok: true }
 })
