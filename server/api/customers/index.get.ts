@@ -1,4 +1,4 @@
-import { asc, count, desc, eq, like, sql } from 'drizzle-orm'
+import { asc, count, desc, eq, inArray, like, sql } from 'drizzle-orm'
 import { customers } from '../../db/schema'
 import { customerListQuery } from '#shared/schemas/customer'
 
@@ -39,6 +39,10 @@ export default defineEventHandler(async (event) => {
     const counted = term
       ? sql<number>`(count(*) over ())::int`
       : sql<number>`(select count(*) from (select 1 from ${customers} where ${where} limit ${cap + 1}) c)::int`
+    // without a search, the page's ids are found first, from the index alone (customers_firm_name_idx
+    // holds name and id), and only those rows are read: a deep page skips its offset in the index
+    const onPage = term ? where : f.where(customers, inArray(customers.id,
+      f.tx.select({ id: customers.id }).from(customers).where(where).orderBy(...ORDER[sort]).limit(pageSize + 1).offset(offset)))
     const found = await f.tx.select({
       id: customers.id,
       kind: customers.kind,
@@ -49,7 +53,7 @@ export default defineEventHandler(async (event) => {
       billingPostcode: customers.billingPostcode,
       createdAt: customers.createdAt,
       counted,
-    }).from(customers).where(where).orderBy(...ORDER[sort]).limit(pageSize + 1).offset(offset)
+    }).from(customers).where(onPage).orderBy(...ORDER[sort]).limit(pageSize + 1).offset(term ? offset : 0)
     // past the last page no row carries the count: count on its own (rare)
     const n = found[0]?.counted ?? (await f.tx.select({ n: count() }).from(sql`(select 1 from ${customers} where ${where} limit ${cap + 1}) c`))[0]?.n ?? 0
     const rows = found.slice(0, pageSize).map(({ counted: _c, ...r }) => r)

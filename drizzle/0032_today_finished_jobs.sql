@@ -1,1 +1,0 @@
-CREATE INDEX "jobs_finished_idx" ON "jobs" USING btree ("firm_id","updated_at","id") WHERE "jobs"."status" = 'finished';
