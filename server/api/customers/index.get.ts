@@ -41,8 +41,10 @@ export default defineEventHandler(async (event) => {
       : sql<number>`(select count(*) from (select 1 from ${customers} where ${where} limit ${cap + 1}) c)::int`
     // without a search, the page's ids are found first, from the index alone (customers_firm_name_idx
     // holds name and id), and only those rows are read: a deep page skips its offset in the index
-    const onPage = term ? where : f.where(customers, inArray(customers.id,
-      f.tx.select({ id: customers.id }).from(customers).where(where).orderBy(...ORDER[sort]).limit(pageSize + 1).offset(offset)))
+    const onPage = term
+      ? where
+      : f.where(customers, inArray(customers.id,
+          f.tx.select({ id: customers.id }).from(customers).where(where).orderBy(...ORDER[sort]).limit(pageSize + 1).offset(offset)))
     const found = await f.tx.select({
       id: customers.id,
       kind: customers.kind,
