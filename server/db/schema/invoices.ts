@@ -84,8 +84,9 @@ export const invoices = pgTable('invoices', {
   // what has been credited against an invoice (the owed view, statuses, the invoice page): without
   // it every invoice scans every other one
   index('invoices_credits_idx').on(t.firmId, t.creditsInvoiceId).where(sql`${t.creditsInvoiceId} is not null`),
-  // what is still owed (the owed view, the reminders): a few rows among a busy firm's hundred thousand
-  index('invoices_owing_idx').on(t.firmId, t.dueOn).where(sql`${t.issuedOn} is not null and ${t.kind} <> 'credit-note' and ${t.amountDuePence} > ${t.settledPence}`),
+  // what is still owed (the owed view, the reminders): a few rows among a busy firm's hundred thousand;
+  // in due-date order with what the owed sums read, so they come from the index alone (npm run bench)
+  index('invoices_owing_idx').on(t.firmId, t.dueOn, t.number, t.customerId, t.amountDuePence, t.settledPence).where(sql`${t.issuedOn} is not null and ${t.kind} <> 'credit-note' and ${t.amountDuePence} > ${t.settledPence}`),
   pgPolicy('invoices_by_token', { for: 'select', using: sql`token_hash = nullif(current_setting('app.invoice_token_hash', true), '')` }),
   firmPolicy('invoices'),
 ]).enableRLS()
