@@ -336,9 +336,9 @@ async function main() {
         add({ ...row, name: `${name} p50`, value: r.p50, ratio: p50Ratio, budget: `<= ${target.p50Ms} ms`, met: r.p50 <= target.p50Ms })
       }
       else if (connections === 32 && target.rpsGain) {
-        const before = BEFORE_RPS_RATIO[path]!
-        const gain = rps / baseRps / before
-        add({ ...row, name: `${name} requests/s`, value: rps, unit: 'req/s', ratio: gain, budget: `>= 3x before (x${before.toFixed(3)} of trivial then)`, met: gain >= 3, note: `${note}; x${(rps / baseRps).toFixed(3)} of the trivial route's; p95 ${r.p95.toFixed(1)} ms` })
+        const before = BEFORE_RPS_RATIO[path]
+        const gain = before ? rps / baseRps / before : undefined
+        add({ ...row, name: `${name} requests/s`, value: rps, unit: 'req/s', ratio: gain, budget: before ? `>= 3x before (x${before.toFixed(3)} of trivial then)` : undefined, met: gain === undefined ? undefined : gain >= 3, note: `${note}; x${(rps / baseRps).toFixed(3)} of the trivial route's; p95 ${r.p95.toFixed(1)} ms` })
       }
       else if (connections === 32 && target.p95Ms32) {
         add({ ...row, name: `${name} p95`, value: r.p95, ratio: r.p95 / base.p95, budget: `< ${target.p95Ms32} ms`, met: r.p95 < target.p95Ms32 })
