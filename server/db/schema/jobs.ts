@@ -59,8 +59,6 @@ export const jobs = pgTable('jobs', {
   foreignKey({ name: 'jobs_quote_version_fk', columns: [t.firmId, t.quoteVersionId], foreignColumns: [quoteVersions.firmId, quoteVersions.id] }),
   foreignKey({ name: 'jobs_visit_fk', columns: [t.firmId, t.visitId], foreignColumns: [visits.firmId, visits.id] }),
   index('jobs_firm_status_idx').on(t.firmId, t.status),
-  // Today's jobs finished and not invoiced, oldest first, and how many: 10,000 at a busy firm (npm run bench)
-  index('jobs_finished_idx').on(t.firmId, t.updatedAt, t.id).where(sql`${t.status} = 'finished'`),
   firmPolicy('jobs'),
 ]).enableRLS()
 
