@@ -2,7 +2,7 @@
 // and the office, each list chosen, limited and counted in SQL (a window count, so the rows beyond
 // the first few are never loaded), from indexes (drizzle/0030_today_next_actions.sql adds the ones the
 // lists lacked); crew's day; the accountant's firms. The words are shared/utils/next-actions.ts.
-import { and, asc, count, eq, gte, isNull, lt, lte, ne, or, sql, type SQLWrapper } from 'drizzle-orm'
+import { and, asc, eq, gte, isNull, lt, lte, ne, or, sql, type SQLWrapper } from 'drizzle-orm'
 import {
   chaseNotes, customers, documents, enquiries, firms, invitations, invoices, jobDays, jobs, memberships, purchases,
   quotes, quoteVersions, rooms, setLogs, sites, users, visits,
@@ -24,11 +24,7 @@ import {
 
 /** How many rows of a list there are in all: counted by the database beside the few it sends. */
 const total = sql<number>`(count(*) over ())::int`
-/**
- * The same, for a long list, as a count of its own table's rows in the same statement: the
- * window count above reads every row of the list through the joins of the few shown (10,000
- * finished jobs each joined to its customer at a busy firm: npm run bench).
- */
+/** A count of another query as a column of this one (one statement, not two). */
 const countOf = (query: SQLWrapper) => sql<number>`(${query})::int`
 /** A visit is looked at for writing up this long after it was done. */
 export const WRITE_UP_LOOKBACK_DAYS = 90
@@ -114,34 +110,29 @@ const quotesNotBooked: Source = async (f, today) => {
 /** Jobs finished and not invoiced in full (jobs_firm_status_idx): since they were marked finished. */
 const jobsNotInvoiced: Source = async (f, today) => {
   const letters = await referenceLettersOf(f)
-  const finished = f.where(jobs, eq(jobs.status, 'finished'))
   return listed(await f.tx.select({
     id: jobs.id, number: jobs.number, customer: customers.name, grossPence: jobs.grossPence,
     finishedAt: sql<string>`coalesce((select max(c.changed_at) from job_status_changes c where c.firm_id = ${jobs.firmId} and c.job_id = ${jobs.id} and c.to_status = 'finished'), ${jobs.updatedAt})`,
     invoicedPence: sql<number>`(select coalesce(sum(i.amount_due_pence), 0) from ${invoices} i where i.firm_id = ${jobs.firmId} and i.job_id = ${jobs.id} and i.issued_on is not null and i.kind <> 'credit-note')::int`,
-    total: countOf(f.tx.select({ n: count() }).from(jobs).where(finished)),
+    total,
   }).from(jobs)
     .innerJoin(customers, and(eq(customers.firmId, jobs.firmId), eq(customers.id, jobs.customerId)))
-    .where(finished)
+    .where(f.where(jobs, eq(jobs.status, 'finished')))
     .orderBy(asc(jobs.updatedAt), asc(jobs.id)).limit(ACTIONS_PER_KIND),
   r => jobNotInvoicedAction({ ...r, reference: jobReference(letters, r.number) }, today))
 }
 
 /** Invoices past their due date with something still to pay (invoices_owing_idx). Paid: gone at once. */
-const invoicesOverdue: Source = async (f, today) => {
-  const overdue = owing(f, lt(invoices.dueOn, today),
+const invoicesOverdue: Source = async (f, today) => listed(await f.tx.select({
+  id: invoices.id, reference: invoices.reference, dueOn: invoices.dueOn, customer: customers.name,
+  outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`, total,
+}).from(invoices)
+  .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
+  .where(owing(f, lt(invoices.dueOn, today),
     // a customer who promised to pay by today or later is left until that day has passed
-    sql`not exists (select 1 from ${chaseNotes} c where c.firm_id = ${invoices.firmId} and c.invoice_id = ${invoices.id} and c.promised_on >= ${today})`)
-  return listed(await f.tx.select({
-    id: invoices.id, reference: invoices.reference, dueOn: invoices.dueOn, customer: customers.name,
-    outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`,
-    total: countOf(f.tx.select({ n: count() }).from(invoices).where(overdue)),
-  }).from(invoices)
-    .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-    .where(overdue)
-    .orderBy(asc(invoices.dueOn), asc(invoices.number)).limit(ACTIONS_PER_KIND),
-  r => invoiceOverdueAction({ ...r, reference: r.reference ?? '', dueOn: r.dueOn! }, today))
-}
+    sql`not exists (select 1 from ${chaseNotes} c where c.firm_id = ${invoices.firmId} and c.invoice_id = ${invoices.id} and c.promised_on >= ${today})`))
+  .orderBy(asc(invoices.dueOn), asc(invoices.number)).limit(ACTIONS_PER_KIND),
+r => invoiceOverdueAction({ ...r, reference: r.reference ?? '', dueOn: r.dueOn! }, today))
 
 /**
  * Days booked in the last two weeks (before today) on which no set was logged on the job: one
