@@ -6,8 +6,8 @@ import { queryAsFirm } from '../support/db'
 
 // Capacity (issue 19): what the cheaper server answers must be what it answered before. The
 // customers list counts only ten pages ahead (hasMore, totalAtLeast); what is owed adds up its
-// ages in SQL, checked here against sums the test works out itself; Today's long lists are
-// counted on their own; a page rendered on the server still answers for the person signed in.
+// ages in SQL, checked here against sums the test works out itself; Today's long lists show five
+// and count the rest; a page rendered on the server still answers for the person signed in.
 
 let app: TestApp
 const today = londonToday()
