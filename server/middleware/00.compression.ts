@@ -11,7 +11,7 @@
 //   it to drain (server/utils/exports.ts); a ZIP is compressed already;
 // - anything but HTML and JSON (photos, PDFs, documents, calendar feeds, any event stream);
 // - requests that take no encoding, like the in-process calls a server-rendered page makes.
-import type { IncomingMessage, ServerResponse } from 'node:http'
+import type { NodeMiddleware } from 'h3'
 import compression from 'compression'
 
 const COMPRESSED = /^(?:text\/html|application\/json)\b/i
@@ -19,7 +19,7 @@ const NEVER = ['/exports/']
 
 const compress = compression({
   filter: (_req, res) => COMPRESSED.test(String(res.getHeader('content-type') ?? '')),
-}) as unknown as (req: IncomingMessage, res: ServerResponse, next: (err?: unknown) => void) => void
+}) as unknown as NodeMiddleware
 
 const middleware = fromNodeMiddleware(compress)
 

@@ -1,7 +1,7 @@
 // The one entry point to PostgreSQL: owns the pool, and the firm-scoped transaction helper that
 // every firm query goes through.
 import { and, eq, sql, type SQL } from 'drizzle-orm'
-import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres'
+import { drizzle, NodePgSession, NodePgTransaction, type NodePgDatabase } from 'drizzle-orm/node-postgres'
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import pg from 'pg'
 import * as schema from '../db/schema'
@@ -41,6 +41,8 @@ type FirmTable = PgTable & { firmId: PgColumn }
  * SQL itself, so a query is right even before the database checks it.
  */
 export class FirmScope {
+  /** The firm's letters for references, once read (server/utils/firm-letters.ts). */
+  letters?: Promise<string>
   constructor(readonly tx: Tx, readonly firmId: string, readonly userId: string | null) {}
 
   /** `firm_id = <this firm>` and the other conditions, for a WHERE clause. */
@@ -77,20 +79,157 @@ async function setScope(tx: Tx, firmId: string | null, userId: string | null) {
   await tx.execute(sql`select set_config('app.firm_id', ${firmId ?? ''}, true), set_config('app.user_id', ${userId ?? ''}, true)`)
 }
 
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
+/** An id that may be written into SQL text: a uuid and nothing else. */
+export const isUuid = (s: unknown): s is string => typeof s === 'string' && UUID.test(s)
+
+/**
+ * The statement that sets a transaction's scope, as text for a simple query, so BEGIN and the
+ * scope go to PostgreSQL in one round trip (a simple query may hold several statements; one with
+ * parameters may not). Only uuids are ever written into it; null when an id is not one.
+ */
+export function scopeText(firmId: string | null, userId: string | null): string | null {
+  if ((firmId !== null && !isUuid(firmId)) || (userId !== null && !isUuid(userId))) return null
+  return `select set_config('app.firm_id', '${firmId ?? ''}', true), set_config('app.user_id', '${userId ?? ''}', true)`
+}
+
+/** A Drizzle transaction on a connection we opened the transaction on ourselves (same class Drizzle's own transactions are). */
+function txOn(client: pg.PoolClient): Tx {
+  const base = useDb() as unknown as { dialect: never, session: { schema: never, options: never } }
+  const session = new NodePgSession(client, base.dialect, base.session.schema, base.session.options)
+  return new NodePgTransaction(base.dialect, session, base.session.schema) as unknown as Tx
+}
+
+/** Commit (or roll back) and give the connection back; a connection that fails to end its transaction is dropped, not reused. */
+async function finish(client: pg.PoolClient, how: 'commit' | 'rollback') {
+  try {
+    await client.query(how)
+  }
+  catch (err) {
+    client.release(err as Error)
+    throw err
+  }
+  client.release()
+}
+
+/**
+ * One transaction on a connection of its own: BEGIN and the scope in one round trip, `fn`, then
+ * COMMIT (ROLLBACK when it throws). What Drizzle's `transaction` does, less one round trip.
+ */
+async function transactionWithScope<T>(firmId: string | null, userId: string | null, fn: (tx: Tx) => Promise<T>): Promise<T> {
+  const text = scopeText(firmId, userId)
+  if (!text) {
+    return useDb().transaction(async (tx) => {
+      await setScope(tx, firmId, userId)
+      return fn(tx)
+    })
+  }
+  useDb()
+  const client = await pool!.connect()
+  try {
+    await client.query(`begin; ${text}`)
+  }
+  catch (err) {
+    client.release(err as Error)
+    throw err
+  }
+  return runOn(client, fn)
+}
+
+async function runOn<T>(client: pg.PoolClient, fn: (tx: Tx) => Promise<T>): Promise<T> {
+  let result: T
+  try {
+    result = await fn(txOn(client))
+  }
+  catch (err) {
+    await finish(client, 'rollback').catch(() => {})
+    throw err
+  }
+  await finish(client, 'commit')
+  return result
+}
+
+/**
+ * A transaction a request's session check opened (server/utils/auth.ts), scoped to the session's
+ * firm and person, that the request's first `withFirm` for that same scope carries on: the
+ * session check and the firm's work are then one transaction, with one BEGIN and one COMMIT. It
+ * is only kept while the request goes straight on to its work: at the next turn of the event loop
+ * (anything that waits for input or output on the way), or when the request ends, it is committed
+ * and its connection given back, and a later `withFirm` opens a transaction of its own, as before.
+ */
+export class RequestTx {
+  private state: 'open' | 'taken' | 'closed' = 'open'
+  constructor(private readonly client: pg.PoolClient, readonly firmId: string, readonly userId: string) {
+    setImmediate(() => void this.close())
+  }
+
+  get open() {
+    return this.state === 'open'
+  }
+
+  /** Run `fn` in this transaction, then commit; only the first caller gets it (null after). */
+  take<T>(fn: (tx: Tx) => Promise<T>): Promise<T> | null {
+    if (this.state !== 'open') return null
+    this.state = 'taken'
+    return runOn(this.client, fn)
+  }
+
+  /** End it unused: commit (the session check may have written) and give the connection back. */
+  async close(how: 'commit' | 'rollback' = 'commit') {
+    if (this.state !== 'open') return
+    this.state = 'closed'
+    await finish(this.client, how).catch(err => console.error('[db] ending a request transaction', (err as Error).message))
+  }
+}
+
+/**
+ * Open a transaction whose first statements are `text` (a simple query: BEGIN, then statements
+ * with no parameters): the connection and each statement's rows. The caller ends it.
+ */
+export async function beginWith(text: string): Promise<{ client: pg.PoolClient, results: pg.QueryResult[] }> {
+  useDb()
+  const client = await pool!.connect()
+  try {
+    const res = await client.query(`begin; ${text}`) as unknown as pg.QueryResult[]
+    return { client, results: res }
+  }
+  catch (err) {
+    await client.query('rollback').then(() => client.release(), e => client.release(e as Error))
+    throw err
+  }
+}
+
+/** Statements with no parameters, in one round trip and one transaction of their own (a simple query). */
+export async function simpleQuery(text: string): Promise<pg.QueryResult[]> {
+  useDb()
+  const res = await pool!.query(text) as unknown as pg.QueryResult | pg.QueryResult[]
+  return Array.isArray(res) ? res : [res]
+}
+
+/** Transactions that a request's session check opened, by the context it returned (see RequestTx). */
+const requestTxs = new WeakMap<object, RequestTx>()
+export function holdRequestTx(scope: object, held: RequestTx) {
+  requestTxs.set(scope, held)
+}
+
 /** Run `fn` in one transaction scoped to a firm (and the acting person). */
-export async function withFirm<T>(scope: { firmId: string, userId: string | null }, fn: (f: FirmScope) => Promise<T>): Promise<T> {
-  return useDb().transaction(async (tx) => {
-    await setScope(tx, scope.firmId, scope.userId)
-    return fn(new FirmScope(tx, scope.firmId, scope.userId))
-  })
+export async function withFirm<T>(scope: { firmId: string, userId: string | null, firmLetters?: string }, fn: (f: FirmScope) => Promise<T>): Promise<T> {
+  const scoped = (tx: Tx) => {
+    const f = new FirmScope(tx, scope.firmId, scope.userId)
+    if (scope.firmLetters) f.letters = Promise.resolve(scope.firmLetters)
+    return fn(f)
+  }
+  const held = requestTxs.get(scope)
+  if (held && held.firmId === scope.firmId && held.userId === scope.userId) {
+    const run = held.take(scoped)
+    if (run) return run
+  }
+  return transactionWithScope(scope.firmId, scope.userId, scoped)
 }
 
 /** Run `fn` in one transaction as a person with no firm chosen: they see their own memberships and firms only. */
 export async function withUser<T>(userId: string, fn: (tx: Tx) => Promise<T>): Promise<T> {
-  return useDb().transaction(async (tx) => {
-    await setScope(tx, null, userId)
-    return fn(tx)
-  })
+  return transactionWithScope(null, userId, fn)
 }
 
 /** Set the scope inside a transaction that has already started (sign-up, accepting an invitation). */

@@ -3,15 +3,12 @@
 import { eq } from 'drizzle-orm'
 import { firms } from '../db/schema'
 
-const read = new WeakMap<FirmScope, Promise<string>>()
-
-/** The current firm's letters (BP); its trading name's initials should the column be blank. */
+/**
+ * The current firm's letters (BP); its trading name's initials should the column be blank. A
+ * signed-in request has them already, read with its session (server/utils/auth.ts).
+ */
 export function referenceLettersOf(f: FirmScope): Promise<string> {
-  let letters = read.get(f)
-  if (!letters) {
-    letters = f.tx.select({ letters: firms.referenceLetters, name: firms.tradingName }).from(firms).where(eq(firms.id, f.firmId))
-      .then(([firm]) => firm?.letters || firmLetters(firm?.name ?? ''))
-    read.set(f, letters)
-  }
-  return letters
+  f.letters ??= f.tx.select({ letters: firms.referenceLetters, name: firms.tradingName }).from(firms).where(eq(firms.id, f.firmId))
+    .then(([firm]) => firm?.letters || firmLetters(firm?.name ?? ''))
+  return f.letters
 }

@@ -2,12 +2,13 @@
 // and the office, each list chosen, limited and counted in SQL (a window count, so the rows beyond
 // the first few are never loaded), from indexes (drizzle/0030_today_next_actions.sql adds the ones the
 // lists lacked); crew's day; the accountant's firms. The words are shared/utils/next-actions.ts.
-import { and, asc, eq, gte, isNotNull, isNull, lt, lte, ne, or, sql } from 'drizzle-orm'
+import { and, asc, eq, gte, isNull, lt, lte, ne, or, sql, type SQLWrapper } from 'drizzle-orm'
 import {
   chaseNotes, customers, documents, enquiries, firms, invitations, invoices, jobDays, jobs, memberships, purchases,
   quotes, quoteVersions, rooms, setLogs, sites, users, visits,
 } from '../db/schema'
 import type { FirmScope } from './db'
+import { owing } from './owed'
 import { brokenPromiseActions } from './promises'
 import type { Role } from '#shared/utils/roles'
 import { addDays } from '#shared/utils/dates'
@@ -23,6 +24,8 @@ import {
 
 /** How many rows of a list there are in all: counted by the database beside the few it sends. */
 const total = sql<number>`(count(*) over ())::int`
+/** A count of another query as a column of this one (one statement, not two). */
+const countOf = (query: SQLWrapper) => sql<number>`(${query})::int`
 /** A visit is looked at for writing up this long after it was done. */
 export const WRITE_UP_LOOKBACK_DAYS = 90
 
@@ -125,7 +128,7 @@ const invoicesOverdue: Source = async (f, today) => listed(await f.tx.select({
   outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`, total,
 }).from(invoices)
   .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-  .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`, lt(invoices.dueOn, today),
+  .where(owing(f, lt(invoices.dueOn, today),
     // a customer who promised to pay by today or later is left until that day has passed
     sql`not exists (select 1 from ${chaseNotes} c where c.firm_id = ${invoices.firmId} and c.invoice_id = ${invoices.id} and c.promised_on >= ${today})`))
   .orderBy(asc(invoices.dueOn), asc(invoices.number)).limit(ACTIONS_PER_KIND),
@@ -253,14 +256,16 @@ async function visitsToCome(f: FirmScope, who: Who): Promise<VisitToCome[]> {
 
 /** What is owed in all and how many quotes wait for an answer (the owing index; the open quotes index). */
 async function moneySummary(f: FirmScope, today: string): Promise<MoneySummary> {
+  // one statement: the quotes waiting counted beside the sums
+  const waiting = f.tx.select({ n: sql<number>`count(*)` }).from(quoteVersions).innerJoin(quotes, currentVersion)
+    .where(f.where(quoteVersions, eq(quoteVersions.status, 'sent')))
   const [owed] = await f.tx.select({
     owedPence: sql<number>`coalesce(sum(${invoices.amountDuePence} - ${invoices.settledPence}), 0)::bigint::text`,
     overduePence: sql<number>`coalesce(sum(${invoices.amountDuePence} - ${invoices.settledPence}) filter (where ${invoices.dueOn} < ${today}), 0)::bigint::text`,
+    quotesWaiting: countOf(waiting),
   }).from(invoices)
-    .where(f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`))
-  const [quotesWaiting] = await f.tx.select({ n: sql<number>`count(*)::int` }).from(quoteVersions).innerJoin(quotes, currentVersion)
-    .where(f.where(quoteVersions, eq(quoteVersions.status, 'sent')))
-  return { owedPence: Number(owed?.owedPence ?? 0), overduePence: Number(owed?.overduePence ?? 0), quotesWaiting: quotesWaiting?.n ?? 0 }
+    .where(owing(f))
+  return { owedPence: Number(owed?.owedPence ?? 0), overduePence: Number(owed?.overduePence ?? 0), quotesWaiting: owed?.quotesWaiting ?? 0 }
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -67,14 +67,20 @@ export const AGE_BUCKETS = ['not-due', '1-30', '31-60', '61-90', 'over-90'] as c
 export type AgeBucket = (typeof AGE_BUCKETS)[number]
 export const AGE_BUCKET_LABELS: Record<AgeBucket, string> = { 'not-due': 'Not yet due', '1-30': '1–30 days', '31-60': '31–60 days', '61-90': '61–90 days', 'over-90': 'Over 90 days' }
 
+/**
+ * The most days late each age holds (not yet due: none; the last age has no end). The server's
+ * SQL totals (server/utils/owed.ts) are written from this same table.
+ */
+export const AGE_BUCKET_MOST_DAYS_LATE: Record<AgeBucket, number> = { 'not-due': 0, '1-30': 30, '31-60': 60, '61-90': 90, 'over-90': Number.POSITIVE_INFINITY }
+
 /** Which age a debt is, by the days since its due date. */
 export function ageBucket(dueOn: string, today: string): AgeBucket {
-  const late = daysBetween(dueOn, today)
-  if (late <= 0) return 'not-due'
-  if (late <= 30) return '1-30'
-  if (late <= 60) return '31-60'
-  if (late <= 90) return '61-90'
-  return 'over-90'
+  return bucketOfDaysLate(daysBetween(dueOn, today))
+}
+
+/** Which age a debt is this many days after its due date (0 or less: not yet due). */
+export function bucketOfDaysLate(late: number): AgeBucket {
+  return AGE_BUCKETS.find(b => late <= AGE_BUCKET_MOST_DAYS_LATE[b]) ?? 'over-90'
 }
 
 /**

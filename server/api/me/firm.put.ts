@@ -12,6 +12,6 @@ export default defineEventHandler(async (event) => {
     if (!m) notFound()
     await tx.update(sessions).set({ currentFirmId: firmId }).where(and(eq(sessions.userId, auth.userId), eq(sessions.id, auth.sessionId)))
   })
-  event.context.auth = undefined
+  forgetAuth(event)
   return { ok: true }
 })

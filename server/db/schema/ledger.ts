@@ -47,7 +47,8 @@ export const customers = pgTable('customers', {
   primaryKey({ columns: [t.firmId, t.id] }),
   unique('customers_import_key_unique').on(t.firmId, t.importKey),
   index('customers_search_idx').using('gin', t.searchText.op('gin_trgm_ops')),
-  index('customers_firm_name_idx').on(t.firmId, t.name),
+  // with the id: the customers list finds a page by name from the index alone (npm run bench)
+  index('customers_firm_name_idx').on(t.firmId, t.name, t.id),
   index('customers_firm_created_idx').on(t.firmId, t.createdAt),
   ...firmPolicies('customers'),
 ]).enableRLS()
