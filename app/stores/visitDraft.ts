@@ -183,12 +183,21 @@ export function toBody(room: DraftRoom) {
 }
 
 /**
- * The room's schema (and zod), loaded when a room is sent, not with the store: the store comes with
- * every signed-in page (app/utils/offline-start.ts), a room is sent on a visit.
+ * The room's schema (and zod), loaded when a room is opened for editing, not with the store: the
+ * store comes with every signed-in page (app/utils/offline-start.ts), a room is edited on a visit.
+ * Loaded once; a failed load (no signal before the service worker kept the file) is tried again.
  */
-const roomChecks = () => Promise.all([import('#shared/schemas/room'), import('#shared/schemas/common')])
+const loadRoomChecks = () => Promise.all([import('#shared/schemas/room'), import('#shared/schemas/common')])
   .then(([{ roomSchema }, { fieldErrors }]) => ({ roomSchema, fieldErrors }))
-type RoomSchema = Awaited<ReturnType<typeof roomChecks>>['roomSchema']
+let roomChecksLoading: ReturnType<typeof loadRoomChecks> | undefined
+function roomChecks() {
+  roomChecksLoading ??= loadRoomChecks().catch((err) => {
+    roomChecksLoading = undefined
+    throw err
+  })
+  return roomChecksLoading
+}
+type RoomSchema = Awaited<ReturnType<typeof loadRoomChecks>>['roomSchema']
 
 /** The same room, whatever the revision: what this draft would save is what is saved. */
 export function sameRoom(draft: DraftRoom, saved: SavedRoom, roomSchema: RoomSchema): boolean {
@@ -273,6 +282,8 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
   }
 
   function add(room: DraftRoom, dirty: boolean): string {
+    // the checks a save needs, fetched now, while there may still be a signal
+    if (import.meta.client) roomChecks().catch(() => {})
     const key = draftKey(room.visitId, room.id)
     entries.value[key] = { key, room, state: 'editing', dirty, version: 0, errors: noErrors(), changedAt: Date.now() }
     return key
@@ -327,10 +338,16 @@ export const useVisitDraftStore = defineStore('visitDraft', () => {
 
   async function send(key: string): Promise<SendResult> {
     // first, so nothing waits between the checks below and marking it sending (a double tap sends once)
-    const { roomSchema, fieldErrors } = await roomChecks()
+    const checks = await roomChecks().catch(() => null)
     const e = entries.value[key]
     if (!e) return 'refused'
     if (e.state === 'sending') return 'busy'
+    if (!checks) {
+      // the checks could not be fetched (no signal, and not kept yet): kept, checked and sent later
+      e.state = 'waiting'
+      return 'waiting'
+    }
+    const { roomSchema, fieldErrors } = checks
     const check = roomSchema.safeParse(toBody(e.room))
     if (!check.success) {
       e.errors = { message: 'Check the highlighted fields.', fields: fieldErrors(check.error.issues) }
