@@ -2,9 +2,9 @@
 // - every answer the service worker hands back from what the phone kept carries when it was kept;
 //   the shell says so (ShellOffline);
 // - once someone of a firm is signed in: the service worker is registered, their jobs for the next
-//   7 days and the visits booked for them are kept (at start, when the signal returns and every 15
-//   minutes), and writes waiting in the outbox and rooms waiting on the phone go when the signal
-//   returns. That part is loaded only then (after the page has loaded): the sign-in page and
+//   7 days and the visits booked for them are kept (at start, when the signal returns, and hourly
+//   while Setwell is on screen: app/utils/offline-start.ts), and writes waiting in the outbox and
+//   rooms waiting on the phone go when the signal returns. That part is loaded only then (after the page has loaded): the sign-in page and
 //   customers' pages do without it.
 import { SAVED_AT_HEADER } from '~/utils/offline-names'
 

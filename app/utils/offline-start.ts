@@ -2,8 +2,7 @@
 // in (a separate chunk: the outbox, room drafts and IndexedDB stay off the sign-in page).
 import { useEventListener, useIntervalFn } from '@vueuse/core'
 import { keepUrls, urlsToKeep } from '~/utils/offline-cache'
-
-const KEEP_EVERY_MS = 15 * 60_000
+import { KEEP_EVERY_MS, keepDue } from '#shared/utils/offline-plan'
 
 export function startOffline() {
   const offline = useOfflineStore()
@@ -24,7 +23,7 @@ export function startOffline() {
     const key = `setwell:kept:${me.user.id}:${me.firm.id}`
     const last = Number(localStorage.getItem(key) ?? 0)
     offline.keptAt = last || null
-    if (!force && Date.now() - last < KEEP_EVERY_MS) return
+    if (!keepDue(Date.now(), last, force, document.visibilityState === 'hidden')) return
     keeping = true
     try {
       const urls = await urlsToKeep(me)
@@ -56,6 +55,9 @@ export function startOffline() {
     void keep(true)
   })
   useIntervalFn(() => void keep(), KEEP_EVERY_MS)
+  useEventListener(document, 'visibilitychange', () => {
+    if (document.visibilityState === 'visible') void keep()
+  })
   // signed in as someone else, or into another firm: keep that person's work
   watch(() => shell.me && `${shell.me.user.id}:${shell.me.firm.id}`, (now, before) => {
     if (now && now !== before) void keep(true)

@@ -29,3 +29,25 @@ export function pathsToKeep(who: KeepWho, days: readonly KeepDay[], visits: read
   }
   return paths
 }
+
+/**
+ * How often the week is kept again while Setwell is on screen: hourly (a week's jobs change by the
+ * day, and every page and list looked at with a signal is kept as it is shown). Each keep renders
+ * every page kept, and it was most of what a firm asked of the server in a day, every 15 minutes
+ * (npm run bench, a firm's day).
+ */
+export const KEEP_EVERY_MS = 60 * 60_000
+/** Even when asked (the signal back), not twice in five minutes: a van in and out of signal would keep the week each time. */
+export const KEEP_AT_MOST_EVERY_MS = 5 * 60_000
+
+/**
+ * Whether to keep the week now: `lastMs` when it was last kept for this person and firm (0 for
+ * never), `asked` when something asks for it (the signal is back, another firm or person), `hidden`
+ * when the page is behind others (a tab left open keeps nothing until it is looked at again).
+ */
+export function keepDue(nowMs: number, lastMs: number, asked: boolean, hidden: boolean): boolean {
+  const since = nowMs - lastMs
+  // a stamp in the future (the phone's clock was put back) is not trusted
+  if (since >= 0 && since < (asked ? KEEP_AT_MOST_EVERY_MS : KEEP_EVERY_MS)) return false
+  return asked || !hidden
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { pathsToKeep, type KeepDay, type KeepVisit } from '../../shared/utils/offline-plan'
+import { keepDue, pathsToKeep, type KeepDay, type KeepVisit } from '../../shared/utils/offline-plan'
 
 // What a phone keeps for no signal. Invented ids; "the next 7 days" is the issue's rule.
 const ME = 'u-kieran'
@@ -25,5 +25,26 @@ describe('pathsToKeep: the person\'s jobs and visits from today to the sixth day
   ]
   it.each(cases)('%s', (_name, who, days, visits, want) => {
     expect(pathsToKeep(who, days, visits, from, to)).toEqual(want)
+  })
+})
+
+describe('keepDue: hourly while on screen, when asked at most every five minutes', () => {
+  const H = 3600_000
+  const M = 60_000
+  const now = Date.parse('2026-12-05T10:00:00Z')
+  // our own rule (issue 19: the keep was most of a firm's requests), no trade source
+  const cases: [string, number, boolean, boolean, boolean][] = [
+    ['never kept: kept at once', 0, false, false, true],
+    ['never kept, page hidden: waits until looked at', 0, false, true, false],
+    ['never kept, page hidden, asked (another firm chosen): kept', 0, true, true, true],
+    ['kept 59 minutes ago: not yet', now - 59 * M, false, false, false],
+    ['kept an hour ago: again', now - H, false, false, true],
+    ['kept an hour ago, page hidden: not until looked at', now - H, false, true, false],
+    ['signal back 4 minutes after the last keep: not again', now - 4 * M, true, false, false],
+    ['signal back 5 minutes after the last keep: again', now - 5 * M, true, false, true],
+    ['the phone\'s clock put back (last keep in the future): kept, the stamp is not trusted', now + 10 * M, false, false, true],
+  ]
+  it.each(cases)('%s', (_name, last, asked, hidden, want) => {
+    expect(keepDue(now, last, asked, hidden)).toBe(want)
   })
 })
