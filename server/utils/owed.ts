@@ -6,18 +6,14 @@
 // partial index on what is unsettled: invoices.settled_pence, kept by triggers); the second reads
 // the invoices of the customers on the page and the longest overdue, with their status. No owing
 // invoice is sent to the server beyond those shown (npm run bench: 2,000 owing at a busy firm).
-import { and, asc, eq, inArray, isNotNull, ne, sql, type SQL } from 'drizzle-orm'
+import { and, asc, eq, inArray, sql, type SQL } from 'drizzle-orm'
 import { customers, invoices } from '../db/schema'
 import type { FirmScope } from './db'
-import { creditedColumn, paidColumn, statusOf } from './invoices'
+import { creditedColumn, owing, paidColumn, statusOf } from './invoices'
 import { AGE_BUCKET_MOST_DAYS_LATE, AGE_BUCKETS, ageBucket, type AgeBucket } from '#shared/utils/invoices'
 
 export interface OwedInvoice { id: string, reference: string | null, dueOn: string | null, outstandingPence: number, bucket: AgeBucket, status: string, kind: string }
 export interface OwedCustomer { customerId: string, customer: string, buckets: Record<AgeBucket, number>, totalPence: number, invoices: OwedInvoice[] }
-
-/** An issued invoice (not a credit note) with something still to pay: the invoices_owing_idx condition. */
-export const owing = (f: FirmScope, ...more: (SQL | undefined)[]) =>
-  f.where(invoices, isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`, ...more)
 
 /** Each age as a SQL condition on `late` (days after the due date), from the table the pages use. */
 function ageCondition(bucket: AgeBucket): SQL {

@@ -3,9 +3,10 @@
 // chase_notes_promise_idx), with the money received since the promise and whether anyone chased
 // again after its day, all worked out in one SQL statement; `promiseBroken` (shared/utils/chase.ts)
 // is the rule, `brokenPromiseWords` the words.
-import { and, desc, eq, isNotNull, lt, ne, sql } from 'drizzle-orm'
+import { and, desc, eq, isNotNull, lt, sql } from 'drizzle-orm'
 import { chaseNotes, customers, invoices } from '../db/schema'
 import type { FirmScope } from './db'
+import { owing } from './invoices'
 import { addDays } from '#shared/utils/dates'
 import { brokenPromiseWords, promiseBroken } from '#shared/utils/chase'
 import { urgencyOf, type NextAction } from '#shared/utils/next-actions'
@@ -32,7 +33,7 @@ export async function brokenPromiseActions(f: FirmScope, today: string): Promise
     .from(latest)
     .innerJoin(invoices, eq(invoices.id, latest.invoiceId))
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-    .where(f.where(invoices, lt(latest.promisedOn, today), isNotNull(invoices.issuedOn), ne(invoices.kind, 'credit-note'), sql`${invoices.amountDuePence} > ${invoices.settledPence}`))
+    .where(owing(f, lt(latest.promisedOn, today)))
     .orderBy(latest.promisedOn)
 
   return rows
