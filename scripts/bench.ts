@@ -415,7 +415,7 @@ async function main() {
   const copyRows = copied.toString('utf8').split('\n').filter(Boolean).length
   const exportRate = full.rows / full.seconds
   const copyRate = copyRows / copySeconds
-  add({ group: 'export', name: `invoices.csv, ${full.rows} rows`, value: exportRate, unit: 'rows/s', ratio: exportRate / copyRate, budget: '>= 0.5x COPY', met: exportRate / copyRate >= 0.5, note: `${(full.bytes / 2 ** 20).toFixed(1)} MB in ${full.seconds.toFixed(2)} s; COPY ${copyRows} rows in ${copySeconds.toFixed(2)} s` })
+  add({ group: 'export', name: `invoices.csv, ${full.rows} rows`, value: exportRate, unit: 'rows/s', ratio: exportRate / copyRate, budget: '>= 0.75x COPY', met: exportRate / copyRate >= 0.75, note: `${(full.bytes / 2 ** 20).toFixed(1)} MB in ${full.seconds.toFixed(2)} s; COPY ${copyRows} rows in ${copySeconds.toFixed(2)} s` })
   add({ group: 'export', name: `server memory growth, all ${full.rows} rows`, value: full.growthMb, unit: 'MB', budget: '< 64 MB', met: full.growthMb < 64, note: `at rest ${full.restMb.toFixed(0)} MB, peak ${full.peakMb.toFixed(0)} MB` })
   add({ group: 'export', name: `server memory growth, ${quarterRun.rows} rows (90 days)`, value: quarterRun.growthMb, unit: 'MB', note: `a quarter of the rows: growth that does not scale with the range is flat` })
 
