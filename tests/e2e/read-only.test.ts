@@ -69,6 +69,10 @@ describe('read-only screens', () => {
     await expectVisible(page.getByTestId('invoice-line').first())
     expect(await page.getByTestId('invoice-line').locator('input, select, textarea').count()).toBe(0)
     expect(await disabledFields(page).count()).toBe(0)
+    // nothing tells the accountant to do what only the firm can
+    await expectText(page.getByRole('main'), /the firm corrects it with a credit note/)
+    expect((await page.getByRole('main').innerText()).toLowerCase()).not.toContain('make a credit note')
+    expect(await page.getByRole('button', { name: 'Make a credit note' }).count()).toBe(0)
     await screenshot(page, 'accountant-laptop-issued-invoice')
 
     await visit(page, `${e2e.url}/rates`)
