@@ -1,0 +1,144 @@
+// Matching a bank statement's money in to the firm's unsettled invoices (issue 20). Pure: the
+// server reads the open invoices and the statement's lines and saves what the partner confirms.
+//
+// In order: an invoice reference in the line's description (spaces, dashes, case and leading
+// zeros do not matter: "brp 17" is BRP-0017), then the exact amount still owed (an invoice's
+// amount due is already net of any CIS deduction; a contractor who paid the whole before the
+// deduction is matched on the total), then the customer's name in the description. Several
+// invoices paid by one transfer (references, or amounts of one customer's invoices adding up) and
+// one invoice paid in parts are both proposed. Each proposal says why and how sure it is; only
+// "sure" ones may be confirmed all at once, and an amount that fits more than one invoice is
+// never "sure".
+
+export interface OpenInvoice {
+  id: string
+  reference: string
+  customerName: string
+  /** What is still to pay (amount due less what was paid and credited). */
+  outstandingPence: number
+  /** The CIS deduction on it, when the customer is a contractor (0 otherwise). */
+  cisDeductionPence: number
+  /** Nothing paid or credited yet (the whole before the deduction can then be matched). */
+  untouched: boolean
+  dueOn: string | null
+}
+export interface MoneyInLine { id: string, date: string, description: string, amountPence: number }
+export type Certainty = 'sure' | 'likely' | 'possible'
+export interface Proposal {
+  lineId: string
+  /** Each invoice and how much of the line goes to it (they add up to the line, or less for an overpayment left over). */
+  parts: { invoiceId: string, amountPence: number }[]
+  certainty: Certainty
+  /** Why, in words for the partner: "reference BRP-0017 in the description; amount equal". */
+  reasons: string[]
+  /** Other invoices the line could be (an ambiguous amount): shown, never chosen for the partner. */
+  alternatives: string[]
+}
+
+/** A reference's key: its letters and its number without leading zeros ("BRP-0017", "brp 17" -> "BRP#17"). */
+export function referenceKey(reference: string): string | null {
+  const m = /^([a-z]{1,6})[\s\-_/#.]*0*(\d{1,7})$/i.exec(reference.trim())
+  return m ? `${m[1]!.toUpperCase()}#${Number(m[2])}` : null
+}
+
+/** Every reference-like key in a description: letters then a number, with spaces or dashes between or not. */
+export function keysInDescription(description: string): Set<string> {
+  const keys = new Set<string>()
+  for (const m of description.matchAll(/(?<![a-z])([a-z]{1,6})[\s\-_/#.]*0*(\d{1,7})(?!\d)/gi)) keys.add(`${m[1]!.toUpperCase()}#${Number(m[2])}`)
+  return keys
+}
+
+/** A name's words in the description (every word of three letters or more, "Ltd" and the like left out). */
+export function nameInDescription(name: string, description: string): boolean {
+  const words = name.toUpperCase().split(/[^A-Z0-9]+/).filter(w => w.length >= 3 && !['LTD', 'LIMITED', 'PLC', 'THE', 'AND', 'LLP'].includes(w))
+  if (!words.length) return false
+  const text = ` ${description.toUpperCase().replace(/[^A-Z0-9]+/g, ' ')} `
+  return words.every(w => text.includes(` ${w} `))
+}
+
+const pounds = (p: number) => `£${(p / 100).toFixed(2)}`
+
+/** The proposal for one line of money in, or null when nothing fits. */
+export function proposeMoneyIn(line: MoneyInLine, open: readonly OpenInvoice[]): Proposal | null {
+  if (line.amountPence <= 0) return null
+  const base = { lineId: line.id, alternatives: [] as string[] }
+  const keys = keysInDescription(line.description)
+  const byRef = open.filter(i => keys.has(referenceKey(i.reference) ?? ''))
+    .sort((a, b) => (a.dueOn ?? '').localeCompare(b.dueOn ?? ''))
+  if (byRef.length) {
+    const refs = byRef.map(i => i.reference).join(' and ')
+    const why = `${byRef.length > 1 ? 'references' : 'reference'} ${refs} in the description`
+    const owed = byRef.reduce((n, i) => n + i.outstandingPence, 0)
+    if (line.amountPence === owed) return { ...base, parts: byRef.map(i => ({ invoiceId: i.id, amountPence: i.outstandingPence })), certainty: 'sure', reasons: [why, byRef.length > 1 ? 'amounts add up' : 'amount equal'] }
+    if (byRef.length === 1 && byRef[0]!.untouched && byRef[0]!.cisDeductionPence > 0 && line.amountPence === owed + byRef[0]!.cisDeductionPence) {
+      return { ...base, parts: [{ invoiceId: byRef[0]!.id, amountPence: owed }], certainty: 'likely', reasons: [why, `paid the total before the CIS deduction (${pounds(byRef[0]!.cisDeductionPence)} more than due): check with the contractor`] }
+    }
+    if (line.amountPence < owed) {
+      // a part payment: to the oldest first
+      let left = line.amountPence
+      const parts = byRef.flatMap((i) => {
+        const take = Math.min(left, i.outstandingPence)
+        left -= take
+        return take > 0 ? [{ invoiceId: i.id, amountPence: take }] : []
+      })
+      return { ...base, parts, certainty: 'sure', reasons: [why, `part payment: ${pounds(line.amountPence)} of ${pounds(owed)}`] }
+    }
+    return { ...base, parts: byRef.map(i => ({ invoiceId: i.id, amountPence: i.outstandingPence })), certainty: 'possible', reasons: [why, `${pounds(line.amountPence - owed)} more than is owed`] }
+  }
+  const named = (i: OpenInvoice) => nameInDescription(i.customerName, line.description)
+  const exact = open.filter(i => i.outstandingPence === line.amountPence)
+  if (exact.length) {
+    const withName = exact.filter(named)
+    if (withName.length === 1) return { ...base, parts: [{ invoiceId: withName[0]!.id, amountPence: line.amountPence }], certainty: 'sure', reasons: ['amount equal', `${withName[0]!.customerName} in the description`] }
+    if (exact.length === 1) return { ...base, parts: [{ invoiceId: exact[0]!.id, amountPence: line.amountPence }], certainty: 'likely', reasons: ['amount equal, and no other invoice is owed that much'] }
+    const pick = (withName.length ? withName : exact).sort((a, b) => (a.dueOn ?? '').localeCompare(b.dueOn ?? ''))
+    return { ...base, parts: [{ invoiceId: pick[0]!.id, amountPence: line.amountPence }], certainty: 'possible', reasons: [`amount equal to ${exact.length} invoices: choose which`], alternatives: pick.slice(1).map(i => i.id) }
+  }
+  const theirs = open.filter(named).sort((a, b) => (a.dueOn ?? '').localeCompare(b.dueOn ?? ''))
+  if (theirs.length) {
+    const customer = theirs[0]!.customerName
+    // two or three of their invoices adding up to the transfer
+    const sum = subsetAddingUp(theirs, line.amountPence)
+    if (sum) return { ...base, parts: sum.map(i => ({ invoiceId: i.id, amountPence: i.outstandingPence })), certainty: 'likely', reasons: [`${customer} in the description`, `${sum.length} of their invoices add up to it`] }
+    const owed = theirs.reduce((n, i) => n + i.outstandingPence, 0)
+    if (line.amountPence < owed) {
+      return { ...base, parts: [{ invoiceId: theirs[0]!.id, amountPence: Math.min(line.amountPence, theirs[0]!.outstandingPence) }], certainty: 'possible', reasons: [`${customer} in the description`, `${pounds(line.amountPence)} of ${pounds(owed)} they owe: their oldest invoice first`] }
+    }
+  }
+  return null
+}
+
+/** At most three invoices whose amounts still owed add up to `pence` (the first found, oldest first). */
+function subsetAddingUp(invoices: readonly OpenInvoice[], pence: number): OpenInvoice[] | null {
+  const list = invoices.slice(0, 30)
+  for (let a = 0; a < list.length; a++) {
+    for (let b = a + 1; b < list.length; b++) {
+      const ab = list[a]!.outstandingPence + list[b]!.outstandingPence
+      if (ab === pence) return [list[a]!, list[b]!]
+      for (let c = b + 1; c < list.length; c++) {
+        if (ab + list[c]!.outstandingPence === pence) return [list[a]!, list[b]!, list[c]!]
+      }
+    }
+  }
+  return null
+}
+
+/**
+ * Proposals for a statement's lines of money in, oldest first: what one line takes is no longer
+ * owed when the next is looked at, so two transfers never both settle the same invoice.
+ */
+export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInvoice[]): Proposal[] {
+  const left = new Map(open.map(i => [i.id, { ...i }]))
+  const out: Proposal[] = []
+  for (const line of [...lines].sort((a, b) => a.date.localeCompare(b.date) || a.id.localeCompare(b.id))) {
+    const p = proposeMoneyIn(line, [...left.values()].filter(i => i.outstandingPence > 0))
+    if (!p) continue
+    out.push(p)
+    for (const part of p.parts) {
+      const i = left.get(part.invoiceId)!
+      i.outstandingPence -= part.amountPence
+      i.untouched = false
+    }
+  }
+  return out
+}

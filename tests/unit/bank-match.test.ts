@@ -1,0 +1,76 @@
+import { describe, expect, it } from 'vitest'
+import { keysInDescription, nameInDescription, proposeAll, proposeMoneyIn, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
+
+// Statement lines against the firm's unsettled invoices, worked by hand. Invented customers and
+// references. The rules are our own ("common practice" for how transfers are referenced); the
+// CIS figure: a contractor pays the invoice less the deduction on labour (HMRC's Construction
+// Industry Scheme guidance, CISR manual; the invoice's amount due is already net of it).
+const inv = (id: string, reference: string, customerName: string, outstandingPence: number, more: Partial<OpenInvoice> = {}): OpenInvoice =>
+  ({ id, reference, customerName, outstandingPence, cisDeductionPence: 0, untouched: true, dueOn: `2026-11-${id.slice(-2).padStart(2, '0')}`, ...more })
+const OPEN: OpenInvoice[] = [
+  inv('i01', 'BRP-0017', 'Harriet Colley', 48000),
+  inv('i02', 'BRP-0021', 'Pribbleworth Scarnholme Builds Ltd', 176400, { cisDeductionPence: 29400 }),
+  inv('i03', 'BRP-0022', 'Fernhill Homes', 57600),
+  inv('i04', 'BRP-0023', 'Fernhill Homes', 31200),
+  inv('i05', 'BRP-0024', 'Orchard Row Cafe', 25000),
+  inv('i06', 'BRP-0025', 'Alys Dunmore', 25000),
+  inv('i07', 'BRP-0026', 'Millbeck Lettings', 120000),
+]
+const line = (description: string, amountPence: number, id = 'l1') => ({ id, date: '2026-12-04', description, amountPence })
+
+describe('referenceKey and keysInDescription: spaces, dashes, case and leading zeros do not matter', () => {
+  const cases: [string, string | null][] = [
+    ['BRP-0017', 'BRP#17'], ['brp 17', 'BRP#17'], ['BRP0017', 'BRP#17'], ['Q-12', 'Q#12'], ['17', null], ['BRP-', null],
+  ]
+  it.each(cases)('%s -> %s', (ref, key) => expect(referenceKey(ref)).toBe(key))
+  it('finds every reference in a description, not a longer number\'s start', () => {
+    expect([...keysInDescription('FP COLLEY brp 17 and BRP-0021 ref 2026')]).toEqual(['BRP#17', 'BRP#21', 'REF#2026'])
+    expect(keysInDescription('BRP 170').has('BRP#17')).toBe(false)
+  })
+  it('matches a customer\'s name by its words, leaving out Ltd', () => {
+    expect(nameInDescription('Pribbleworth Scarnholme Builds Ltd', 'BACS PRIBBLEWORTH SCARNHOLME BUILDS')).toBe(true)
+    expect(nameInDescription('Fernhill Homes', 'FERNHILL')).toBe(false)
+    expect(nameInDescription('Fernhill Homes', 'FP FERNHILL HOMES LTD')).toBe(true)
+  })
+})
+
+describe('proposeMoneyIn', () => {
+  const cases: [string, ReturnType<typeof line>, { certainty: string, parts: [string, number][], reasons?: RegExp } | null][] = [
+    ['reference with other spacing and case, amount equal: sure', line('FASTER PAYMENT brp 17 COLLEY', 48000), { certainty: 'sure', parts: [['i01', 48000]], reasons: /reference BRP-0017 in the description; amount equal/ }],
+    ['a contractor pays net of the CIS deduction (the amount due already is): sure', line('PRIBBLEWORTH INV BRP 21', 176400), { certainty: 'sure', parts: [['i02', 176400]] }],
+    ['a contractor paid the whole before the deduction: likely, never sure', line('PRIBBLEWORTH BRP21', 205800), { certainty: 'likely', parts: [['i02', 176400]], reasons: /CIS deduction/ }],
+    ['two invoices in one transfer, both referenced', line('FERNHILL BRP-22 BRP-23', 88800), { certainty: 'sure', parts: [['i03', 57600], ['i04', 31200]], reasons: /references BRP-0022 and BRP-0023.*amounts add up/ }],
+    ['a part payment of a referenced invoice', line('MILLBECK BRP0026 PART', 50000), { certainty: 'sure', parts: [['i07', 50000]], reasons: /part payment: £500.00 of £1200.00/ }],
+    ['more than is owed on the reference: possible', line('COLLEY BRP 17', 50000), { certainty: 'possible', parts: [['i01', 48000]], reasons: /£20.00 more than is owed/ }],
+    ['no reference, amount owed by one invoice only: likely', line('FASTER PAYMENT', 120000), { certainty: 'likely', parts: [['i07', 120000]] }],
+    ['no reference, amount equal and the name: sure', line('FP MILLBECK LETTINGS', 120000), { certainty: 'sure', parts: [['i07', 120000]] }],
+    ['an amount two invoices are owed, no name: possible, never chosen for the partner', line('TRANSFER', 25000), { certainty: 'possible', parts: [['i05', 25000]], reasons: /amount equal to 2 invoices: choose which/ }],
+    ['the same amount, with the name deciding: sure', line('DUNMORE ALYS', 25000), { certainty: 'sure', parts: [['i06', 25000]] }],
+    ['no reference, two of the named customer\'s invoices add up: likely', line('FERNHILL HOMES', 88800), { certainty: 'likely', parts: [['i03', 57600], ['i04', 31200]] }],
+    ['no reference, less than the named customer owes: their oldest first, possible', line('FERNHILL HOMES', 10000), { certainty: 'possible', parts: [['i03', 10000]] }],
+    ['nothing fits: left for later', line('INTEREST', 123), null],
+    ['a refund going out is not a payment in', line('REFUND BRP 17 COLLEY', -48000), null],
+  ]
+  it.each(cases)('%s', (_name, l, want) => {
+    const got = proposeMoneyIn(l, OPEN)
+    if (!want) return expect(got).toBeNull()
+    expect(got?.certainty).toBe(want.certainty)
+    expect(got?.parts.map(p => [p.invoiceId, p.amountPence])).toEqual(want.parts)
+    if (want.reasons) expect(got!.reasons.join('; ')).toMatch(want.reasons)
+  })
+
+  it('lists the other invoices an ambiguous amount could be', () => {
+    expect(proposeMoneyIn(line('TRANSFER', 25000), OPEN)?.alternatives).toEqual(['i06'])
+  })
+})
+
+describe('proposeAll: two transfers never settle the same invoice', () => {
+  it('gives the second transfer of the same amount nothing once the first took the invoice', () => {
+    const got = proposeAll([line('FP MILLBECK LETTINGS', 120000, 'l1'), line('FP MILLBECK LETTINGS', 120000, 'l2')], OPEN)
+    expect(got.map(p => [p.lineId, p.parts])).toEqual([['l1', [{ invoiceId: 'i07', amountPence: 120000 }]]])
+  })
+  it('takes two part payments of one invoice in date order', () => {
+    const got = proposeAll([{ ...line('BRP 26', 70000, 'l2'), date: '2026-12-05' }, line('BRP 26', 50000, 'l1')], OPEN)
+    expect(got.map(p => [p.lineId, p.certainty, p.parts[0]!.amountPence])).toEqual([['l1', 'sure', 50000], ['l2', 'sure', 70000]])
+  })
+})
