@@ -142,3 +142,57 @@ export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInv
   }
   return out
 }
+
+/** A purchase the firm recorded (what it bought, from whom, when, for how much with VAT). */
+export interface OpenPurchase { id: string, supplier: string, boughtOn: string, grossPence: number }
+/** A refund to a customer the firm recorded (money out that is not a purchase). */
+export interface RecordedRefund { id: string, reference: string, refundedOn: string, amountPence: number }
+export interface MoneyOutProposal {
+  lineId: string
+  /** A recorded purchase or refund this line pays, or a new purchase to make from it. */
+  match: { kind: 'purchase', purchaseId: string } | { kind: 'refund', refundId: string } | { kind: 'new-purchase', supplier: string, boughtOn: string, grossPence: number }
+  certainty: Certainty
+  reasons: string[]
+  alternatives: string[]
+}
+
+/** How many days a card payment may reach the statement after (or before) the day of the purchase. */
+export const PURCHASE_DAYS = 4
+const daysApart = (a: string, b: string) => Math.abs(Date.parse(`${a}T00:00:00Z`) - Date.parse(`${b}T00:00:00Z`)) / 86_400_000
+/** Words a bank puts before a merchant's name on a card payment. */
+const CARD_WORDS = /^(?:card payment|card purchase|debit card|contactless|pos|visa|cpm?|dd|card)\b[\s:-]*(?:to\s+)?/i
+
+/** The supplier's name in the description: its first word of three letters or more (card lines cut names short). */
+function supplierInDescription(supplier: string, description: string): boolean {
+  const first = supplier.toUpperCase().split(/[^A-Z0-9]+/).find(w => w.length >= 3 && !['THE', 'LTD'].includes(w))
+  return !!first && ` ${description.toUpperCase().replace(/[^A-Z0-9]+/g, ' ')} `.includes(` ${first} `)
+}
+
+/** The proposal for one line of money out: a recorded purchase or refund, a new purchase from a card payment, or null. */
+export function proposeMoneyOut(line: MoneyInLine, purchases: readonly OpenPurchase[], refunds: readonly RecordedRefund[] = []): MoneyOutProposal | null {
+  if (line.amountPence >= 0) return null
+  const pence = -line.amountPence
+  const base = { lineId: line.id, alternatives: [] as string[] }
+  const keys = keysInDescription(line.description)
+  const refund = refunds.find(r => r.amountPence === pence && daysApart(r.refundedOn, line.date) <= PURCHASE_DAYS)
+  if (refund) {
+    const referenced = keys.has(referenceKey(refund.reference) ?? '')
+    return { ...base, match: { kind: 'refund', refundId: refund.id }, certainty: referenced ? 'sure' : 'likely', reasons: [`a refund of ${pounds(pence)} recorded on ${refund.reference}`, ...(referenced ? ['its reference in the description'] : [])] }
+  }
+  const near = purchases.filter(p => p.grossPence === pence && daysApart(p.boughtOn, line.date) <= PURCHASE_DAYS)
+    .sort((a, b) => daysApart(a.boughtOn, line.date) - daysApart(b.boughtOn, line.date))
+  const named = near.filter(p => supplierInDescription(p.supplier, line.description))
+  const pick = named.length === 1 ? named : near
+  if (pick.length === 1) {
+    const p = pick[0]!
+    return { ...base, match: { kind: 'purchase', purchaseId: p.id }, certainty: named.length === 1 ? 'sure' : 'likely', reasons: ['amount equal', `bought ${daysApart(p.boughtOn, line.date)} days before or after`, ...(named.length === 1 ? [`${p.supplier} in the description`] : [])] }
+  }
+  if (pick.length > 1) {
+    return { ...base, match: { kind: 'purchase', purchaseId: pick[0]!.id }, certainty: 'possible', reasons: [`amount equal to ${pick.length} purchases within ${PURCHASE_DAYS} days: choose which`], alternatives: pick.slice(1).map(p => p.id) }
+  }
+  if (CARD_WORDS.test(line.description)) {
+    const supplier = line.description.replace(CARD_WORDS, '').replace(/\s+on\s+\d{1,2}\s+[a-z]{3}.*$/i, '').trim()
+    if (supplier) return { ...base, match: { kind: 'new-purchase', supplier, boughtOn: line.date, grossPence: pence }, certainty: 'possible', reasons: ['a card payment with no purchase recorded: make it a purchase, waiting for its receipt'] }
+  }
+  return null
+}

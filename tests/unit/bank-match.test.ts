@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { keysInDescription, nameInDescription, proposeAll, proposeMoneyIn, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
+import { keysInDescription, nameInDescription, proposeAll, proposeMoneyIn, proposeMoneyOut, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
 
 // Statement lines against the firm's unsettled invoices, worked by hand. Invented customers and
 // references. The rules are our own ("common practice" for how transfers are referenced); the
@@ -72,5 +72,34 @@ describe('proposeAll: two transfers never settle the same invoice', () => {
   it('takes two part payments of one invoice in date order', () => {
     const got = proposeAll([{ ...line('BRP 26', 70000, 'l2'), date: '2026-12-05' }, line('BRP 26', 50000, 'l1')], OPEN)
     expect(got.map(p => [p.lineId, p.certainty, p.parts[0]!.amountPence])).toEqual([['l1', 'sure', 50000], ['l2', 'sure', 70000]])
+  })
+})
+
+describe('proposeMoneyOut: purchases by amount, date within days and the supplier\'s name', () => {
+  const PURCHASES = [
+    { id: 'p1', supplier: 'Trade Plaster Supplies', boughtOn: '2026-12-02', grossPence: 6420 },
+    { id: 'p2', supplier: 'Kettlebury Builders Merchants', boughtOn: '2026-11-20', grossPence: 6420 },
+    { id: 'p3', supplier: 'Kettlebury Builders Merchants', boughtOn: '2026-12-03', grossPence: 9900 },
+    { id: 'p4', supplier: 'Hawk and Trowel Tools', boughtOn: '2026-12-03', grossPence: 9900 },
+  ]
+  const REFUNDS = [{ id: 'r1', reference: 'BRP-0017', refundedOn: '2026-12-03', amountPence: 4800 }]
+  // "within a few days" is the issue's; 4 is our choice (card payments clear in one to three working days: common practice)
+  const cases: [string, ReturnType<typeof line>, { kind: string, id?: string, certainty: string, supplier?: string } | null][] = [
+    ['amount, date and supplier: sure', line('CARD PAYMENT TO TRADE PLASTER SUP ON 02 DEC', -6420), { kind: 'purchase', id: 'p1', certainty: 'sure' }],
+    ['amount and date, no name: likely (the other purchase of that amount is weeks away)', line('CARD PAYMENT 4471', -6420), { kind: 'purchase', id: 'p1', certainty: 'likely' }],
+    ['two purchases of the amount that week, the name decides: sure', line('CARD PAYMENT HAWK AND TROWEL', -9900), { kind: 'purchase', id: 'p4', certainty: 'sure' }],
+    ['two purchases of the amount that week, no name: possible', line('CARD PAYMENT 8812', -9900), { kind: 'purchase', certainty: 'possible' }],
+    ['a card payment with nothing recorded: a new purchase waiting for its receipt', line('CARD PAYMENT TO SKIP HIRE KETTLEBURY ON 03 DEC', -18000), { kind: 'new-purchase', certainty: 'possible', supplier: 'SKIP HIRE KETTLEBURY' }],
+    ['a refund going out to a customer, its reference in the description: the recorded refund, not a purchase', line('REFUND BRP 17 COLLEY', -4800), { kind: 'refund', id: 'r1', certainty: 'sure' }],
+    ['a standing order with nothing recorded: left for later', line('SO VAN LEASE', -32000), null],
+    ['money in is not money out', line('CARD PAYMENT REFUND', 6420), null],
+  ]
+  it.each(cases)('%s', (_name, l, want) => {
+    const got = proposeMoneyOut(l, PURCHASES, REFUNDS)
+    if (!want) return expect(got).toBeNull()
+    expect(got?.match.kind).toBe(want.kind)
+    expect(got?.certainty).toBe(want.certainty)
+    if (want.id) expect(got?.match).toMatchObject(want.kind === 'refund' ? { refundId: want.id } : { purchaseId: want.id })
+    if (want.supplier) expect(got?.match).toMatchObject({ supplier: want.supplier, grossPence: -l.amountPence, boughtOn: l.date })
   })
 })
