@@ -162,3 +162,22 @@ export function readStatementRows(rows: readonly (readonly string[])[], given?: 
   if (!lines.length) return { ok: false, row: problem?.row ?? headerRow + 2, message: problem?.message ?? 'The file has no statement lines under its header.' }
   return { ok: true, lines, headerRow: headerRow + 1 }
 }
+
+/**
+ * Each line's identity, so a file imported again, or one overlapping it, adds nothing twice: the
+ * bank's own id where the file has one (OFX's FITID); else the date, the amount, the description
+ * (case and spacing aside) and the balance after it; else, with no balance, which of the identical
+ * lines of the file it is (the second coffee of the same price on the same day is "#2" in every
+ * file that holds both).
+ */
+export function lineKeys(lines: readonly (Pick<BankCsvLine, 'date' | 'description' | 'amountPence' | 'balancePence'> & { fitId?: string | null })[]): string[] {
+  const seen = new Map<string, number>()
+  return lines.map((l) => {
+    if (l.fitId) return `fit:${l.fitId}`
+    const base = `${l.date}|${l.amountPence}|${l.description.toUpperCase().replace(/\s+/g, ' ').trim()}`
+    if (l.balancePence !== null) return `${base}|bal:${l.balancePence}`
+    const n = (seen.get(base) ?? 0) + 1
+    seen.set(base, n)
+    return `${base}|#${n}`
+  })
+}

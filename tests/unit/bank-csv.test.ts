@@ -1,6 +1,6 @@
 import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
-import { mappingFromHeader, readStatementRows, statementDate, statementPence } from '../../shared/utils/bank-csv'
+import { lineKeys, mappingFromHeader, readStatementRows, statementDate, statementPence } from '../../shared/utils/bank-csv'
 
 // Statement files written for these tests (invented payers and references); the layouts are the
 // common shapes of UK banks' CSV exports ("common practice": no bank's file is copied).
@@ -120,5 +120,22 @@ Date,Description,Amount
     expect(readStatementRows(rows(text))).toMatchObject({ ok: false, row: 1 })
     const read = readStatementRows(rows(text), { mapping: { date: 0, description: [1], amount: 2 }, headerRow: -1 })
     expect(read.ok && read.lines.map(l => l.amountPence)).toEqual([48000, -6420])
+  })
+})
+
+describe('lineKeys: the same line has the same key in every file that holds it', () => {
+  const l = (date: string, description: string, amountPence: number, balancePence: number | null = null, fitId: string | null = null) => ({ date, description, amountPence, balancePence, fitId })
+  it('numbers identical lines of a file without balances, so both coffees are kept once each', () => {
+    expect(lineKeys([l('2026-12-01', 'CARD PAYMENT CAFE', -350), l('2026-12-01', 'card  payment cafe', -350), l('2026-12-02', 'CARD PAYMENT CAFE', -350)]))
+      .toEqual(['2026-12-01|-350|CARD PAYMENT CAFE|#1', '2026-12-01|-350|CARD PAYMENT CAFE|#2', '2026-12-02|-350|CARD PAYMENT CAFE|#1'])
+  })
+  it('an overlapping file gives the shared lines the same keys', () => {
+    const first = lineKeys([l('2026-11-30', 'FP COLLEY', 48000), l('2026-12-01', 'CARD CAFE', -350), l('2026-12-01', 'CARD CAFE', -350)])
+    const second = lineKeys([l('2026-12-01', 'CARD CAFE', -350), l('2026-12-01', 'CARD CAFE', -350), l('2026-12-02', 'FP DUNMORE', 25000)])
+    expect(second.filter(k => first.includes(k))).toHaveLength(2)
+  })
+  it('uses the balance when there is one, and the bank\'s own id before anything', () => {
+    expect(lineKeys([l('2026-12-01', 'CARD CAFE', -350, 100000), l('2026-12-01', 'CARD CAFE', -350, 99650)])).toEqual(['2026-12-01|-350|CARD CAFE|bal:100000', '2026-12-01|-350|CARD CAFE|bal:99650'])
+    expect(lineKeys([l('2026-12-01', 'CARD CAFE', -350, null, 'A1')])).toEqual(['fit:A1'])
   })
 })
