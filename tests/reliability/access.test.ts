@@ -36,6 +36,8 @@ const TABLE: Record<string, [Need, string]> = {
   'POST /api/auth/sign-up': ['public', 'ok ok ok ok ok ok'],
   // called with a link that names nothing (a sign-up link is single use): 404 for everyone
   'POST /api/auth/sign-up/:token': ['public', '404 404 404 404 404 404'],
+  'POST /api/bank-accounts': ['money:write', '401 ok ok 403 403 ok'],
+  'POST /api/bank-accounts/:id/statements/uploads': ['money:write', '401 ok ok 403 403 404'],
   'GET /api/bank-rates': ['money:read', '401 ok ok 403 ok ok'],
   'PUT /api/bank-rates': ['firm:manage', '401 ok 403 403 403 ok'],
   'GET /api/cis-deductions': ['money:read', '401 ok ok 403 ok ok'],
@@ -186,9 +188,11 @@ const FRESH: Record<string, { param: string, make: (f: Firm) => Promise<string> 
 /** Calls that change what other routes read (a link, a session): made last, after everything else. */
 const LAST = new Set(['POST /api/auth/sign-out', 'POST /api/firm/enquiry-form-key', 'POST /api/me/calendar'])
 
-const UPLOADS: Record<string, { target: 'visitId' | 'purchaseId', file: () => Promise<{ data: Buffer, name: string, type: string }> }> = {
+const UPLOADS: Record<string, { target?: 'visitId' | 'purchaseId', file: () => Promise<{ data: Buffer, name: string, type: string }> }> = {
   'POST /api/photos/uploads': { target: 'visitId', file: async () => ({ data: await jpeg(), name: 'wall.jpg', type: 'image/jpeg' }) },
   'POST /api/documents/uploads': { target: 'purchaseId', file: async () => ({ data: TINY_PDF, name: 'receipt.pdf', type: 'application/pdf' }) },
+  // the account is in the path; a file that is no statement is refused (400) and nothing kept
+  'POST /api/bank-accounts/:id/statements/uploads': { file: async () => ({ data: Buffer.from('Date,Description,Amount\n01/12/2026,FP ACCESS TEST,1.00\n'), name: 'statement.csv', type: 'text/csv' }) },
 }
 
 const ROLES_OF_FIRM = ['owner', 'office', 'crew', 'accountant'] as const
@@ -244,7 +248,7 @@ async function call(route: Route, caller: Caller, opts: { refused: boolean, rows
   if (upload) {
     // the target in the query is checked before the body is read; let through, a file that is no picture is refused (415) and nothing kept
     const file = opts.refused ? await upload.file() : { data: Buffer.from('not a picture, not a receipt'), name: 'note.txt', type: 'text/plain' }
-    return sendMultipart(app.url, caller === 'out' ? null : who, `${path}?${upload.target}=${a.ids[upload.target]}`, {}, file)
+    return sendMultipart(app.url, caller === 'out' ? null : who, upload.target ? `${path}?${upload.target}=${a.ids[upload.target]}` : path, {}, file)
   }
   const good = GOOD_BODIES[route.key]
   const body = ['POST', 'PUT', 'PATCH'].includes(route.method) ? (opts.refused && good ? good(a) : {}) : undefined

@@ -20,6 +20,7 @@ import {
 const SPECIAL: Record<string, string> = {
   'POST /api/photos/uploads': 'multipart, streamed through busboy',
   'POST /api/documents/uploads': 'multipart, streamed through busboy',
+  'POST /api/bank-accounts/:id/statements/uploads': 'multipart, streamed through busboy (its own cases: tests/api/bank-import.test.ts)',
   'POST /api/webhooks/stripe': 'the raw body, checked against its Stripe signature',
 }
 /** Whose body is opaque to its schema (each row is checked on its own and rejected in a 200): not walked into. */

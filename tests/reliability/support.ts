@@ -291,6 +291,8 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
   const photoId = await newPhoto()
   const newDocument = async () => ok(await sendMultipart(app.url, o, '/api/documents/uploads', { purchaseId }, { data: TINY_PDF, name: 'receipt.pdf', type: 'application/pdf' }), 'document').id as string
   const documentId = await newDocument()
+  // a bank account, for statement imports (issue 20)
+  const bankAccountId = ok(await o.post('/api/bank-accounts', { name: 'Business current account' }), 'bank account').id as string
 
   const invite = async () => {
     const email = uniqueEmail('invitee')
@@ -313,6 +315,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
     crew: m('crew'),
     accountant: m('accountant'),
     ids: {
+      bankAccountId,
       firmId: signUp.firmId,
       ownerUserId: owner.userId,
       ownerMembershipId: owner.membershipId,
@@ -416,6 +419,8 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
   'POST /api/public/quotes/:token/accept': () => ({ name: 'Wren Ashdown' }),
   'POST /api/public/quotes/:token/decline': () => ({ reason: 'Too expensive for now' }),
   'PUT /api/purchases/:id': f => ({ supplier: 'Trowel & Hawk Supplies', boughtOn: TODAY, category: 'materials', netPence: 120_00, vatPence: 24_00, reference: 'TH-1', notes: '', jobs: [{ jobId: f.ids.jobId, netPence: 60_00 }] }),
+  // a name of its own each time (the firm's account names are unique: a second one is a 409)
+  'POST /api/bank-accounts': () => ({ name: `Savings ${randomUUID().slice(0, 8)}` }),
   'POST /api/purchases': f => ({ supplier: 'Fuel Stop', boughtOn: TODAY, category: 'fuel', netPence: 40_00, vatPence: 8_00, reference: 'FS-9', notes: 'Van', jobs: [{ jobId: f.ids.jobId, netPence: 10_00 }] }),
   'PUT /api/quotes/:id/draft': f => ({ pricing: 'measure', estimatedDaysX100: 100, fixedPricePence: null, vat: f.vat.quote, cisRatePercent: null, validUntil: inDays(30), terms: 'Payment within 14 days', notes: '', cautions: ['Allow a week to dry'], lines: [{ kind: 'labour', description: 'Skim walls', quantityX1000: 9600, unit: 'm²', unitPence: 9_00, vatRatePercent: 0, derivation: '4.00 x 2.40' }] }),
   'POST /api/quotes': f => ({ customerId: f.ids.customerId, siteId: f.ids.siteId, enquiryId: f.ids.enquiryId, visitId: f.ids.visitId }),
@@ -450,6 +455,7 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
  * be changed by the call).
  */
 const ROW_FOR_RESOURCE: Record<string, string> = {
+  'bank-accounts': 'bankAccountId',
   'cis-statements': 'cisStatementId',
   'customers': 'customerId',
   'documents': 'documentId',
