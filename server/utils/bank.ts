@@ -3,11 +3,14 @@
 // (a unique key: a file imported again, or overlapping one, adds only what is new), all in one
 // transaction, so nothing is half-imported.
 import Papa from 'papaparse'
-import { and, eq } from 'drizzle-orm'
-import { bankAccounts, bankLines, bankStatements } from '../db/schema'
+import { and, desc, eq, gte, lte, sql } from 'drizzle-orm'
+import { bankAccounts, bankLines, bankMatches, bankStatements, customers, invoices, purchases } from '../db/schema'
+import { owing } from './invoices'
 import type { FirmScope } from './db'
 import { lineKeys, readStatementRows, type BankMapping, type BankCsvLine } from '#shared/utils/bank-csv'
 import { readOfx } from '#shared/utils/bank-ofx'
+import { PURCHASE_DAYS, proposeAll, proposeMoneyOut } from '#shared/utils/bank-match'
+import { addDays } from '#shared/utils/dates'
 
 export interface StatementImport { statementId: string, linesNew: number, linesAlready: number, format: 'csv' | 'ofx' }
 
@@ -56,4 +59,36 @@ export async function importStatement(f: FirmScope, accountId: string, file: { d
   await f.tx.update(bankStatements).set({ linesNew, linesAlready }).where(and(eq(bankStatements.firmId, f.firmId), eq(bankStatements.id, statement!.id)))
   await f.audit('bank.statement-imported', 'bank-account', accountId, { statementId: statement!.id, format, linesNew, linesAlready })
   return { statementId: statement!.id, linesNew, linesAlready, format }
+}
+
+/**
+ * An account's lines with what each could be (shared/utils/bank-match.ts): money in against the
+ * firm's owing invoices (the `owing` index), money out against purchases within a few days of the
+ * lines and not matched yet. Newest first; `state` filters (the open ones by default).
+ */
+export async function linesWithProposals(f: FirmScope, accountId: string, state: 'open' | 'matched' | 'ignored' = 'open', limit = 200) {
+  const lines = await f.tx.select({
+    id: bankLines.id, date: bankLines.postedOn, description: bankLines.description, amountPence: bankLines.amountPence,
+    balancePence: bankLines.balancePence, state: bankLines.state, note: bankLines.note,
+  }).from(bankLines)
+    .where(f.where(bankLines, eq(bankLines.accountId, accountId), eq(bankLines.state, state)))
+    .orderBy(desc(bankLines.postedOn), desc(bankLines.id)).limit(limit)
+  if (state !== 'open' || !lines.length) return lines.map(l => ({ ...l, proposal: null }))
+  const open = await f.tx.select({
+    id: invoices.id, reference: invoices.reference, customerName: customers.name, dueOn: invoices.dueOn,
+    outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`,
+    cisDeductionPence: sql<number>`coalesce((${invoices.totals}->>'cisDeductionPence')::int, 0)`,
+    untouched: sql<boolean>`${invoices.settledPence} = 0`,
+  }).from(invoices)
+    .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
+    .where(owing(f))
+  const dates = lines.map(l => l.date).sort()
+  const near = await f.tx.select({
+    id: purchases.id, supplier: purchases.supplier, boughtOn: purchases.boughtOn,
+    grossPence: sql<number>`(${purchases.netPence} + ${purchases.vatPence})::int`,
+  }).from(purchases)
+    .where(f.where(purchases, gte(purchases.boughtOn, addDays(dates[0]!, -PURCHASE_DAYS)), lte(purchases.boughtOn, addDays(dates.at(-1)!, PURCHASE_DAYS)),
+      sql`not exists (select 1 from ${bankMatches} m where m.firm_id = ${purchases.firmId} and m.purchase_id = ${purchases.id} and m.undone_at is null)`))
+  const moneyIn = new Map(proposeAll(lines.filter(l => l.amountPence > 0), open.map(i => ({ ...i, reference: i.reference ?? '' }))).map(p => [p.lineId, p]))
+  return lines.map(l => ({ ...l, proposal: l.amountPence > 0 ? moneyIn.get(l.id) ?? null : proposeMoneyOut(l, near) }))
 }

@@ -18,3 +18,6 @@ export const bankLayoutSchema = z.object({
     balance: column.optional(),
   }).refine(m => m.amount !== undefined || m.paidIn !== undefined || m.paidOut !== undefined, { message: 'Choose the amount column, or the paid-in and paid-out columns.', path: ['amount'] }),
 })
+
+/** GET /api/bank-accounts/:id/lines: which lines (the open ones by default). */
+export const bankLinesQuery = z.object({ state: z.enum(['open', 'matched', 'ignored']).default('open') })
