@@ -34,9 +34,11 @@ CREATE TABLE "bank_matches" (
 	"firm_id" uuid NOT NULL,
 	"id" uuid DEFAULT gen_random_uuid() NOT NULL,
 	"line_id" uuid NOT NULL,
+	"kind" text NOT NULL,
 	"invoice_id" uuid,
 	"payment_id" uuid,
 	"purchase_id" uuid,
+	"purchase_made" boolean DEFAULT false NOT NULL,
 	"amount_pence" integer NOT NULL,
 	"certainty" text NOT NULL,
 	"reasons" jsonb DEFAULT '[]'::jsonb NOT NULL,
@@ -44,7 +46,9 @@ CREATE TABLE "bank_matches" (
 	"confirmed_at" timestamp with time zone DEFAULT now() NOT NULL,
 	"undone_at" timestamp with time zone,
 	CONSTRAINT "bank_matches_firm_id_id_pk" PRIMARY KEY("firm_id","id"),
-	CONSTRAINT "bank_matches_one_thing" CHECK (("bank_matches"."invoice_id" is not null) <> ("bank_matches"."purchase_id" is not null))
+	CONSTRAINT "bank_matches_one_thing" CHECK (("bank_matches"."kind" = 'payment' and "bank_matches"."invoice_id" is not null and "bank_matches"."purchase_id" is null)
+    or ("bank_matches"."kind" = 'purchase' and "bank_matches"."purchase_id" is not null and "bank_matches"."invoice_id" is null)
+    or ("bank_matches"."kind" = 'payout' and "bank_matches"."invoice_id" is null and "bank_matches"."purchase_id" is null))
 );
 --> statement-breakpoint
 ALTER TABLE "bank_matches" ENABLE ROW LEVEL SECURITY;--> statement-breakpoint

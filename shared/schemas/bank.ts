@@ -1,14 +1,15 @@
 import { z } from 'zod'
+import { text } from './common'
 
 /** A bank account of the firm, by the name the firm knows it by ("Business current account"). */
 export const bankAccountSchema = z.object({
-  name: z.string().trim().min(1, 'Name the account, as the firm knows it.').max(80, 'At most 80 characters.'),
+  name: text({ error: 'Name the account, as the firm knows it.' }).trim().min(1, 'Name the account, as the firm knows it.').max(80, 'At most 80 characters.'),
 })
 
-const column = z.number().int().min(0).max(50)
+const column = z.int().min(0).max(50)
 /** Which column of a CSV statement holds what (shared/utils/bank-csv.ts BankMapping), and the header row's index (-1: none). */
 export const bankLayoutSchema = z.object({
-  headerRow: z.number().int().min(-1).max(20),
+  headerRow: z.int().min(-1).max(20),
   mapping: z.object({
     date: column,
     description: z.array(column).min(1, 'Choose the column with the description.').max(5),

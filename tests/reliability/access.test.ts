@@ -37,6 +37,7 @@ const TABLE: Record<string, [Need, string]> = {
   // called with a link that names nothing (a sign-up link is single use): 404 for everyone
   'POST /api/auth/sign-up/:token': ['public', '404 404 404 404 404 404'],
   'POST /api/bank-accounts': ['money:write', '401 ok ok 403 403 ok'],
+  'GET /api/bank-accounts/:id/lines': ['money:read', '401 ok ok 403 ok 404'],
   'POST /api/bank-accounts/:id/statements/uploads': ['money:write', '401 ok ok 403 403 404'],
   'GET /api/bank-rates': ['money:read', '401 ok ok 403 ok ok'],
   'PUT /api/bank-rates': ['firm:manage', '401 ok 403 403 403 ok'],

@@ -4,7 +4,7 @@
 // it never reaches an index (DEVELOPERS.md "Row-level security and indexes"), and Today counts the
 // lines still open.
 import { sql } from 'drizzle-orm'
-import { check, date, foreignKey, index, integer, jsonb, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, date, foreignKey, index, integer, jsonb, pgPolicy, pgTable, primaryKey, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
 import { firmColumn, sameFirm, timestamps } from './common'
 import { firms } from './firms'
 import { users } from './users'
@@ -76,6 +76,9 @@ export const bankLines = pgTable('bank_lines', {
   firmPolicy('bank_lines'),
 ]).enableRLS()
 
+export const BANK_MATCH_KINDS = ['payment', 'purchase', 'payout'] as const
+export type BankMatchKind = (typeof BANK_MATCH_KINDS)[number]
+
 /**
  * What a line was confirmed as: a payment recorded on an invoice (one row per invoice it paid), a
  * recorded purchase, or a purchase made from it. Undoing sets `undone_at`, clears `payment_id`, then
@@ -85,9 +88,13 @@ export const bankMatches = pgTable('bank_matches', {
   firmId: firmColumn(),
   id: uuid().notNull().defaultRandom(),
   lineId: uuid().notNull(),
+  /** A payment on an invoice, a purchase (recorded, or made from the line), or a Stripe payout (its card payments were recorded as they were paid). */
+  kind: text().$type<BankMatchKind>().notNull(),
   invoiceId: uuid(),
   paymentId: uuid(),
   purchaseId: uuid(),
+  /** The purchase was made from this line (undoing removes it, unless its receipt has come). */
+  purchaseMade: boolean().notNull().default(false),
   amountPence: integer().notNull(),
   certainty: text().notNull(),
   reasons: jsonb().$type<string[]>().notNull().default([]),
@@ -100,7 +107,9 @@ export const bankMatches = pgTable('bank_matches', {
   foreignKey({ name: 'bank_matches_invoice_fk', columns: [t.firmId, t.invoiceId], foreignColumns: [invoices.firmId, invoices.id] }),
   foreignKey({ name: 'bank_matches_payment_fk', columns: [t.firmId, t.paymentId], foreignColumns: [payments.firmId, payments.id] }),
   foreignKey({ name: 'bank_matches_purchase_fk', columns: [t.firmId, t.purchaseId], foreignColumns: [purchases.firmId, purchases.id] }),
-  check('bank_matches_one_thing', sql`(${t.invoiceId} is not null) <> (${t.purchaseId} is not null)`),
+  check('bank_matches_one_thing', sql`(${t.kind} = 'payment' and ${t.invoiceId} is not null and ${t.purchaseId} is null)
+    or (${t.kind} = 'purchase' and ${t.purchaseId} is not null and ${t.invoiceId} is null)
+    or (${t.kind} = 'payout' and ${t.invoiceId} is null and ${t.purchaseId} is null)`),
   index('bank_matches_line_idx').on(t.firmId, t.lineId),
   index('bank_matches_invoice_idx').on(t.firmId, t.invoiceId).where(sql`${t.invoiceId} is not null`),
   firmPolicy('bank_matches'),
