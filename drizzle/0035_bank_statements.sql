@@ -38,7 +38,7 @@ CREATE TABLE "bank_matches" (
 	"invoice_id" uuid,
 	"payment_id" uuid,
 	"purchase_id" uuid,
-	"purchase_made" boolean DEFAULT false NOT NULL,
+	"made" boolean DEFAULT false NOT NULL,
 	"amount_pence" integer NOT NULL,
 	"certainty" text NOT NULL,
 	"reasons" jsonb DEFAULT '[]'::jsonb NOT NULL,

@@ -3,14 +3,16 @@
 // (a unique key: a file imported again, or overlapping one, adds only what is new), all in one
 // transaction, so nothing is half-imported.
 import Papa from 'papaparse'
-import { and, desc, eq, gte, lte, sql } from 'drizzle-orm'
-import { bankAccounts, bankLines, bankMatches, bankStatements, customers, invoices, purchases } from '../db/schema'
-import { owing } from './invoices'
+import { and, desc, eq, gte, inArray, isNotNull, isNull, lt, lte, sql, type SQL } from 'drizzle-orm'
+import { bankAccounts, bankLines, bankMatches, bankStatements, customers, documents, invoices, payments, purchases } from '../db/schema'
+import type { PURCHASE_CATEGORIES } from '#shared/schemas/purchase'
+import { moneyAgainst, owing, recordPayment, unsettleJob } from './invoices'
 import type { FirmScope } from './db'
 import { lineKeys, readStatementRows, type BankMapping, type BankCsvLine } from '#shared/utils/bank-csv'
 import { readOfx } from '#shared/utils/bank-ofx'
 import { PURCHASE_DAYS, proposeAll, proposeMoneyOut } from '#shared/utils/bank-match'
 import { addDays } from '#shared/utils/dates'
+import { formatPence as pounds } from '#shared/utils/money'
 
 export interface StatementImport { statementId: string, linesNew: number, linesAlready: number, format: 'csv' | 'ofx' }
 
@@ -61,10 +63,15 @@ export async function importStatement(f: FirmScope, accountId: string, file: { d
   return { statementId: statement!.id, linesNew, linesAlready, format }
 }
 
+/** The most open lines matched in one go: more than a busy firm's year of statements. */
+export const MATCH_ALL = 20_000
+
 /**
- * An account's lines with what each could be (shared/utils/bank-match.ts): money in against the
- * firm's owing invoices (the `owing` index), money out against purchases within a few days of the
- * lines and not matched yet. Newest first; `state` filters (the open ones by default).
+ * An account's lines, newest first, `limit` of them, with what each could be (shared/utils/
+ * bank-match.ts): money in against the firm's owing invoices (the `owing` index), money out against
+ * purchases and refunds within a few days and not matched yet. The proposals are worked out over
+ * every open line, oldest first, so the page shows what confirming all would do. Matched lines come
+ * with what they were matched to. The invoices and purchases named come beside them, by id.
  */
 export async function linesWithProposals(f: FirmScope, accountId: string, state: 'open' | 'matched' | 'ignored' = 'open', limit = 200) {
   const lines = await f.tx.select({
@@ -72,8 +79,14 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
     balancePence: bankLines.balancePence, state: bankLines.state, note: bankLines.note,
   }).from(bankLines)
     .where(f.where(bankLines, eq(bankLines.accountId, accountId), eq(bankLines.state, state)))
-    .orderBy(desc(bankLines.postedOn), desc(bankLines.id)).limit(limit)
-  if (state !== 'open' || !lines.length) return lines.map(l => ({ ...l, proposal: null }))
+    .orderBy(desc(bankLines.postedOn), desc(bankLines.id)).limit(state === 'open' ? MATCH_ALL : limit)
+  const shown = lines.slice(0, limit)
+  const none = { invoices: {}, purchases: {}, refunds: {} }
+  if (state === 'matched') {
+    const matches = await matchesOf(f, shown.map(l => l.id))
+    return { lines: shown.map(l => ({ ...l, proposal: null, matches: matches.get(l.id) ?? [] })), ...none }
+  }
+  if (state !== 'open' || !lines.length) return { lines: shown.map(l => ({ ...l, proposal: null, matches: [] })), ...none }
   const open = await f.tx.select({
     id: invoices.id, reference: invoices.reference, customerName: customers.name, dueOn: invoices.dueOn,
     outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`,
@@ -82,13 +95,224 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
   }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
     .where(owing(f))
-  const dates = lines.map(l => l.date).sort()
-  const near = await f.tx.select({
-    id: purchases.id, supplier: purchases.supplier, boughtOn: purchases.boughtOn,
-    grossPence: sql<number>`(${purchases.netPence} + ${purchases.vatPence})::int`,
-  }).from(purchases)
-    .where(f.where(purchases, gte(purchases.boughtOn, addDays(dates[0]!, -PURCHASE_DAYS)), lte(purchases.boughtOn, addDays(dates.at(-1)!, PURCHASE_DAYS)),
-      sql`not exists (select 1 from ${bankMatches} m where m.firm_id = ${purchases.firmId} and m.purchase_id = ${purchases.id} and m.undone_at is null)`))
+  const out = lines.filter(l => l.amountPence < 0)
+  const dates = out.map(l => l.date).sort()
+  const from = dates.length ? addDays(dates[0]!, -PURCHASE_DAYS) : null
+  const to = dates.length ? addDays(dates.at(-1)!, PURCHASE_DAYS) : null
+  const unmatched = (col: SQL) => sql`not exists (select 1 from ${bankMatches} m where m.firm_id = ${f.firmId} and ${col} and m.undone_at is null)`
+  const near = from && to
+    ? await f.tx.select({
+        id: purchases.id, supplier: purchases.supplier, boughtOn: purchases.boughtOn,
+        grossPence: sql<number>`(${purchases.netPence} + ${purchases.vatPence})::int`,
+      }).from(purchases)
+        .where(f.where(purchases, gte(purchases.boughtOn, from), lte(purchases.boughtOn, to), unmatched(sql`m.purchase_id = ${purchases.id}`)))
+    : []
+  const refunds = from && to
+    ? await f.tx.select({ id: payments.id, reference: sql<string>`coalesce(${invoices.reference}, '')`, refundedOn: payments.receivedOn, amountPence: sql<number>`(-${payments.amountPence})::int` })
+        .from(payments)
+        .innerJoin(invoices, and(eq(invoices.firmId, payments.firmId), eq(invoices.id, payments.invoiceId)))
+        .where(f.where(payments, lt(payments.amountPence, 0), gte(payments.receivedOn, from), lte(payments.receivedOn, to), unmatched(sql`m.payment_id = ${payments.id}`)))
+    : []
   const moneyIn = new Map(proposeAll(lines.filter(l => l.amountPence > 0), open.map(i => ({ ...i, reference: i.reference ?? '' }))).map(p => [p.lineId, p]))
-  return lines.map(l => ({ ...l, proposal: l.amountPence > 0 ? moneyIn.get(l.id) ?? null : proposeMoneyOut(l, near) }))
+  const withProposals = shown.map(l => ({ ...l, proposal: l.amountPence > 0 ? moneyIn.get(l.id) ?? null : proposeMoneyOut(l, near, refunds), matches: [] }))
+  // what the shown proposals name, for the page to show them by reference and name
+  const invoiceIds = new Set(withProposals.flatMap(l => l.proposal && 'parts' in l.proposal ? [...l.proposal.parts.map(p => p.invoiceId), ...l.proposal.alternatives] : []))
+  const purchaseIds = new Set(withProposals.flatMap(l => l.proposal && 'match' in l.proposal ? [...(l.proposal.match.kind === 'purchase' ? [l.proposal.match.purchaseId] : []), ...l.proposal.alternatives] : []))
+  const refundIds = new Set(withProposals.flatMap(l => l.proposal && 'match' in l.proposal && l.proposal.match.kind === 'refund' ? [l.proposal.match.refundId] : []))
+  return {
+    lines: withProposals,
+    invoices: Object.fromEntries(open.filter(i => invoiceIds.has(i.id)).map(i => [i.id, { reference: i.reference ?? '', customerName: i.customerName, outstandingPence: i.outstandingPence, dueOn: i.dueOn }])),
+    purchases: Object.fromEntries(near.filter(p => purchaseIds.has(p.id)).map(p => [p.id, { supplier: p.supplier, boughtOn: p.boughtOn, grossPence: p.grossPence }])),
+    refunds: Object.fromEntries(refunds.filter(r => refundIds.has(r.id)).map(r => [r.id, { reference: r.reference, refundedOn: r.refundedOn, amountPence: r.amountPence }])),
+  }
+}
+
+/** What each matched line was matched to (its live matches), with the invoice's reference and customer or the purchase's supplier. */
+interface MatchRow { lineId: string, kind: string, invoiceId: string | null, purchaseId: string | null, amountPence: number, made: boolean, reference: string | null, customerName: string | null, supplier: string | null, confirmedAt: Date }
+async function matchesOf(f: FirmScope, lineIds: string[]) {
+  const byLine = new Map<string, MatchRow[]>()
+  if (!lineIds.length) return byLine
+  const rows = await f.tx.select({
+    lineId: bankMatches.lineId, kind: bankMatches.kind, invoiceId: bankMatches.invoiceId, purchaseId: bankMatches.purchaseId, amountPence: bankMatches.amountPence,
+    made: bankMatches.made, reference: invoices.reference, customerName: customers.name, supplier: purchases.supplier, confirmedAt: bankMatches.confirmedAt,
+  }).from(bankMatches)
+    .leftJoin(invoices, and(eq(invoices.firmId, bankMatches.firmId), eq(invoices.id, bankMatches.invoiceId)))
+    .leftJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
+    .leftJoin(purchases, and(eq(purchases.firmId, bankMatches.firmId), eq(purchases.id, bankMatches.purchaseId)))
+    .where(f.where(bankMatches, inArray(bankMatches.lineId, lineIds), isNull(bankMatches.undoneAt)))
+  // Map.groupBy is Node 21's
+  for (const r of rows) byLine.set(r.lineId, [...byLine.get(r.lineId) ?? [], r])
+  return byLine
+}
+
+/** How many lines of an account are open, matched and set aside. */
+export async function lineCounts(f: FirmScope, accountId: string) {
+  const rows = await f.tx.select({ state: bankLines.state, n: sql<number>`count(*)::int` }).from(bankLines)
+    .where(f.where(bankLines, eq(bankLines.accountId, accountId))).groupBy(bankLines.state)
+  const n = (s: string) => rows.find(r => r.state === s)?.n ?? 0
+  return { open: n('open'), matched: n('matched'), ignored: n('ignored') }
+}
+
+/** What the partner confirms a line as (shared/schemas/bank.ts bankMatchSchema). */
+export type LineChoice
+  = | { kind: 'payment', parts: { invoiceId: string, amountPence: number }[] }
+    | { kind: 'refund', paymentId: string }
+    | { kind: 'purchase', purchaseId: string }
+    | { kind: 'new-purchase', supplier: string, category: (typeof PURCHASE_CATEGORIES)[number] }
+    | { kind: 'payout' }
+
+const conflict = (message: string, statusMessage = 'Not now') => createError({ statusCode: 409, statusMessage, data: { message } })
+
+/** A line of the firm's, locked for this request: two confirmations of it at once queue here, and the second finds it matched. */
+export async function lockLine(f: FirmScope, lineId: string) {
+  // the account first: confirming one line and confirming all the sure ones queue on it, so the
+  // proposals confirmed together are worked out from what is owed after any line confirmed before
+  const [of] = await f.tx.select({ accountId: bankLines.accountId }).from(bankLines).where(f.where(bankLines, eq(bankLines.id, lineId)))
+  if (!of) notFound()
+  await lockAccount(f, of.accountId)
+  const [line] = await f.tx.select().from(bankLines).where(f.where(bankLines, eq(bankLines.id, lineId))).for('update')
+  if (!line) notFound()
+  return line
+}
+
+async function lockAccount(f: FirmScope, accountId: string) {
+  const [account] = await f.tx.select({ id: bankAccounts.id }).from(bankAccounts).where(f.where(bankAccounts, eq(bankAccounts.id, accountId))).for('update')
+  if (!account) notFound()
+}
+
+/**
+ * Confirm together the lines the partner saw as sure. Proposals are worked out again under the
+ * account's lock: a line still open with a sure proposal is confirmed as proposed; the rest are
+ * left open and counted (matched meanwhile, or what is owed changed).
+ */
+export async function confirmSure(f: FirmScope, accountId: string, lineIds: string[]) {
+  await lockAccount(f, accountId)
+  const wanted = new Set(lineIds)
+  const open = await linesWithProposals(f, accountId, 'open', MATCH_ALL)
+  let confirmed = 0
+  for (const l of open.lines) {
+    if (!wanted.has(l.id) || l.proposal?.certainty !== 'sure') continue
+    const p = l.proposal
+    const choice: LineChoice = 'parts' in p
+      ? (p.payout ? { kind: 'payout' } : { kind: 'payment', parts: p.parts })
+      : p.match.kind === 'purchase' ? { kind: 'purchase', purchaseId: p.match.purchaseId } : p.match.kind === 'refund' ? { kind: 'refund', paymentId: p.match.refundId } : null!
+    if (!choice) continue
+    await confirmLine(f, l.id, choice, { certainty: p.certainty, reasons: p.reasons })
+    confirmed++
+  }
+  await f.audit('bank.sure-confirmed', 'bank-account', accountId, { asked: lineIds.length, confirmed })
+  return { confirmed, left: lineIds.length - confirmed }
+}
+
+/**
+ * Confirm what a line is. Money in to invoices records each payment as a hand-entered transfer
+ * would be (recordPayment: the owed view, reminders, the job and the VAT cash basis follow), dated
+ * the day it reached the bank. A line already matched or set aside is a 409; so is an invoice that
+ * takes no payment or owes less than its part (a line never overpays an invoice: what is left over
+ * stays on the line's amount), and a purchase or refund already matched to another line. Parts
+ * adding up to more than the line are a 400.
+ */
+export async function confirmLine(f: FirmScope, lineId: string, choice: LineChoice, why: { certainty?: string, reasons?: string[] } = {}) {
+  const line = await lockLine(f, lineId)
+  if (line.state === 'matched') throw conflict('This line is already matched: undo that first to match it again.', 'Already matched')
+  if (line.state === 'ignored') throw conflict('This line was set aside: bring it back to the open lines first.', 'Set aside')
+  const incoming = line.amountPence > 0
+  if ((choice.kind === 'payment' || choice.kind === 'payout') !== incoming) {
+    throw fieldError({ kind: incoming ? 'Money came in on this line: match it to invoices, or to a Stripe payout.' : 'Money went out on this line: match it to a purchase or a refund.' })
+  }
+  const match = { lineId, certainty: why.certainty ?? 'chosen', reasons: why.reasons ?? [], confirmedBy: f.userId }
+  if (choice.kind === 'payment') {
+    const total = choice.parts.reduce((n, p) => n + p.amountPence, 0)
+    if (total > line.amountPence) throw fieldError({ parts: `The parts add up to ${pounds(total)}, more than the ${pounds(line.amountPence)} that came in.` })
+    // invoices locked in one order, so two lines paying the same two invoices cannot deadlock
+    for (const part of [...choice.parts].sort((a, b) => a.invoiceId.localeCompare(b.invoiceId))) {
+      const inv = await findOr404(f, invoices, part.invoiceId, { lock: true })
+      if (!inv.issuedOn || inv.kind === 'credit-note') throw conflict(`${inv.reference ?? 'A draft'} is not an issued invoice, so it takes no payment.`, 'Not payable')
+      const { credited } = await moneyAgainst(f, [inv.id])
+      if ((credited.get(inv.id) ?? 0) >= inv.amountDuePence) throw conflict(`Credit notes cancel everything on ${inv.reference}, so nothing is owed on it.`, 'Credited')
+      // read under the invoice's lock: a line confirmed a moment ago is in settled_pence already
+      const left = inv.amountDuePence - inv.settledPence
+      if (part.amountPence > left) throw conflict(left > 0 ? `${inv.reference} has ${pounds(left)} left to pay, less than the ${pounds(part.amountPence)} put against it.` : `${inv.reference} is paid already: choose another invoice, or leave the line for later.`, 'More than owed')
+    }
+    for (const part of choice.parts) {
+      const payment = await recordPayment(f, part.invoiceId, { method: 'transfer', amountPence: part.amountPence, receivedOn: line.postedOn, reference: line.description.slice(0, 200) })
+      await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'payment', invoiceId: part.invoiceId, paymentId: payment.id, made: true, amountPence: part.amountPence }))
+    }
+  }
+  else if (choice.kind === 'refund') {
+    const [refund] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.id, choice.paymentId), lt(payments.amountPence, 0))).for('update')
+    if (!refund) notFound()
+    await notMatchedYet(f, eq(bankMatches.paymentId, refund.id), 'That refund is already matched to another line of the statement.')
+    await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'payment', invoiceId: refund.invoiceId, paymentId: refund.id, made: false, amountPence: line.amountPence }))
+  }
+  else if (choice.kind === 'purchase') {
+    await findOr404(f, purchases, choice.purchaseId, { lock: true })
+    await notMatchedYet(f, eq(bankMatches.purchaseId, choice.purchaseId), 'That purchase is already matched to another line of the statement.')
+    await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'purchase', purchaseId: choice.purchaseId, made: false, amountPence: line.amountPence }))
+  }
+  else if (choice.kind === 'new-purchase') {
+    // VAT is not on a bank line: it waits for the receipt (none is claimed until then)
+    const [made] = await f.tx.insert(purchases).values(f.values({
+      supplier: choice.supplier, boughtOn: line.postedOn, category: choice.category, netPence: -line.amountPence, vatPence: 0,
+      reference: '', notes: 'Made from the bank statement: add the VAT from its receipt when it comes.', createdBy: f.userId,
+    })).returning({ id: purchases.id })
+    await f.audit('purchase.recorded', 'purchase', made!.id, { netPence: -line.amountPence, fromBankLine: lineId })
+    await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'purchase', purchaseId: made!.id, made: true, amountPence: line.amountPence }))
+  }
+  else {
+    await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'payout', made: false, amountPence: line.amountPence }))
+  }
+  await f.tx.update(bankLines).set({ state: 'matched', updatedAt: sql`now()` }).where(f.where(bankLines, eq(bankLines.id, lineId)))
+  await f.audit('bank.line-matched', 'bank-line', lineId, { kind: choice.kind })
+}
+
+async function notMatchedYet(f: FirmScope, cond: SQL, message: string) {
+  const [taken] = await f.tx.select({ id: bankMatches.id }).from(bankMatches).where(f.where(bankMatches, cond, isNull(bankMatches.undoneAt))).limit(1)
+  if (taken) throw conflict(message, 'Already matched')
+}
+
+/**
+ * Undo a line's match: each payment made from it is taken off its invoice (which owes again, and
+ * its job, if it was marked paid, goes back to invoiced); a purchase made from it is removed while
+ * no receipt has come (with one, it stays for the firm to delete). The line is open again.
+ */
+export async function undoLine(f: FirmScope, lineId: string) {
+  const line = await lockLine(f, lineId)
+  if (line.state !== 'matched') throw conflict('This line is not matched, so there is nothing to undo.', 'Not matched')
+  const live = await f.tx.select().from(bankMatches).where(f.where(bankMatches, eq(bankMatches.lineId, lineId), isNull(bankMatches.undoneAt)))
+  await f.tx.update(bankMatches).set({ undoneAt: sql`now()`, paymentId: sql`case when ${bankMatches.made} then null else ${bankMatches.paymentId} end` })
+    .where(f.where(bankMatches, eq(bankMatches.lineId, lineId), isNull(bankMatches.undoneAt)))
+  let purchaseKept = false
+  for (const m of live) {
+    if (m.kind === 'payment' && m.made && m.paymentId) {
+      const [gone] = await f.tx.delete(payments).where(f.where(payments, eq(payments.id, m.paymentId))).returning({ invoiceId: payments.invoiceId, amountPence: payments.amountPence })
+      if (gone) {
+        const [inv] = await f.tx.select({ jobId: invoices.jobId }).from(invoices).where(f.where(invoices, eq(invoices.id, gone.invoiceId)))
+        await unsettleJob(f, inv?.jobId ?? null)
+        await f.audit('payment.removed', 'invoice', gone.invoiceId, { amountPence: gone.amountPence, fromBankLine: lineId })
+      }
+    }
+    else if (m.kind === 'purchase' && m.made && m.purchaseId) {
+      const [receipt] = await f.tx.select({ id: documents.id }).from(documents).where(f.where(documents, eq(documents.purchaseId, m.purchaseId))).limit(1)
+      if (receipt) {
+        purchaseKept = true
+        continue
+      }
+      // the undone match keeps no hold on it
+      await f.tx.delete(bankMatches).where(f.where(bankMatches, eq(bankMatches.purchaseId, m.purchaseId), isNotNull(bankMatches.undoneAt)))
+      await f.tx.delete(purchases).where(f.where(purchases, eq(purchases.id, m.purchaseId)))
+      await f.audit('purchase.deleted', 'purchase', m.purchaseId, { fromBankLine: lineId })
+    }
+  }
+  await f.tx.update(bankLines).set({ state: 'open', updatedAt: sql`now()` }).where(f.where(bankLines, eq(bankLines.id, lineId)))
+  await f.audit('bank.line-unmatched', 'bank-line', lineId, {})
+  return { purchaseKept }
+}
+
+/** A note on a line left for later, or the line set aside (not the firm's business: a transfer between its own accounts) or brought back. */
+export async function noteLine(f: FirmScope, lineId: string, change: { note?: string, state?: 'open' | 'ignored' }) {
+  const line = await lockLine(f, lineId)
+  if (change.state && line.state === 'matched') throw conflict('This line is matched: undo the match to set it aside.', 'Already matched')
+  await f.tx.update(bankLines).set({ ...change, updatedAt: sql`now()` }).where(f.where(bankLines, eq(bankLines.id, lineId)))
+  await f.audit('bank.line-noted', 'bank-line', lineId, { state: change.state ?? line.state })
 }

@@ -343,6 +343,23 @@ export async function settleJob(f: FirmScope, jobId: string | null) {
   if (rows.length && rows.every(r => ['paid', 'credited'].includes(statusOf(r, money).status))) await moveJob(f, job, 'paid', 'Every invoice paid', false)
 }
 
+/**
+ * The other way: a job marked paid whose invoices are no longer all settled (a payment matched
+ * from the bank statement was undone) goes back to invoiced. Not a move a person makes, so not
+ * through moveJob's table, which has no way back from paid.
+ */
+export async function unsettleJob(f: FirmScope, jobId: string | null) {
+  if (!jobId) return
+  const [job] = await f.tx.select().from(jobs).where(f.where(jobs, eq(jobs.id, jobId))).for('update')
+  if (!job || job.status !== 'paid') return
+  const rows = await f.tx.select().from(invoices).where(f.where(invoices, eq(invoices.jobId, jobId), ne(invoices.kind, 'credit-note'), isNotNull(invoices.issuedOn)))
+  const money = await moneyAgainst(f, rows.map(r => r.id))
+  if (rows.every(r => ['paid', 'credited'].includes(statusOf(r, money).status))) return
+  await f.tx.update(jobs).set({ status: 'invoiced', updatedAt: sql`now()` }).where(f.where(jobs, eq(jobs.id, jobId)))
+  await recordJobStatus(f, jobId, 'paid', 'invoiced', 'A payment was taken off')
+  await f.audit('job.moved', 'job', jobId, { from: 'paid', to: 'invoiced' })
+}
+
 /** The payment recorded for a form's request id, if any (the same request sent again is that payment). */
 export async function paymentByRequest(f: FirmScope, requestId: string) {
   const [row] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.requestId, requestId)))

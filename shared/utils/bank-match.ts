@@ -33,7 +33,12 @@ export interface Proposal {
   reasons: string[]
   /** Other invoices the line could be (an ambiguous amount): shown, never chosen for the partner. */
   alternatives: string[]
+  /** A Stripe payout: its card payments were recorded as each was paid, so it settles nothing more. */
+  payout?: true
 }
+
+/** Stripe's name in a line of money in: a payout of card payments already recorded one by one. */
+export const isStripePayout = (line: MoneyInLine) => line.amountPence > 0 && /\bstripe\b/i.test(line.description)
 
 /** A reference's key: its letters and its number without leading zeros ("BRP-0017", "brp 17" -> "BRP#17"). */
 export function referenceKey(reference: string): string | null {
@@ -62,6 +67,7 @@ const pounds = (p: number) => `£${(p / 100).toFixed(2)}`
 export function proposeMoneyIn(line: MoneyInLine, open: readonly OpenInvoice[]): Proposal | null {
   if (line.amountPence <= 0) return null
   const base = { lineId: line.id, alternatives: [] as string[] }
+  if (isStripePayout(line)) return { ...base, parts: [], certainty: 'sure', payout: true, reasons: ['a Stripe payout: its card payments were recorded as each was paid, so nothing more is recorded'] }
   const keys = keysInDescription(line.description)
   const byRef = open.filter(i => keys.has(referenceKey(i.reference) ?? ''))
     .sort((a, b) => (a.dueOn ?? '').localeCompare(b.dueOn ?? ''))
@@ -162,6 +168,13 @@ const daysApart = (a: string, b: string) => Math.abs(Date.parse(`${a}T00:00:00Z`
 /** Words a bank puts before a merchant's name on a card payment. */
 const CARD_WORDS = /^(?:card payment|card purchase|debit card|contactless|pos|visa|cpm?|dd|card)\b[\s:-]*(?:to\s+)?/i
 
+/** When the purchase was made, against the day the card payment reached the statement. */
+function boughtWhen(boughtOn: string, paidOn: string) {
+  const days = daysApart(boughtOn, paidOn)
+  if (days === 0) return 'bought the same day'
+  return `bought ${days === 1 ? 'a day' : `${days} days`} ${boughtOn < paidOn ? 'before' : 'after'}`
+}
+
 /** The supplier's name in the description: its first word of three letters or more (card lines cut names short). */
 function supplierInDescription(supplier: string, description: string): boolean {
   const first = supplier.toUpperCase().split(/[^A-Z0-9]+/).find(w => w.length >= 3 && !['THE', 'LTD'].includes(w))
@@ -185,7 +198,7 @@ export function proposeMoneyOut(line: MoneyInLine, purchases: readonly OpenPurch
   const pick = named.length === 1 ? named : near
   if (pick.length === 1) {
     const p = pick[0]!
-    return { ...base, match: { kind: 'purchase', purchaseId: p.id }, certainty: named.length === 1 ? 'sure' : 'likely', reasons: ['amount equal', `bought ${daysApart(p.boughtOn, line.date)} days before or after`, ...(named.length === 1 ? [`${p.supplier} in the description`] : [])] }
+    return { ...base, match: { kind: 'purchase', purchaseId: p.id }, certainty: named.length === 1 ? 'sure' : 'likely', reasons: ['amount equal', boughtWhen(p.boughtOn, line.date), ...(named.length === 1 ? [`${p.supplier} in the description`] : [])] }
   }
   if (pick.length > 1) {
     return { ...base, match: { kind: 'purchase', purchaseId: pick[0]!.id }, certainty: 'possible', reasons: [`amount equal to ${pick.length} purchases within ${PURCHASE_DAYS} days: choose which`], alternatives: pick.slice(1).map(p => p.id) }

@@ -116,3 +116,122 @@ describe('the lines of an account, with what each could be', () => {
     expect((await other.get(`/api/bank-accounts/${made.body.id}/lines`)).status).toBe(404)
   })
 })
+
+describe('confirming and undoing', () => {
+  let accountId: string
+  let colley: { id: string }
+  const lines = async (state = 'open') => (await owner.get(`/api/bank-accounts/${accountId}/lines?state=${state}`)).body
+  const byDesc = (body: { lines: { description: string }[] }, d: string) => body.lines.find(l => l.description === d) as any
+  const invoice = async (number: number, pence: number, customerId = colley.id) => (await sql<{ id: string }>(`insert into invoices (firm_id, kind, series, number, reference, customer_id, vat, issued_on, due_on, amount_due_pence) values ($1, 'final', 'invoice', $2, $3, $4, 'standard', '2026-11-20', '2026-12-04', $5) returning id`, [firmId, number, `SY-0${number}`, customerId, pence]))[0]!.id
+  const paidOn = async (id: string) => (await sql<{ n: number, owing: boolean }>('select (select coalesce(sum(amount_pence), 0)::int from payments p where p.firm_id = i.firm_id and p.invoice_id = i.id) as n, owing from invoices i where firm_id = $1 and id = $2', [firmId, id]))[0]!
+
+  beforeAll(async () => {
+    ;[colley] = await sql<{ id: string }>(`insert into customers (firm_id, kind, name, email, billing_line1, billing_postcode) values ($1, 'homeowner', 'Odile Farrant', 'odile@example.invalid', '7 Quarry Steps', 'KB4 7QS') returning id`, [firmId]) as [{ id: string }]
+    accountId = (await owner.post('/api/bank-accounts', { name: 'Matching account' })).body.id
+  })
+
+  it('records a confirmed line as a transfer on the invoice, the owed view drops it, and undo takes it off again', async () => {
+    const inv = await invoice(931, 36000)
+    expect((await upload(owner, accountId, `Date,Description,Amount\n11/12/2026,FP FARRANT SY-931,360.00`)).body).toMatchObject({ linesNew: 1 })
+    const line = byDesc(await lines(), 'FP FARRANT SY-931')
+    expect(line.proposal).toMatchObject({ certainty: 'sure', parts: [{ invoiceId: inv, amountPence: 36000 }] })
+    const owedBefore = (await owner.get('/api/owed')).body
+    expect(JSON.stringify(owedBefore)).toContain('SY-0931')
+    const ok = await owner.post(`/api/bank-lines/${line.id}/match`, { kind: 'payment', parts: [{ invoiceId: inv, amountPence: 36000 }] })
+    expect(ok.status, JSON.stringify(ok.body)).toBe(201)
+    expect(await paidOn(inv)).toEqual({ n: 36000, owing: false })
+    const [pay] = await sql<{ method: string, received_on: string, reference: string }>('select method, received_on::text, reference from payments where firm_id = $1 and invoice_id = $2', [firmId, inv])
+    expect(pay).toEqual({ method: 'transfer', received_on: '2026-12-11', reference: 'FP FARRANT SY-931' })
+    expect(JSON.stringify((await owner.get('/api/owed')).body)).not.toContain('SY-0931')
+    // twice is a 409, and the line shows what it was matched to
+    expect((await owner.post(`/api/bank-lines/${line.id}/match`, { kind: 'payment', parts: [{ invoiceId: inv, amountPence: 36000 }] })).status).toBe(409)
+    expect(byDesc(await lines('matched'), 'FP FARRANT SY-931').matches).toMatchObject([{ kind: 'payment', invoiceId: inv, reference: 'SY-0931', customerName: 'Odile Farrant', amountPence: 36000 }])
+    const undone = await owner.delete(`/api/bank-lines/${line.id}/match`)
+    expect(undone.status, JSON.stringify(undone.body)).toBe(200)
+    expect(await paidOn(inv)).toEqual({ n: 0, owing: true })
+    expect(byDesc(await lines(), 'FP FARRANT SY-931').proposal).toMatchObject({ certainty: 'sure' })
+    expect((await owner.delete(`/api/bank-lines/${line.id}/match`)).status).toBe(409)
+  })
+
+  it('confirms the sure lines together, leaving the ambiguous one; pays two invoices from one transfer and a part payment', async () => {
+    const a = await invoice(941, 25000)
+    const b = await invoice(942, 25000)
+    const c = await invoice(943, 57600)
+    const d = await invoice(944, 31200)
+    const e = await invoice(945, 120000)
+    await upload(owner, accountId, [
+      'Date,Description,Amount',
+      '12/12/2026,TRANSFER FROM A FRIEND,250.00',
+      '12/12/2026,FP SY 943 SY 944,888.00',
+      '12/12/2026,FP SY945 PART,500.00',
+    ].join('\n'))
+    const body = await lines()
+    const ambiguous = byDesc(body, 'TRANSFER FROM A FRIEND')
+    expect(ambiguous.proposal.certainty).toBe('possible')
+    expect([ambiguous.proposal.parts[0].invoiceId, ...ambiguous.proposal.alternatives].sort()).toEqual([a, b].sort())
+    expect(body.invoices[a]).toMatchObject({ reference: 'SY-0941', customerName: 'Odile Farrant', outstandingPence: 25000 })
+    const sure = body.lines.filter((l: any) => l.proposal?.certainty === 'sure').map((l: any) => l.id)
+    const all = await owner.post(`/api/bank-accounts/${accountId}/confirmations`, { lineIds: [...sure, ambiguous.id] })
+    expect(all.status, JSON.stringify(all.body)).toBe(200)
+    expect(all.body.left).toBeGreaterThanOrEqual(1)
+    expect(await paidOn(c)).toEqual({ n: 57600, owing: false })
+    expect(await paidOn(d)).toEqual({ n: 31200, owing: false })
+    expect(await paidOn(e)).toEqual({ n: 50000, owing: true })
+    expect([await paidOn(a), await paidOn(b)]).toEqual([{ n: 0, owing: true }, { n: 0, owing: true }])
+    expect(byDesc(await lines(), 'TRANSFER FROM A FRIEND')).toBeTruthy()
+    // the partner chooses for the ambiguous one
+    expect((await owner.post(`/api/bank-lines/${ambiguous.id}/match`, { kind: 'payment', parts: [{ invoiceId: b, amountPence: 25000 }] })).status).toBe(201)
+    expect(await paidOn(b)).toEqual({ n: 25000, owing: false })
+  })
+
+  it('matches money out to a purchase, makes a purchase from a card payment (undo removes it), and recognises a Stripe payout', async () => {
+    const [p] = await sql<{ id: string }>(`insert into purchases (firm_id, supplier, bought_on, category, net_pence, vat_pence) values ($1, 'Quarry Lane Timber', '2026-12-13', 'materials', 10000, 2000) returning id`, [firmId])
+    await upload(owner, accountId, 'Date,Description,Amount\n14/12/2026,CARD PAYMENT QUARRY LANE TIMB,-120.00\n14/12/2026,CARD PAYMENT BRINEWELL FUELS,-61.30\n14/12/2026,STRIPE PAYMENTS UK PAYOUT,360.00')
+    const body = await lines()
+    const timber = byDesc(body, 'CARD PAYMENT QUARRY LANE TIMB')
+    expect(timber.proposal).toMatchObject({ certainty: 'sure', match: { kind: 'purchase', purchaseId: p!.id } })
+    expect(body.purchases[p!.id]).toMatchObject({ supplier: 'Quarry Lane Timber', grossPence: 12000 })
+    const fuel = byDesc(body, 'CARD PAYMENT BRINEWELL FUELS')
+    expect(fuel.proposal).toMatchObject({ certainty: 'possible', match: { kind: 'new-purchase', supplier: 'BRINEWELL FUELS', grossPence: 6130 } })
+    const payout = byDesc(body, 'STRIPE PAYMENTS UK PAYOUT')
+    expect(payout.proposal).toMatchObject({ certainty: 'sure', payout: true, parts: [] })
+    // a payout is not invoices, and money out is not a payment
+    expect((await owner.post(`/api/bank-lines/${fuel.id}/match`, { kind: 'payment', parts: [{ invoiceId: p!.id, amountPence: 100 }] })).status).toBe(400)
+    expect((await owner.post(`/api/bank-lines/${timber.id}/match`, { kind: 'purchase', purchaseId: p!.id })).status).toBe(201)
+    expect((await owner.post(`/api/bank-lines/${payout.id}/match`, { kind: 'payout' })).status).toBe(201)
+    const paymentsBefore = (await sql<{ n: number }>('select count(*)::int as n from payments where firm_id = $1', [firmId]))[0]!.n
+    const made = await owner.post(`/api/bank-lines/${fuel.id}/match`, { kind: 'new-purchase', supplier: 'Brinewell Fuels', category: 'fuel' })
+    expect(made.status, JSON.stringify(made.body)).toBe(201)
+    const [bought] = await sql<{ id: string, net_pence: number, vat_pence: number, bought_on: string }>(`select id, net_pence, vat_pence, bought_on::text from purchases where firm_id = $1 and supplier = 'Brinewell Fuels'`, [firmId])
+    expect(bought).toMatchObject({ net_pence: 6130, vat_pence: 0, bought_on: '2026-12-14' })
+    expect((await sql<{ n: number }>('select count(*)::int as n from payments where firm_id = $1', [firmId]))[0]!.n).toBe(paymentsBefore)
+    expect((await owner.delete(`/api/bank-lines/${fuel.id}/match`)).status).toBe(200)
+    expect(await sql(`select id from purchases where firm_id = $1 and supplier = 'Brinewell Fuels'`, [firmId])).toEqual([])
+    // the recorded purchase stays when its match is undone
+    expect((await owner.delete(`/api/bank-lines/${timber.id}/match`)).status).toBe(200)
+    expect(await sql('select id from purchases where firm_id = $1 and id = $2', [firmId, p!.id])).toHaveLength(1)
+  })
+
+  it('keeps a note on a line left for later, sets one aside, and keeps the accountant, crew and other firms out of every change', async () => {
+    await upload(owner, accountId, 'Date,Description,Amount\n15/12/2026,TFR FROM SAVINGS,2000.00')
+    const line = byDesc(await lines(), 'TFR FROM SAVINGS')
+    expect((await owner.patch(`/api/bank-lines/${line.id}`, { note: 'Ask Jess what this is' })).status).toBe(200)
+    expect(byDesc(await lines(), 'TFR FROM SAVINGS').note).toBe('Ask Jess what this is')
+    expect((await owner.patch(`/api/bank-lines/${line.id}`, {})).status).toBe(400)
+    const { client: accountant } = await inviteAndJoin(app, owner, uniqueEmail('acct3'), 'accountant')
+    const { client: crew } = await inviteAndJoin(app, owner, uniqueEmail('crew3'), 'crew')
+    const { client: other } = await signUpFirm(app.url, 'Over The Hill Plastering')
+    for (const [who, want] of [[accountant, 403], [crew, 403], [other, 404]] as const) {
+      expect((await who.patch(`/api/bank-lines/${line.id}`, { state: 'ignored' })).status).toBe(want)
+      expect((await who.post(`/api/bank-lines/${line.id}/match`, { kind: 'payout' })).status).toBe(want)
+      expect((await who.delete(`/api/bank-lines/${line.id}/match`)).status).toBe(want)
+      expect((await who.post(`/api/bank-accounts/${accountId}/confirmations`, { lineIds: [line.id] })).status).toBe(want)
+    }
+    expect((await accountant.get('/api/bank-accounts')).body.accounts.map((a: { name: string }) => a.name)).toContain('Matching account')
+    expect((await other.get('/api/bank-accounts')).body.accounts).toEqual([])
+    expect((await owner.patch(`/api/bank-lines/${line.id}`, { state: 'ignored' })).status).toBe(200)
+    expect(byDesc(await lines('ignored'), 'TFR FROM SAVINGS')).toBeTruthy()
+    expect(byDesc(await lines(), 'TFR FROM SAVINGS')).toBeUndefined()
+    expect((await owner.post(`/api/bank-lines/${line.id}/match`, { kind: 'payout' })).status).toBe(409)
+  })
+})

@@ -50,6 +50,10 @@ describe('proposeMoneyIn', () => {
     ['no reference, less than the named customer owes: their oldest first, possible', line('FERNHILL HOMES', 10000), { certainty: 'possible', parts: [['i03', 10000]] }],
     ['nothing fits: left for later', line('INTEREST', 123), null],
     ['a refund going out is not a payment in', line('REFUND BRP 17 COLLEY', -48000), null],
+    // Stripe pays card takings out in one transfer; Setwell records each card payment as it is paid,
+    // so the payout must settle nothing, even when its amount equals an invoice (common practice)
+    ['a Stripe payout equal to an invoice: settles nothing, card payments already recorded', line('STRIPE PAYMENTS UK LTD PAYOUT', 48000), { certainty: 'sure', parts: [], reasons: /Stripe payout.*already|recorded as each was paid/ }],
+    ['stripe in lower case, with a reference in it: still a payout', line('stripe payout po_1 BRP 17', 48000), { certainty: 'sure', parts: [] }],
   ]
   it.each(cases)('%s', (_name, l, want) => {
     const got = proposeMoneyIn(l, OPEN)
@@ -68,6 +72,10 @@ describe('proposeAll: two transfers never settle the same invoice', () => {
   it('gives the second transfer of the same amount nothing once the first took the invoice', () => {
     const got = proposeAll([line('FP MILLBECK LETTINGS', 120000, 'l1'), line('FP MILLBECK LETTINGS', 120000, 'l2')], OPEN)
     expect(got.map(p => [p.lineId, p.parts])).toEqual([['l1', [{ invoiceId: 'i07', amountPence: 120000 }]]])
+  })
+  it('leaves the invoice to the transfer that pays it when a Stripe payout of the same amount came first', () => {
+    const got = proposeAll([{ ...line('STRIPE PAYOUT', 120000, 'l1'), date: '2026-12-01' }, line('FP MILLBECK LETTINGS', 120000, 'l2')], OPEN)
+    expect(got.map(p => [p.lineId, p.payout ?? false, p.parts])).toEqual([['l1', true, []], ['l2', false, [{ invoiceId: 'i07', amountPence: 120000 }]]])
   })
   it('takes two part payments of one invoice in date order', () => {
     const got = proposeAll([{ ...line('BRP 26', 70000, 'l2'), date: '2026-12-05' }, line('BRP 26', 50000, 'l1')], OPEN)

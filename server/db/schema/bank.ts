@@ -93,8 +93,11 @@ export const bankMatches = pgTable('bank_matches', {
   invoiceId: uuid(),
   paymentId: uuid(),
   purchaseId: uuid(),
-  /** The purchase was made from this line (undoing removes it, unless its receipt has come). */
-  purchaseMade: boolean().notNull().default(false),
+  /**
+   * The payment or purchase was made from this line: undoing removes it (a purchase only while no
+   * receipt has come). A recorded refund or purchase the line was matched to stays.
+   */
+  made: boolean().notNull().default(false),
   amountPence: integer().notNull(),
   certainty: text().notNull(),
   reasons: jsonb().$type<string[]>().notNull().default([]),

@@ -3,7 +3,11 @@ import { bankAccounts } from '../../../db/schema'
 import { idParam } from '#shared/schemas/common'
 import { bankLinesQuery } from '#shared/schemas/bank'
 
-/** An account's statement lines, newest first, each open one with what it could be and why. Owner, office and the accountant (who reads). */
+/**
+ * An account's statement lines, newest first: the open ones with what each could be and why, the
+ * matched ones with what they were matched to, or those set aside; and how many there are of each.
+ * Owner, office and the accountant (who reads).
+ */
 export default defineEventHandler(async (event) => {
   const auth = await requireAuth(event, 'money:read')
   const { id } = await readParamsWith(event, idParam)
@@ -11,6 +15,6 @@ export default defineEventHandler(async (event) => {
   return withFirm(auth, async (f) => {
     const [account] = await f.tx.select({ id: bankAccounts.id, name: bankAccounts.name }).from(bankAccounts).where(f.where(bankAccounts, eq(bankAccounts.id, id)))
     if (!account) notFound()
-    return { account, state, lines: await linesWithProposals(f, id, state) }
+    return { account, state, counts: await lineCounts(f, id), ...await linesWithProposals(f, id, state) }
   })
 })
