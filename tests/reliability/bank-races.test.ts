@@ -77,9 +77,9 @@ describe('bank statement lines under many requests at once', () => {
   it('never pays an invoice more than it owes when "confirm the sure ones" and single confirmations of two lines arrive together', async () => {
     const inv = await invoice(42000)
     // two transfers quoting the same invoice for its whole amount: only one of them can be its payment
-    const find = await statement('19/12/2026,FP GREAVE RL-104 FIRST,420.00\n20/12/2026,FP GREAVE RL-104 AGAIN,420.00')
-    const first = find('FP GREAVE RL-104 FIRST')
-    const again = find('FP GREAVE RL-104 AGAIN')
+    const find = await statement(`19/12/2026,FP GREAVE RL-${number} FIRST,420.00\n20/12/2026,FP GREAVE RL-${number} AGAIN,420.00`)
+    const first = find(`FP GREAVE RL-${number} FIRST`)
+    const again = find(`FP GREAVE RL-${number} AGAIN`)
     expect(first.proposal.certainty).toBe('sure')
     const answers = await together(AT_ONCE, i => i % 3 === 0
       ? owner.post(`/api/bank-accounts/${accountId}/confirmations`, { lineIds: [first.id, again.id] })

@@ -293,6 +293,9 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
   const documentId = await newDocument()
   // a bank account, for statement imports (issue 20)
   const bankAccountId = ok(await o.post('/api/bank-accounts', { name: 'Business current account' }), 'bank account').id as string
+  // and a line of money in on it, to match, note and undo
+  ok(await sendMultipart(app.url, o, `/api/bank-accounts/${bankAccountId}/statements/uploads`, {}, { data: Buffer.from('Date,Description,Amount\n01/12/2026,STRIPE PAYOUT,12.00\n'), name: 'statement.csv', type: 'text/csv' }), 'statement')
+  const bankLineId = ok(await o.get(`/api/bank-accounts/${bankAccountId}/lines`), 'bank lines').lines[0].id as string
 
   const invite = async () => {
     const email = uniqueEmail('invitee')
@@ -316,6 +319,7 @@ export async function makeFirm(app: TestApp, name: string, opts: { team?: boolea
     accountant: m('accountant'),
     ids: {
       bankAccountId,
+      bankLineId,
       firmId: signUp.firmId,
       ownerUserId: owner.userId,
       ownerMembershipId: owner.membershipId,
@@ -421,6 +425,9 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
   'PUT /api/purchases/:id': f => ({ supplier: 'Trowel & Hawk Supplies', boughtOn: TODAY, category: 'materials', netPence: 120_00, vatPence: 24_00, reference: 'TH-1', notes: '', jobs: [{ jobId: f.ids.jobId, netPence: 60_00 }] }),
   // a name of its own each time (the firm's account names are unique: a second one is a 409)
   'POST /api/bank-accounts': () => ({ name: `Savings ${randomUUID().slice(0, 8)}` }),
+  'POST /api/bank-accounts/:id/confirmations': f => ({ lineIds: [f.ids.bankLineId] }),
+  'PATCH /api/bank-lines/:id': () => ({ note: 'Ask the bank what this is' }),
+  'POST /api/bank-lines/:id/match': () => ({ kind: 'payout' }),
   'POST /api/purchases': f => ({ supplier: 'Fuel Stop', boughtOn: TODAY, category: 'fuel', netPence: 40_00, vatPence: 8_00, reference: 'FS-9', notes: 'Van', jobs: [{ jobId: f.ids.jobId, netPence: 10_00 }] }),
   'PUT /api/quotes/:id/draft': f => ({ pricing: 'measure', estimatedDaysX100: 100, fixedPricePence: null, vat: f.vat.quote, cisRatePercent: null, validUntil: inDays(30), terms: 'Payment within 14 days', notes: '', cautions: ['Allow a week to dry'], lines: [{ kind: 'labour', description: 'Skim walls', quantityX1000: 9600, unit: 'm²', unitPence: 9_00, vatRatePercent: 0, derivation: '4.00 x 2.40' }] }),
   'POST /api/quotes': f => ({ customerId: f.ids.customerId, siteId: f.ids.siteId, enquiryId: f.ids.enquiryId, visitId: f.ids.visitId }),
@@ -456,6 +463,7 @@ export const GOOD_BODIES: Record<string, GoodBody> = {
  */
 const ROW_FOR_RESOURCE: Record<string, string> = {
   'bank-accounts': 'bankAccountId',
+  'bank-lines': 'bankLineId',
   'cis-statements': 'cisStatementId',
   'customers': 'customerId',
   'documents': 'documentId',
