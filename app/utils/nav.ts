@@ -19,6 +19,7 @@ export const MONEY_ITEMS: NavItem[] = [
   { to: '/quotes', label: 'Quotes', icon: 'quotes', permission: 'money:read' },
   { to: '/invoices', label: 'Invoices', icon: 'quotes', permission: 'money:read' },
   { to: '/owed', label: 'What is owed', icon: 'quotes', permission: 'money:read' },
+  { to: '/bank', label: 'Bank statement', icon: 'quotes', permission: 'money:read' },
   { to: '/chasing', label: 'Chasing payment', icon: 'quotes', permission: 'money:read' },
   { to: '/purchases', label: 'Purchases and receipts', icon: 'quotes', permission: 'money:read' },
   { to: '/quarter', label: 'The quarter: VAT and exports', icon: 'quotes', permission: 'money:read' },

@@ -4,7 +4,7 @@
 // lists lacked); crew's day; the accountant's firms. The words are shared/utils/next-actions.ts.
 import { and, asc, eq, gte, isNull, lt, lte, ne, or, sql, type SQLWrapper } from 'drizzle-orm'
 import {
-  chaseNotes, customers, documents, enquiries, firms, invitations, invoices, jobDays, jobs, memberships, purchases,
+  bankAccounts, bankLines, chaseNotes, customers, documents, enquiries, firms, invitations, invoices, jobDays, jobs, memberships, purchases,
   quotes, quoteVersions, rooms, setLogs, sites, users, visits,
 } from '../db/schema'
 import type { FirmScope } from './db'
@@ -16,7 +16,7 @@ import { cisTaxMonth, vatQuarter } from '#shared/utils/periods'
 import { jobReference, quoteReference } from '#shared/utils/references'
 import {
   ACTIONS_PER_KIND, DEFAULT_QUOTE_CHASE_DAYS, RECEIPT_LOOKBACK_DAYS, SET_LOG_LOOKBACK_DAYS,
-  cisReturnAction, dayNoSetAction, enquiryAction, invoiceOverdueAction, jobNotInvoicedAction, onceEach, promiseOverOverdue,
+  bankLinesAction, cisReturnAction, dayNoSetAction, enquiryAction, invoiceOverdueAction, jobNotInvoicedAction, onceEach, promiseOverOverdue,
   purchaseNoReceiptAction, quoteNotBookedAction, quoteUnansweredAction, setupActions, sortActions,
   vatReturnAction, visitNotMarkedAction, visitNotWrittenUpAction,
   type MoneySummary, type NextAction, type NextActionKind, type OnSiteJob, type ServedFirm, type ServedQuarter, type TodayView, type VisitToCome,
@@ -174,6 +174,15 @@ const purchasesNoReceipt: Source = async (f, today) => listed(await f.tx.select(
     sql`not exists (select 1 from ${documents} d where d.firm_id = ${purchases.firmId} and d.purchase_id = ${purchases.id})`))
   .orderBy(asc(purchases.boughtOn), asc(purchases.id)).limit(ACTIONS_PER_KIND), r => purchaseNoReceiptAction(r, today))
 
+/** Each bank account's statement lines still to match, counted (bank_lines_open_idx). */
+const bankLinesOpen: Source = async (f, today) => listed(await f.tx.select({
+  accountId: bankLines.accountId, account: bankAccounts.name, open: sql<number>`count(*)::int`, oldest: sql<string>`min(${bankLines.postedOn})::text`, total,
+}).from(bankLines)
+  .innerJoin(bankAccounts, and(eq(bankAccounts.firmId, bankLines.firmId), eq(bankAccounts.id, bankLines.accountId)))
+  .where(f.where(bankLines, eq(bankLines.state, 'open')))
+  .groupBy(bankLines.accountId, bankAccounts.name)
+  .orderBy(sql`min(${bankLines.postedOn})`, asc(bankLines.accountId)).limit(ACTIONS_PER_KIND), r => bankLinesAction(r, today))
+
 /**
  * Where broken promises to pay join the list: `brokenPromiseActions(f, today)` from
  * server/utils/promises.ts. Each answers its actions; the first five are shown, the rest counted.
@@ -310,8 +319,8 @@ async function firmsServed(f: FirmScope, today: string, userId: string): Promise
 
 /** Which lists each role is given. */
 export const LISTS_BY_ROLE: Record<Role, readonly NextActionKind[]> = {
-  owner: ['promise-broken', 'invoice-overdue', 'enquiry-new', 'visit-not-marked', 'quote-not-booked', 'job-not-invoiced', 'vat-return-due', 'cis-return-due', 'quote-unanswered', 'visit-not-written-up', 'day-no-set-logged', 'purchase-no-receipt', 'setup-missing'],
-  office: ['promise-broken', 'invoice-overdue', 'enquiry-new', 'visit-not-marked', 'quote-not-booked', 'job-not-invoiced', 'vat-return-due', 'cis-return-due', 'quote-unanswered', 'visit-not-written-up', 'day-no-set-logged', 'purchase-no-receipt'],
+  owner: ['promise-broken', 'invoice-overdue', 'enquiry-new', 'visit-not-marked', 'quote-not-booked', 'job-not-invoiced', 'vat-return-due', 'cis-return-due', 'quote-unanswered', 'visit-not-written-up', 'day-no-set-logged', 'purchase-no-receipt', 'setup-missing', 'bank-lines-open'],
+  office: ['promise-broken', 'invoice-overdue', 'bank-lines-open', 'enquiry-new', 'visit-not-marked', 'quote-not-booked', 'job-not-invoiced', 'vat-return-due', 'cis-return-due', 'quote-unanswered', 'visit-not-written-up', 'day-no-set-logged', 'purchase-no-receipt'],
   crew: ['visit-not-marked', 'day-no-set-logged'],
   accountant: [],
 }
@@ -329,6 +338,7 @@ export async function todayFor(f: FirmScope, who: Who, today: string): Promise<T
     ['invoice-overdue', invoicesOverdue],
     ['day-no-set-logged', daysNoSetLogged],
     ['purchase-no-receipt', purchasesNoReceipt],
+    ['bank-lines-open', bankLinesOpen],
     ...PROMISE_SOURCES.map(s => ['promise-broken', promiseSource(s)] as [NextActionKind, Source]),
   ]
   // one transaction, so the statements run one after another on its connection

@@ -111,6 +111,9 @@ export function statementPence(input: string): number | null | 'bad' {
 }
 
 /** Rows (as papaparse gives them) to the statement's lines; the header row is the first (within ten) that names its columns, unless a mapping is given. */
+/** The file's header does not say which column is which: the page then asks the person. */
+export const NO_HEADER = 'No row names the date, description and amount columns: choose which column is which.'
+
 export function readStatementRows(rows: readonly (readonly string[])[], given?: { mapping: BankMapping, headerRow: number }): BankCsvResult {
   let mapping = given?.mapping ?? null
   let headerRow = given?.headerRow ?? -1
@@ -120,7 +123,7 @@ export function readStatementRows(rows: readonly (readonly string[])[], given?: 
       if (mapping) headerRow = i
     }
   }
-  if (!mapping) return { ok: false, row: 1, message: 'No row names the date, description and amount columns: choose which column is which.' }
+  if (!mapping) return { ok: false, row: 1, message: NO_HEADER }
   const lines: BankCsvLine[] = []
   let problem: { row: number, message: string } | null = null
   for (let i = headerRow + 1; i < rows.length; i++) {

@@ -7,7 +7,7 @@ import { formatPence } from './money'
 
 export type NextActionKind = 'enquiry-new' | 'visit-not-written-up' | 'visit-not-marked' | 'quote-unanswered'
   | 'quote-not-booked' | 'job-not-invoiced' | 'invoice-overdue' | 'promise-broken' | 'day-no-set-logged'
-  | 'purchase-no-receipt' | 'vat-return-due' | 'cis-return-due' | 'setup-missing'
+  | 'purchase-no-receipt' | 'vat-return-due' | 'cis-return-due' | 'setup-missing' | 'bank-lines-open'
 
 export interface NextAction {
   kind: NextActionKind
@@ -35,6 +35,8 @@ export interface NextAction {
 export const KIND_URGENCY: Record<NextActionKind, number> = {
   'promise-broken': 1300,
   'invoice-overdue': 1200,
+  // beside the overdue invoices, by age: a transfer still to match may be the payment about to be chased
+  'bank-lines-open': 1200,
   'enquiry-new': 1100,
   'visit-not-marked': 1000,
   'quote-not-booked': 900,
@@ -200,6 +202,16 @@ export function dayNoSetAction(r: { jobId: string, reference: string, customer: 
   })
 }
 
+/** An account's statement lines still to match: one action for them all, waiting since the oldest. */
+export function bankLinesAction(r: { accountId: string, account: string, open: number, oldest: string }, today: string): NextAction {
+  return make('bank-lines-open', r.accountId, r.oldest, today, {
+    title: `Match ${r.open === 1 ? 'a line' : `${r.open.toLocaleString('en-GB')} lines`} of the bank statement`,
+    detail: join(r.account, `${r.open === 1 ? 'from' : 'the oldest from'} ${longIsoDate(r.oldest)}`),
+    href: '/bank',
+    actionLabel: 'Match them',
+  })
+}
+
 export function purchaseNoReceiptAction(r: { id: string, supplier: string, boughtOn: string, grossPence: number }, today: string): NextAction {
   return make('purchase-no-receipt', r.id, r.boughtOn, today, {
     title: `Add the receipt for ${r.supplier}`,
@@ -295,6 +307,7 @@ export const KIND_LISTS: Record<NextActionKind, { words: string, href: string }>
   'vat-return-due': { words: 'VAT returns', href: '/quarter' },
   'cis-return-due': { words: 'CIS returns', href: '/cis' },
   'setup-missing': { words: 'things to set up', href: '/firm' },
+  'bank-lines-open': { words: 'bank accounts with lines to match', href: '/bank' },
 }
 
 /** "and 4 more overdue invoices" lines, in the order of the kinds' urgency. */

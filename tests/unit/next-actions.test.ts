@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import {
-  KIND_URGENCY, MAX_WAIT_BONUS, cisReturnAction, dayNoSetAction, daysWaited, enquiryAction, invoiceOverdueAction,
+  KIND_URGENCY, MAX_WAIT_BONUS, bankLinesAction, cisReturnAction, dayNoSetAction, daysWaited, enquiryAction, invoiceOverdueAction,
   onceEach, promiseOverOverdue, setupActions, sortActions, urgencyOf, vatReturnAction, waitingWords, type NextAction,
 } from '../../shared/utils/next-actions'
 import { vatQuarter, cisTaxMonth } from '../../shared/utils/periods'
@@ -70,6 +70,14 @@ describe('the words of each action', () => {
   it('an overdue invoice: chase it, with the reference, what is left and how late', () => {
     expect(invoiceOverdueAction({ id: 'i1', reference: 'BP-12', customer: 'Wren Ashdown', dueOn: '2026-11-26', outstandingPence: 740_90 }, '2026-12-05'))
       .toMatchObject({ key: 'invoice-overdue:i1', title: 'Chase Wren Ashdown for BP-12', detail: 'BP-12 · £740.90 · 9 days overdue', href: '/invoices/i1', actionLabel: 'Chase', since: '2026-11-26' })
+  })
+
+  it.each([
+    ['many lines: counted, from the oldest', { accountId: 'a1', account: 'Business current account', open: 1234, oldest: '2026-11-03' }, 'Match 1,234 lines of the bank statement', 'Business current account · the oldest from 3 Nov 2026'],
+    ['one line', { accountId: 'a1', account: 'Card account', open: 1, oldest: '2026-12-01' }, 'Match a line of the bank statement', 'Card account · from 1 Dec 2026'],
+  ])('bank lines to match, %s', (_what, r, title, detail) => {
+    const a = bankLinesAction(r, '2026-12-05')
+    expect([a.title, a.detail, a.href, a.since, a.urgency]).toEqual([title, detail, '/bank', r.oldest, KIND_URGENCY['bank-lines-open'] + Math.min(MAX_WAIT_BONUS, Math.round((Date.parse('2026-12-05') - Date.parse(r.oldest)) / 86_400_000))])
   })
 
   it('a day with no set logged is one action per job and day, with its people', () => {
