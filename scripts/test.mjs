@@ -40,7 +40,8 @@ try {
   await migrate(p)
   const storageDir = join(p.dataDir, 'uploads')
   rmSync(storageDir, { recursive: true, force: true })
-  run(bin('tsx'), ['seeds/index.ts'], { env: { ...process.env, NUXT_DATABASE_OWNER_URL: urls(p).owner, NUXT_STORAGE_DIR: storageDir } })
+  // the demo's bank statement beside the test cluster, not over the one seeds/out/ keeps for npm start's database
+  run(bin('tsx'), ['seeds/index.ts'], { env: { ...process.env, NUXT_DATABASE_OWNER_URL: urls(p).owner, NUXT_STORAGE_DIR: storageDir, SETWELL_DEMO_STATEMENT_PATH: join(p.dataDir, 'brackenridge-statement.csv') } })
 
   if (!flag('--no-checks')) {
     console.log('[test] lint')

@@ -13,6 +13,8 @@ import { seedVisit } from './visit'
 import { seedJob } from './job'
 import { seedInvoices } from './invoices'
 import { seedQuarter } from './quarter'
+import { RECENT_INVOICES, seedRecent } from './recent'
+import { DEMO_BANK_ACCOUNT, DEMO_STATEMENT_PATH, writeDemoStatement } from './statement'
 import { DEFAULT_MATERIALS, defaultMaterialRow } from '../shared/utils/materials'
 import { addDefaultsToEveryFirm } from '../server/db/firm-defaults'
 
@@ -81,12 +83,18 @@ async function seedDemo(db: NodePgDatabase<typeof schema>) {
     // last quarter first, so job and invoice numbers follow the dates
     const quarter = await seedQuarter(tx, { firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, people: { ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew! }, pribbleworth: pribbleworth.id })
     const job = await seedJob(tx, { firmId, customerId: millbeck.id, siteId: millbeck.sites[1]!, ownerId: userIds.owner!, officeId: userIds.office!, crewId: userIds.crew!, number: quarter.jobs + 1 })
+    // numbered as they were issued: the builder's overdue invoice, the last six weeks' (seeds/recent.ts), then the deposit
+    const overdueNumber = quarter.invoices + 1
     await seedInvoices(tx, {
-      firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!, firstNumber: quarter.invoices + 1,
+      firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!, firstNumber: overdueNumber, depositNumber: overdueNumber + RECENT_INVOICES.length + 1,
       job: { id: job.jobId, reference: jobReference(firmLetters(DEMO_FIRM.tradingName), quarter.jobs + 1), customerId: millbeck.id, siteId: millbeck.sites[1]!, labourNetPence: job.labourNetPence, materialsNetPence: job.materialsNetPence },
       builder: { id: pribbleworth.id, siteId: pribbleworth.sites[0]! },
     })
+    await seedRecent(tx, { firmId, prefix: DEMO_FIRM.invoicePrefix, termsDays: DEMO_FIRM.paymentTermsDays, officeId: userIds.office!, firstNumber: overdueNumber + 1 })
+    // its bank account, empty: the statement the seed writes (seeds/statement.ts) is there to import
+    await tx.insert(schema.bankAccounts).values({ firmId, name: DEMO_BANK_ACCOUNT })
 
+    // the second firm has no invoices, payments or purchases: no bank account or statement to import
     const secondId = randomUUID()
     const { owner: _o, ...second } = SECOND_FIRM
     await tx.execute(sql`select set_config('app.firm_id', ${secondId}, true)`)
@@ -105,4 +113,13 @@ if (isMain) {
   }
   const result = await seed(url)
   console.log(result === 'seeded' ? '[seed] demo firm created' : '[seed] demo firm already there')
+  // the demo firm's bank statement, from what the seed wrote (the same file for the same database,
+  // whenever it is written); the test run writes its own elsewhere (SETWELL_DEMO_STATEMENT_PATH)
+  try {
+    const written = await writeDemoStatement(url, process.env.SETWELL_DEMO_STATEMENT_PATH || DEMO_STATEMENT_PATH)
+    console.log(`[seed] the demo firm's bank statement (${written.lines} lines) to import into "${DEMO_BANK_ACCOUNT}": ${written.path}`)
+  }
+  catch (err) {
+    console.log(`[seed] no demo bank statement written: ${(err as Error).message}`)
+  }
 }

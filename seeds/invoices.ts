@@ -9,7 +9,8 @@ import { invoiceReference } from '../shared/utils/references'
 import { invoiceTotals } from '../shared/utils/tax'
 import type { Tx } from './visit'
 
-const day = (offset: number) => {
+/** The day `offset` days from today (UTC), as the demo's invoices are dated. */
+export const day = (offset: number) => {
   const d = new Date()
   d.setUTCDate(d.getUTCDate() + offset)
   return d.toISOString().slice(0, 10)
@@ -17,7 +18,8 @@ const day = (offset: number) => {
 
 type Line = { kind: 'labour' | 'materials', description: string, quantityX1000: number, unit: string, unitPence: number, vatRatePercent: number }
 
-async function invoice(tx: Tx, o: { firmId: string, number: number, prefix: string, kind: 'deposit' | 'blank', customerId: string, siteId: string | null, jobId: string | null, vat: 'standard' | 'reverse-charge', cis: 20 | null, issued: number, termsDays: number, lines: Line[], by: string }) {
+/** An issued invoice with its lines, dated `issued` days from today. */
+export async function invoice(tx: Tx, o: { firmId: string, number: number, prefix: string, kind: 'deposit' | 'blank', customerId: string, siteId: string | null, jobId: string | null, vat: 'standard' | 'reverse-charge', cis: 20 | null, issued: number, termsDays: number, lines: Line[], by: string }) {
   const totals = invoiceTotals(o.lines.map(l => ({ kind: l.kind, quantity: l.quantityX1000 / 1000, unitPence: l.unitPence, vatRatePercent: l.vatRatePercent as 0 | 5 | 20 })), { vat: o.vat, cisRatePercent: o.cis })
   const id = randomUUID()
   await tx.insert(schema.invoices).values({
@@ -29,9 +31,9 @@ async function invoice(tx: Tx, o: { firmId: string, number: number, prefix: stri
   return { id, totals }
 }
 
-export async function seedInvoices(tx: Tx, o: { firmId: string, prefix: string, termsDays: number, officeId: string, firstNumber?: number, job: { id: string, reference: string, customerId: string, siteId: string, labourNetPence: number, materialsNetPence: number }, builder: { id: string, siteId: string } }) {
+export async function seedInvoices(tx: Tx, o: { firmId: string, prefix: string, termsDays: number, officeId: string, firstNumber?: number, depositNumber?: number, job: { id: string, reference: string, customerId: string, siteId: string, labourNetPence: number, materialsNetPence: number }, builder: { id: string, siteId: string } }) {
   const deposit = await invoice(tx, {
-    firmId: o.firmId, number: (o.firstNumber ?? 1) + 1, prefix: o.prefix, kind: 'deposit', customerId: o.job.customerId, siteId: o.job.siteId, jobId: o.job.id, vat: 'standard', cis: null,
+    firmId: o.firmId, number: o.depositNumber ?? (o.firstNumber ?? 1) + 1, prefix: o.prefix, kind: 'deposit', customerId: o.job.customerId, siteId: o.job.siteId, jobId: o.job.id, vat: 'standard', cis: null,
     issued: -7, termsDays: 7, by: o.officeId,
     lines: partLines('deposit', { reference: o.job.reference, labourNetPence: o.job.labourNetPence, materialsNetPence: o.job.materialsNetPence }, { percent: 25 }),
   })

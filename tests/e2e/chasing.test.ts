@@ -19,7 +19,7 @@ describe('chasing what is owed', () => {
     await visit(page, `${e2e.url}/owed`)
     const builder = page.getByTestId('owed-customers').locator('li.card', { hasText: 'Pribbleworth Scarnholme Builds Ltd' })
     await expectVisible(builder)
-    // the builder's overdue invoice (the demo's only one owing from them)
+    // the builder's overdue invoice (the older of the two they owe: the list is by due date)
     await builder.getByRole('link', { name: /BP-\d+/ }).first().click()
     await page.waitForURL(u => /^\/invoices\/[0-9a-f-]{36}$/.test(u.pathname))
     await expectText(page.getByTestId('invoice-status'), 'Overdue')
