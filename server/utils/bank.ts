@@ -81,7 +81,7 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
     .where(f.where(bankLines, eq(bankLines.accountId, accountId), eq(bankLines.state, state)))
     .orderBy(desc(bankLines.postedOn), desc(bankLines.id)).limit(state === 'open' ? MATCH_ALL : limit)
   const shown = lines.slice(0, limit)
-  const none = { invoices: {}, purchases: {}, refunds: {} }
+  const none = { invoices: {}, purchases: {}, refunds: {}, recorded: {} }
   if (state === 'matched') {
     const matches = await matchesOf(f, shown.map(l => l.id))
     return { lines: shown.map(l => ({ ...l, proposal: null, matches: matches.get(l.id) ?? [] })), ...none }
@@ -113,17 +113,32 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
         .innerJoin(invoices, and(eq(invoices.firmId, payments.firmId), eq(invoices.id, payments.invoiceId)))
         .where(f.where(payments, lt(payments.amountPence, 0), gte(payments.receivedOn, from), lte(payments.receivedOn, to), unmatched(sql`m.payment_id = ${payments.id}`)))
     : []
-  const moneyIn = new Map(proposeAll(lines.filter(l => l.amountPence > 0), open.map(i => ({ ...i, reference: i.reference ?? '' }))).map(p => [p.lineId, p]))
+  const ins = lines.filter(l => l.amountPence > 0).map(l => l.date).sort()
+  // payments typed in by hand around the lines of money in and not matched yet: a line that is one of them records nothing more
+  const recorded = ins.length
+    ? await f.tx.select({
+        id: payments.id, reference: sql<string>`coalesce(${invoices.reference}, '')`, customerName: customers.name, typed: payments.reference,
+        receivedOn: payments.receivedOn, amountPence: payments.amountPence,
+      }).from(payments)
+        .innerJoin(invoices, and(eq(invoices.firmId, payments.firmId), eq(invoices.id, payments.invoiceId)))
+        .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
+        .where(f.where(payments, sql`${payments.amountPence} > 0`, inArray(payments.method, ['transfer', 'cheque']),
+          gte(payments.receivedOn, addDays(ins[0]!, -PURCHASE_DAYS)), lte(payments.receivedOn, addDays(ins.at(-1)!, PURCHASE_DAYS)),
+          unmatched(sql`m.payment_id = ${payments.id}`)))
+    : []
+  const moneyIn = new Map(proposeAll(lines.filter(l => l.amountPence > 0), open.map(i => ({ ...i, reference: i.reference ?? '' })), recorded).map(p => [p.lineId, p]))
   const withProposals = shown.map(l => ({ ...l, proposal: l.amountPence > 0 ? moneyIn.get(l.id) ?? null : proposeMoneyOut(l, near, refunds), matches: [] }))
   // what the shown proposals name, for the page to show them by reference and name
   const invoiceIds = new Set(withProposals.flatMap(l => l.proposal && 'parts' in l.proposal ? [...l.proposal.parts.map(p => p.invoiceId), ...l.proposal.alternatives] : []))
   const purchaseIds = new Set(withProposals.flatMap(l => l.proposal && 'match' in l.proposal ? [...(l.proposal.match.kind === 'purchase' ? [l.proposal.match.purchaseId] : []), ...l.proposal.alternatives] : []))
   const refundIds = new Set(withProposals.flatMap(l => l.proposal && 'match' in l.proposal && l.proposal.match.kind === 'refund' ? [l.proposal.match.refundId] : []))
+  const recordedIds = new Set(withProposals.flatMap(l => l.proposal && 'recordedPaymentId' in l.proposal && l.proposal.recordedPaymentId ? [l.proposal.recordedPaymentId] : []))
   return {
     lines: withProposals,
     invoices: Object.fromEntries(open.filter(i => invoiceIds.has(i.id)).map(i => [i.id, { reference: i.reference ?? '', customerName: i.customerName, outstandingPence: i.outstandingPence, dueOn: i.dueOn }])),
     purchases: Object.fromEntries(near.filter(p => purchaseIds.has(p.id)).map(p => [p.id, { supplier: p.supplier, boughtOn: p.boughtOn, grossPence: p.grossPence }])),
     refunds: Object.fromEntries(refunds.filter(r => refundIds.has(r.id)).map(r => [r.id, { reference: r.reference, refundedOn: r.refundedOn, amountPence: r.amountPence }])),
+    recorded: Object.fromEntries(recorded.filter(r => recordedIds.has(r.id)).map(r => [r.id, { reference: r.reference, customerName: r.customerName, receivedOn: r.receivedOn, amountPence: r.amountPence }])),
   }
 }
 
@@ -157,6 +172,7 @@ export async function lineCounts(f: FirmScope, accountId: string) {
 export type LineChoice
   = | { kind: 'payment', parts: { invoiceId: string, amountPence: number }[] }
     | { kind: 'refund', paymentId: string }
+    | { kind: 'recorded', paymentId: string }
     | { kind: 'purchase', purchaseId: string }
     | { kind: 'new-purchase', supplier: string, category: (typeof PURCHASE_CATEGORIES)[number] }
     | { kind: 'payout' }
@@ -194,7 +210,7 @@ export async function confirmSure(f: FirmScope, accountId: string, lineIds: stri
     if (!wanted.has(l.id) || l.proposal?.certainty !== 'sure') continue
     const p = l.proposal
     const choice: LineChoice = 'parts' in p
-      ? (p.payout ? { kind: 'payout' } : { kind: 'payment', parts: p.parts })
+      ? (p.payout ? { kind: 'payout' } : p.recordedPaymentId ? { kind: 'recorded', paymentId: p.recordedPaymentId } : { kind: 'payment', parts: p.parts })
       : p.match.kind === 'purchase' ? { kind: 'purchase', purchaseId: p.match.purchaseId } : p.match.kind === 'refund' ? { kind: 'refund', paymentId: p.match.refundId } : null!
     if (!choice) continue
     await confirmLine(f, l.id, choice, { certainty: p.certainty, reasons: p.reasons })
@@ -217,7 +233,7 @@ export async function confirmLine(f: FirmScope, lineId: string, choice: LineChoi
   if (line.state === 'matched') throw conflict('This line is already matched: undo that first to match it again.', 'Already matched')
   if (line.state === 'ignored') throw conflict('This line was set aside: bring it back to the open lines first.', 'Set aside')
   const incoming = line.amountPence > 0
-  if ((choice.kind === 'payment' || choice.kind === 'payout') !== incoming) {
+  if ((choice.kind === 'payment' || choice.kind === 'payout' || choice.kind === 'recorded') !== incoming) {
     throw fieldError({ kind: incoming ? 'Money came in on this line: match it to invoices, or to a Stripe payout.' : 'Money went out on this line: match it to a purchase or a refund.' })
   }
   const match = { lineId, certainty: why.certainty ?? 'chosen', reasons: why.reasons ?? [], confirmedBy: f.userId }
@@ -239,10 +255,11 @@ export async function confirmLine(f: FirmScope, lineId: string, choice: LineChoi
       await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'payment', invoiceId: part.invoiceId, paymentId: payment.id, made: true, amountPence: part.amountPence }))
     }
   }
-  else if (choice.kind === 'refund') {
-    const [refund] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.id, choice.paymentId), lt(payments.amountPence, 0))).for('update')
+  else if (choice.kind === 'refund' || choice.kind === 'recorded') {
+    // a refund recorded (money out), or a payment typed in by hand (money in): the line is that payment, and records nothing more
+    const [refund] = await f.tx.select().from(payments).where(f.where(payments, eq(payments.id, choice.paymentId), choice.kind === 'refund' ? lt(payments.amountPence, 0) : sql`${payments.amountPence} > 0`)).for('update')
     if (!refund) notFound()
-    await notMatchedYet(f, eq(bankMatches.paymentId, refund.id), 'That refund is already matched to another line of the statement.')
+    await notMatchedYet(f, eq(bankMatches.paymentId, refund.id), `That ${choice.kind === 'refund' ? 'refund' : 'payment'} is already matched to another line of the statement.`)
     await f.tx.insert(bankMatches).values(f.values({ ...match, kind: 'payment', invoiceId: refund.invoiceId, paymentId: refund.id, made: false, amountPence: line.amountPence }))
   }
   else if (choice.kind === 'purchase') {

@@ -34,6 +34,7 @@ export const bankMatchSchema = z.discriminatedUnion('kind', [
       .refine(parts => new Set(parts.map(p => p.invoiceId)).size === parts.length, { error: 'Each invoice once.' }),
   }),
   z.object({ kind: z.literal('refund'), paymentId: z.uuid({ error: 'Choose the refund.' }) }),
+  z.object({ kind: z.literal('recorded'), paymentId: z.uuid({ error: 'Choose the payment.' }) }),
   z.object({ kind: z.literal('purchase'), purchaseId: z.uuid({ error: 'Choose the purchase.' }) }),
   z.object({
     kind: z.literal('new-purchase'),

@@ -35,7 +35,22 @@ export interface Proposal {
   alternatives: string[]
   /** A Stripe payout: its card payments were recorded as each was paid, so it settles nothing more. */
   payout?: true
+  /** A payment already recorded by hand that this line is: it settles nothing more. */
+  recordedPaymentId?: string
 }
+
+/** A payment of money in already recorded by hand (a transfer or cheque typed in before the statement came). */
+export interface RecordedPayment {
+  id: string
+  /** The invoice's reference. */
+  reference: string
+  customerName: string
+  /** What was typed as the payment's own reference ("MILLBECK FLAT5 DEP"), often the bank's words. */
+  typed: string
+  receivedOn: string
+  amountPence: number
+}
+const words = (s: string) => ` ${s.toUpperCase().replace(/[^A-Z0-9]+/g, ' ').trim()} `
 
 /** Stripe's name in a line of money in: a payout of card payments already recorded one by one. */
 export const isStripePayout = (line: MoneyInLine) => line.amountPence > 0 && /\bstripe\b/i.test(line.description)
@@ -133,10 +148,17 @@ function subsetAddingUp(invoices: readonly OpenInvoice[], pence: number): OpenIn
  * Proposals for a statement's lines of money in, oldest first: what one line takes is no longer
  * owed when the next is looked at, so two transfers never both settle the same invoice.
  */
-export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInvoice[]): Proposal[] {
+export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInvoice[], recorded: readonly RecordedPayment[] = []): Proposal[] {
   const left = new Map(open.map(i => [i.id, { ...i }]))
+  const unclaimed = new Map(recorded.map(r => [r.id, r]))
   const out: Proposal[] = []
   for (const line of [...lines].sort((a, b) => a.date.localeCompare(b.date) || a.id.localeCompare(b.id))) {
+    const already = isStripePayout(line) ? null : alreadyRecorded(line, [...unclaimed.values()])
+    if (already) {
+      unclaimed.delete(already.recordedPaymentId!)
+      out.push(already)
+      continue
+    }
     const p = proposeMoneyIn(line, [...left.values()].filter(i => i.outstandingPence > 0))
     if (!p) continue
     out.push(p)
@@ -147,6 +169,27 @@ export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInv
     }
   }
   return out
+}
+
+/**
+ * The payment typed in by hand that this line of money in is: the same amount, received within
+ * PURCHASE_DAYS of it (a transfer is often recorded the day the customer says it was sent). Sure
+ * when the description names the invoice or the customer; likely otherwise. Confirming it records
+ * nothing more, so the money is never counted twice.
+ */
+export function alreadyRecorded(line: MoneyInLine, recorded: readonly RecordedPayment[]): Proposal | null {
+  if (line.amountPence <= 0) return null
+  const near = recorded.filter(r => r.amountPence === line.amountPence && daysApart(r.receivedOn, line.date) <= PURCHASE_DAYS)
+    .sort((a, b) => daysApart(a.receivedOn, line.date) - daysApart(b.receivedOn, line.date))
+  const keys = keysInDescription(line.description)
+  const named = near.filter(r => keys.has(referenceKey(r.reference) ?? '') || nameInDescription(r.customerName, line.description)
+    || (words(r.typed).trim().length >= 4 && words(line.description).includes(words(r.typed))))
+  const pick = named[0] ?? (near.length === 1 ? near[0] : undefined)
+  if (!pick) return null
+  return {
+    lineId: line.id, parts: [], alternatives: [], recordedPaymentId: pick.id, certainty: named.length ? 'sure' : 'likely',
+    reasons: [`a payment of ${pounds(pick.amountPence)} on ${pick.reference} was recorded by hand already: nothing more is recorded`, ...(named.length ? ['its reference or the customer in the description'] : ['no other recorded payment is that amount'])],
+  }
 }
 
 /** A purchase the firm recorded (what it bought, from whom, when, for how much with VAT). */

@@ -212,6 +212,22 @@ describe('confirming and undoing', () => {
     expect(await sql('select id from purchases where firm_id = $1 and id = $2', [firmId, p!.id])).toHaveLength(1)
   })
 
+  it('takes a transfer already typed in by hand as that payment, recording nothing more, and undo leaves it', async () => {
+    const inv = await invoice(951, 27363)
+    const typed = await owner.post(`/api/invoices/${inv}/payments`, { method: 'transfer', amountPence: 27363, receivedOn: '2026-12-16', reference: 'FARRANT KITCHEN', requestId: crypto.randomUUID() })
+    expect([201, 409], JSON.stringify(typed.body)).toContain(typed.status)
+    await sql(`insert into payments (firm_id, invoice_id, method, amount_pence, received_on, reference) select $1, $2, 'transfer', 27363, '2026-12-16', 'FARRANT KITCHEN' where not exists (select 1 from payments where firm_id = $1 and invoice_id = $2)`, [firmId, inv])
+    await upload(owner, accountId, 'Date,Description,Amount\n17/12/2026,FP FARRANT KITCHEN,273.63')
+    const line = byDesc(await lines(), 'FP FARRANT KITCHEN')
+    expect(line.proposal).toMatchObject({ certainty: 'sure', parts: [] })
+    const paymentId = line.proposal.recordedPaymentId
+    expect((await owner.post(`/api/bank-accounts/${accountId}/confirmations`, { lineIds: [line.id] })).body).toMatchObject({ confirmed: 1 })
+    expect(await paidOn(inv)).toEqual({ n: 27363, owing: false })
+    expect(byDesc(await lines('matched'), 'FP FARRANT KITCHEN').matches).toMatchObject([{ kind: 'payment', made: false, reference: 'SY-0951' }])
+    expect((await owner.delete(`/api/bank-lines/${line.id}/match`)).status).toBe(200)
+    expect(await sql('select id from payments where firm_id = $1 and id = $2', [firmId, paymentId])).toHaveLength(1)
+  })
+
   it('keeps a note on a line left for later, sets one aside, and keeps the accountant, crew and other firms out of every change', async () => {
     await upload(owner, accountId, 'Date,Description,Amount\n15/12/2026,TFR FROM SAVINGS,2000.00')
     const line = byDesc(await lines(), 'TFR FROM SAVINGS')

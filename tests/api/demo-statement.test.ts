@@ -96,9 +96,13 @@ describe('the demo firm\'s bank statement', () => {
     const fuel = statement.lines.find(l => l.is.kind === 'no-purchase')!
     expect(proposalOf(fuel)).toMatchObject({ match: { kind: 'new-purchase', supplier: 'HOBBLECOTE FUEL STOP' } })
 
-    // TODO(issue 20, Stripe payouts in shared/utils/bank-match.ts, another engineer's): once payouts
-    // are recognised, check the STRIPE PAYMENTS UK PAYOUT line is proposed as the payout of its card
-    // payments (statement.lines' `is.paymentIds`) and against no invoice. Not asserted until then.
-    expect(statement.lines.filter(l => l.is.kind === 'stripe-payout')).toHaveLength(1)
+    // the deposit's transfer, typed in by hand when it came: that payment, recording nothing more
+    const typed = statement.lines.find(l => l.is.kind === 'recorded-transfer')!
+    expect(proposalOf(typed)).toMatchObject({ certainty: 'sure', parts: [], recordedPaymentId: typed.is.kind === 'recorded-transfer' ? typed.is.paymentId : '' })
+
+    // the Stripe payout: its card payments were recorded one by one, so it settles no invoice
+    const payouts = statement.lines.filter(l => l.is.kind === 'stripe-payout')
+    expect(payouts).toHaveLength(1)
+    expect(proposalOf(payouts[0]!)).toMatchObject({ certainty: 'sure', payout: true, parts: [] })
   })
 })

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { keysInDescription, nameInDescription, proposeAll, proposeMoneyIn, proposeMoneyOut, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
+import { alreadyRecorded, keysInDescription, nameInDescription, proposeAll, proposeMoneyIn, proposeMoneyOut, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
 
 // Statement lines against the firm's unsettled invoices, worked by hand. Invented customers and
 // references. The rules are our own ("common practice" for how transfers are referenced); the
@@ -76,6 +76,22 @@ describe('proposeAll: two transfers never settle the same invoice', () => {
   it('leaves the invoice to the transfer that pays it when a Stripe payout of the same amount came first', () => {
     const got = proposeAll([{ ...line('STRIPE PAYOUT', 120000, 'l1'), date: '2026-12-01' }, line('FP MILLBECK LETTINGS', 120000, 'l2')], OPEN)
     expect(got.map(p => [p.lineId, p.payout ?? false, p.parts])).toEqual([['l1', true, []], ['l2', false, [{ invoiceId: 'i07', amountPence: 120000 }]]])
+  })
+  // a transfer the partner typed in by hand before the statement came is that payment, not a second
+  // one (common practice: record once, reconcile against the bank)
+  const RECORDED = [{ id: 'r1', reference: 'BRP-0030', customerName: 'Millbeck Lettings', typed: 'MILLBECK FLAT5 DEP', receivedOn: '2026-12-02', amountPence: 27363 }]
+  it.each([
+    ['the same amount two days later, naming the customer: sure, records nothing', line('FP MILLBECK FLAT5 DEP', 27363), 'sure'],
+    ['the same amount, no name: likely', line('FASTER PAYMENT', 27363), 'likely'],
+    ['the same amount, the invoice\'s reference: sure', line('FP BRP 30', 27363), 'sure'],
+    ['the same amount ten days later: not that payment', { ...line('FP MILLBECK', 27363), date: '2026-12-12' }, null],
+    ['another amount: not that payment', line('FP MILLBECK', 27300), null],
+  ] as const)('a payment recorded by hand: %s', (_what, l, want) => {
+    expect(alreadyRecorded(l, RECORDED)?.certainty ?? null).toBe(want)
+  })
+  it('gives a line already recorded by hand no invoice, even one it would fit, and the next line of that amount the invoice', () => {
+    const got = proposeAll([line('FP MILLBECK LETTINGS', 120000, 'l1'), { ...line('FP MILLBECK LETTINGS', 120000, 'l2'), date: '2026-12-05' }], OPEN, [{ ...RECORDED[0]!, amountPence: 120000 }])
+    expect(got.map(p => [p.lineId, p.recordedPaymentId ?? null, p.parts.map(x => x.invoiceId)])).toEqual([['l1', 'r1', []], ['l2', null, ['i07']]])
   })
   it('takes two part payments of one invoice in date order', () => {
     const got = proposeAll([{ ...line('BRP 26', 70000, 'l2'), date: '2026-12-05' }, line('BRP 26', 50000, 'l1')], OPEN)

@@ -130,6 +130,8 @@ describe('the demo statement, matched as the import proposes', () => {
     expect(proposeMoneyOut(fuel, purchases)).toMatchObject({ match: { kind: 'new-purchase', supplier: 'HOBBLECOTE FUEL STOP', grossPence: 68_40 } })
   })
 
-  // TODO(issue 20, Stripe payouts in shared/utils/bank-match.ts): once payouts are recognised,
-  // check the STRIPE PAYMENTS UK PAYOUT line is proposed as the payout of its card payments.
+  it('the Stripe payout settles no invoice: its card payments were recorded as they were paid', () => {
+    const payout = lines.find(l => l.is.kind === 'stripe-payout')!
+    expect(proposals.get(payout.id)).toMatchObject({ certainty: 'sure', payout: true, parts: [] })
+  })
 })
