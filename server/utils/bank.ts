@@ -204,6 +204,10 @@ async function lockAccount(f: FirmScope, accountId: string) {
 export async function confirmSure(f: FirmScope, accountId: string, lineIds: string[]) {
   await lockAccount(f, accountId)
   const wanted = new Set(lineIds)
+  // every line named is this account's (another firm's or account's id is a 404, with nothing done)
+  const [{ n }] = await f.tx.select({ n: sql<number>`count(*)::int` }).from(bankLines)
+    .where(f.where(bankLines, eq(bankLines.accountId, accountId), inArray(bankLines.id, [...wanted]))) as [{ n: number }]
+  if (n !== wanted.size) notFound()
   const open = await linesWithProposals(f, accountId, 'open', MATCH_ALL)
   let confirmed = 0
   for (const l of open.lines) {
@@ -216,8 +220,8 @@ export async function confirmSure(f: FirmScope, accountId: string, lineIds: stri
     await confirmLine(f, l.id, choice, { certainty: p.certainty, reasons: p.reasons })
     confirmed++
   }
-  await f.audit('bank.sure-confirmed', 'bank-account', accountId, { asked: lineIds.length, confirmed })
-  return { confirmed, left: lineIds.length - confirmed }
+  if (confirmed) await f.audit('bank.sure-confirmed', 'bank-account', accountId, { asked: wanted.size, confirmed })
+  return { confirmed, left: wanted.size - confirmed }
 }
 
 /**
