@@ -24,6 +24,11 @@
 //    requests a firm makes in a working day (plasterer, office, accountant) sent as one mix at
 //    rising rates until p95 passes 300 ms; the sustainable rate in firms per 2-core server.
 //    `npm run bench -- --only=firm-day` runs the seed and this section alone.
+// 10. A year's bank statement of the busy firm (scripts/bench/bank.ts): about 5,000 lines paying its
+//    owing invoices (by reference, by amount, CIS net or gross), card purchases and noise, uploaded
+//    as the owner, then the proposals (the newest 200 lines, and the whole year), then the same file
+//    again; the time and the server's memory growth of each. Last, as it adds rows to the busy firm.
+//    `npm run bench -- --only=bank` runs the seed and this section alone.
 //
 // Budgets are printed beside each figure, met or missed; missing one is reported, not hidden, and
 // does not fail the command (it is a measurement, not a test).
@@ -39,6 +44,7 @@ import { chromium } from 'playwright-core'
 import { planSets, setLowerBound, type PlanCorner, type PlanSurface } from '../shared/utils/set-plan'
 import { randomJob, seeded } from '../tests/support/plan-rooms'
 import { DEMO_PEOPLE } from '../seeds/demo'
+import { bankStatement } from './bench/bank'
 import { firmDay } from './bench/firm-day'
 import { lighthouseRows } from './bench/lighthouse'
 
@@ -50,9 +56,10 @@ const SIZE = {
   customers: 20_000, jobs: 50_000, invoices: 100_000, linesPerInvoice: 3, payments: 150_000, setLogs: 400_000,
 }
 const SECONDS = Number(process.env.SETWELL_BENCH_SECONDS ?? 5)
-// `npm run bench -- --only=firm-day` or `--only=lighthouse` (or SETWELL_BENCH_ONLY=…): the seed, then that section alone
+// `npm run bench -- --only=firm-day`, `--only=lighthouse` or `--only=bank` (or SETWELL_BENCH_ONLY=…): the seed, then that section alone
+const ALONE = ['firm-day', 'lighthouse', 'bank']
 const only = process.env.SETWELL_BENCH_ONLY ?? process.argv.find(a => a.startsWith('--only='))?.slice('--only='.length)
-if (only && only !== 'firm-day' && only !== 'lighthouse') throw new Error(`--only=${only}: the sections that run alone are: firm-day, lighthouse`)
+if (only && !ALONE.includes(only)) throw new Error(`--only=${only}: the sections that run alone are: ${ALONE.join(', ')}`)
 
 /**
  * Each list's requests a second at 32 connections as a share of the trivial route's, in the run
@@ -322,10 +329,12 @@ async function main() {
     const [job] = await ownerQuery<{ id: string }>('select id from jobs where number = 1500', [], demoId)
     for (const r of await lighthouseRows(url, cookie, [{ name: 'sign-in', path: '/sign-in', signedIn: false }, { name: 'Today', path: '/', signedIn: true }, { name: 'invoice list', path: '/invoices', signedIn: true }, { name: 'a job', path: `/jobs/${job!.id}`, signedIn: true }])) add(r)
   }
-  // 9: a firm's day, the mixed load of many firms (scripts/bench/firm-day.ts); last, as it adds firms and writes
+  // 9: a firm's day, the mixed load of many firms (scripts/bench/firm-day.ts); near the end, as it adds firms and writes
   const day = () => firmDay({ url, superuserUrl: env.urls(p).superuser.replace(/\/postgres$/, `/${env.DB_NAME}`), busyFirmId: demoId, add })
-  if (only === 'firm-day' || only === 'lighthouse') {
-    await (only === 'firm-day' ? day() : phoneRows())
+  // 10: a year's bank statement imported and matched (scripts/bench/bank.ts); after the firm's day, as it adds to the busy firm
+  const bank = () => bankStatement({ url, cookie, ownerUrl: env.urls(p).owner, busyFirmId: demoId, serverPid: server!.pid!, add })
+  if (only) {
+    await ({ 'firm-day': day, 'lighthouse': phoneRows, 'bank': bank } as Record<string, () => Promise<void>>)[only]!()
     return writeReport(started)
   }
   const [invoice] = await ownerQuery<{ id: string }>('select id from invoices where number = 1500 and series = \'invoice\'', [], demoId)
@@ -493,6 +502,7 @@ async function main() {
 
   await phoneRows()
   await day()
+  await bank()
   writeReport(started)
 }
 

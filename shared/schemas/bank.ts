@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { text } from './common'
+import { queryWholeNumber, text } from './common'
 import { PURCHASE_CATEGORIES } from './purchase'
 
 /** A bank account of the firm, by the name the firm knows it by ("Business current account"). */
@@ -21,8 +21,11 @@ export const bankLayoutSchema = z.object({
   }).refine(m => m.amount !== undefined || m.paidIn !== undefined || m.paidOut !== undefined, { message: 'Choose the amount column, or the paid-in and paid-out columns.', path: ['amount'] }),
 })
 
-/** GET /api/bank-accounts/:id/lines: which lines (the open ones by default). */
-export const bankLinesQuery = z.object({ state: z.enum(['open', 'matched', 'ignored']).default('open') })
+/** GET /api/bank-accounts/:id/lines: which lines (the open ones by default), and how many of the newest (200; a year of a busy firm's lines at most). */
+export const bankLinesQuery = z.object({
+  state: z.enum(['open', 'matched', 'ignored']).default('open'),
+  limit: queryWholeNumber('limit', 1, 5000, 200),
+})
 
 const money = z.int({ error: 'Enter the amount in pounds and pence.' }).min(1, { error: 'Enter an amount above nothing.' }).max(1_000_000_00)
 /** POST /api/bank-lines/:id/match: what the line is (server/utils/bank.ts confirmLine). */

@@ -190,7 +190,7 @@ const FROM = `${TODAY.slice(0, 4)}-01-01`
 const PERIODS = [{ quarterOf: TODAY }, { from: FROM, to: TODAY }]
 const GOOD_QUERIES: Record<string, (f: Firm) => Record<string, string>[]> = {
   'GET /api/audit': () => [{ limit: '100' }],
-  'GET /api/bank-accounts/:id/lines': () => [{ state: 'open' }, { state: 'matched' }],
+  'GET /api/bank-accounts/:id/lines': () => [{ state: 'open', limit: '200' }, { state: 'matched' }],
   'GET /api/cis-deductions': () => PERIODS,
   'GET /api/cis-statements': f => [{ from: FROM, to: TODAY, customerId: f.ids.contractorId! }],
   'GET /api/customers': () => [{ q: 'wren', page: '1', pageSize: '25', sort: 'name' }, { q: '', cis: 'yes' }],
