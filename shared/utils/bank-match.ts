@@ -68,23 +68,45 @@ export function keysInDescription(description: string): Set<string> {
   return keys
 }
 
+/** The words of a name that must all be in a description: three letters or more, "Ltd" and the like left out. */
+const nameWords = (name: string) => name.toUpperCase().split(/[^A-Z0-9]+/).filter(w => w.length >= 3 && !['LTD', 'LIMITED', 'PLC', 'THE', 'AND', 'LLP'].includes(w))
+
 /** A name's words in the description (every word of three letters or more, "Ltd" and the like left out). */
-export function nameInDescription(name: string, description: string): boolean {
-  const words = name.toUpperCase().split(/[^A-Z0-9]+/).filter(w => w.length >= 3 && !['LTD', 'LIMITED', 'PLC', 'THE', 'AND', 'LLP'].includes(w))
+export function nameInDescription(name: string, description: string, words = nameWords(name)): boolean {
   if (!words.length) return false
   const text = ` ${description.toUpperCase().replace(/[^A-Z0-9]+/g, ' ')} `
   return words.every(w => text.includes(` ${w} `))
 }
 
+/**
+ * Each invoice's reference key and name words worked out once for a whole statement, not once per
+ * line (a year's statement against a busy firm's owing invoices: the bench's bank section).
+ */
+export interface MatchMemo { key: (reference: string) => string | null, words: (name: string) => string[] }
+export function matchMemo(): MatchMemo {
+  const keys = new Map<string, string | null>()
+  const words = new Map<string, string[]>()
+  return {
+    key: (r) => {
+      if (!keys.has(r)) keys.set(r, referenceKey(r))
+      return keys.get(r)!
+    },
+    words: (n) => {
+      if (!words.has(n)) words.set(n, nameWords(n))
+      return words.get(n)!
+    },
+  }
+}
+
 const pounds = (p: number) => `£${(p / 100).toFixed(2)}`
 
 /** The proposal for one line of money in, or null when nothing fits. */
-export function proposeMoneyIn(line: MoneyInLine, open: readonly OpenInvoice[]): Proposal | null {
+export function proposeMoneyIn(line: MoneyInLine, open: readonly OpenInvoice[], memo: MatchMemo = matchMemo()): Proposal | null {
   if (line.amountPence <= 0) return null
   const base = { lineId: line.id, alternatives: [] as string[] }
   if (isStripePayout(line)) return { ...base, parts: [], certainty: 'sure', payout: true, reasons: ['a Stripe payout: its card payments were recorded as each was paid, so nothing more is recorded'] }
   const keys = keysInDescription(line.description)
-  const byRef = open.filter(i => keys.has(referenceKey(i.reference) ?? ''))
+  const byRef = open.filter(i => keys.has(memo.key(i.reference) ?? ''))
     .sort((a, b) => (a.dueOn ?? '').localeCompare(b.dueOn ?? ''))
   if (byRef.length) {
     const refs = byRef.map(i => i.reference).join(' and ')
@@ -106,7 +128,7 @@ export function proposeMoneyIn(line: MoneyInLine, open: readonly OpenInvoice[]):
     }
     return { ...base, parts: byRef.map(i => ({ invoiceId: i.id, amountPence: i.outstandingPence })), certainty: 'possible', reasons: [why, `${pounds(line.amountPence - owed)} more than is owed`] }
   }
-  const named = (i: OpenInvoice) => nameInDescription(i.customerName, line.description)
+  const named = (i: OpenInvoice) => nameInDescription(i.customerName, line.description, memo.words(i.customerName))
   const exact = open.filter(i => i.outstandingPence === line.amountPence)
   if (exact.length) {
     const withName = exact.filter(named)
@@ -145,21 +167,27 @@ function subsetAddingUp(invoices: readonly OpenInvoice[], pence: number): OpenIn
 }
 
 /**
- * Proposals for a statement's lines of money in, oldest first: what one line takes is no longer
- * owed when the next is looked at, so two transfers never both settle the same invoice.
+ * Proposals for a statement's lines of money in: what one line takes is no longer owed when the
+ * next is looked at, so two transfers never both settle the same invoice. The lines that name an
+ * owing invoice's reference go first (oldest first), then the rest: a guess on amount and name
+ * never takes the invoice a later line names.
  */
 export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInvoice[], recorded: readonly RecordedPayment[] = []): Proposal[] {
   const left = new Map(open.map(i => [i.id, { ...i }]))
   const unclaimed = new Map(recorded.map(r => [r.id, r]))
+  const memo = matchMemo()
+  const owingKeys = new Set(open.map(i => memo.key(i.reference)).filter(k => k !== null))
+  const byDate = [...lines].sort((a, b) => a.date.localeCompare(b.date) || a.id.localeCompare(b.id))
+  const naming = new Set(byDate.filter(l => [...keysInDescription(l.description)].some(k => owingKeys.has(k))))
   const out: Proposal[] = []
-  for (const line of [...lines].sort((a, b) => a.date.localeCompare(b.date) || a.id.localeCompare(b.id))) {
+  for (const line of [...byDate.filter(l => naming.has(l)), ...byDate.filter(l => !naming.has(l))]) {
     const already = isStripePayout(line) ? null : alreadyRecorded(line, [...unclaimed.values()])
     if (already) {
       unclaimed.delete(already.recordedPaymentId!)
       out.push(already)
       continue
     }
-    const p = proposeMoneyIn(line, [...left.values()].filter(i => i.outstandingPence > 0))
+    const p = proposeMoneyIn(line, [...left.values()].filter(i => i.outstandingPence > 0), memo)
     if (!p) continue
     out.push(p)
     for (const part of p.parts) {

@@ -93,6 +93,11 @@ describe('proposeAll: two transfers never settle the same invoice', () => {
     const got = proposeAll([line('FP MILLBECK LETTINGS', 120000, 'l1'), { ...line('FP MILLBECK LETTINGS', 120000, 'l2'), date: '2026-12-05' }], OPEN, [{ ...RECORDED[0]!, amountPence: 120000 }])
     expect(got.map(p => [p.lineId, p.recordedPaymentId ?? null, p.parts.map(x => x.invoiceId)])).toEqual([['l1', 'r1', []], ['l2', null, ['i07']]])
   })
+  it('lets a later line that names an invoice have it before an earlier guess on amount and name', () => {
+    // i05 and i06 are both owed £250: the earlier line names no reference, the later one names BRP-0024 (i05)
+    const got = proposeAll([line('TRANSFER', 25000, 'l1'), { ...line('FP BRP-24', 25000, 'l2'), date: '2026-12-06' }], OPEN)
+    expect(Object.fromEntries(got.map(p => [p.lineId, p.parts.map(x => x.invoiceId)]))).toEqual({ l2: ['i05'], l1: ['i06'] })
+  })
   it('takes two part payments of one invoice in date order', () => {
     const got = proposeAll([{ ...line('BRP 26', 70000, 'l2'), date: '2026-12-05' }, line('BRP 26', 50000, 'l1')], OPEN)
     expect(got.map(p => [p.lineId, p.certainty, p.parts[0]!.amountPence])).toEqual([['l1', 'sure', 50000], ['l2', 'sure', 70000]])
