@@ -92,6 +92,7 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
     outstandingPence: sql<number>`(${invoices.amountDuePence} - ${invoices.settledPence})::int`,
     cisDeductionPence: sql<number>`coalesce((${invoices.totals}->>'cisDeductionPence')::int, 0)`,
     untouched: sql<boolean>`${invoices.settledPence} = 0`,
+    person: sql<boolean>`${customers.kind} = 'homeowner'`,
   }).from(invoices)
     .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
     .where(owing(f))

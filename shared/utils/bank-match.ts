@@ -21,6 +21,8 @@ export interface OpenInvoice {
   /** Nothing paid or credited yet (the whole before the deduction can then be matched). */
   untouched: boolean
   dueOn: string | null
+  /** The customer is a person (a homeowner), so the last word of the name is a surname. */
+  person?: boolean
 }
 export interface MoneyInLine { id: string, date: string, description: string, amountPence: number }
 export type Certainty = 'sure' | 'likely' | 'possible'
@@ -76,6 +78,13 @@ export function nameInDescription(name: string, description: string, words = nam
   if (!words.length) return false
   const text = ` ${description.toUpperCase().replace(/[^A-Z0-9]+/g, ' ')} `
   return words.every(w => text.includes(` ${w} `))
+}
+
+/** The last word of a person's name (four letters or more) in the description: how a transfer often names its payer. */
+export function surnameInDescription(name: string, description: string, words = nameWords(name)): boolean {
+  const last = words.at(-1)
+  if (!last || last.length < 4 || words.length < 2) return false
+  return ` ${description.toUpperCase().replace(/[^A-Z0-9]+/g, ' ')} `.includes(` ${last} `)
 }
 
 /**
@@ -134,6 +143,13 @@ export function proposeMoneyIn(line: MoneyInLine, open: readonly OpenInvoice[], 
     const withName = exact.filter(named)
     if (withName.length === 1) return { ...base, parts: [{ invoiceId: withName[0]!.id, amountPence: line.amountPence }], certainty: 'sure', reasons: ['amount equal', `${withName[0]!.customerName} in the description`] }
     if (exact.length === 1) return { ...base, parts: [{ invoiceId: exact[0]!.id, amountPence: line.amountPence }], certainty: 'likely', reasons: ['amount equal, and no other invoice is owed that much'] }
+    // a surname alone ("FASTER PAYMENT DUNMORE"): likely the one whose customer it is, the others
+    // owed as much shown beside it; never sure (two customers can share a surname)
+    const bySurname = exact.filter(i => i.person && surnameInDescription(i.customerName, line.description, memo.words(i.customerName)))
+    if (bySurname.length === 1) {
+      const i = bySurname[0]!
+      return { ...base, parts: [{ invoiceId: i.id, amountPence: line.amountPence }], certainty: 'likely', reasons: ['amount equal', `${i.customerName.split(/\s+/).at(-1)} in the description (the surname only): check it`], alternatives: exact.filter(x => x !== i).map(x => x.id) }
+    }
     const pick = (withName.length ? withName : exact).sort((a, b) => (a.dueOn ?? '').localeCompare(b.dueOn ?? ''))
     return { ...base, parts: [{ invoiceId: pick[0]!.id, amountPence: line.amountPence }], certainty: 'possible', reasons: [`amount equal to ${exact.length} invoices: choose which`], alternatives: pick.slice(1).map(i => i.id) }
   }

@@ -54,7 +54,7 @@ describe('the bank statement', () => {
     await expectText(oddRow.getByTestId('bank-line-reasons'), /reference BP-\d+ in the description; amount equal/)
     const ambiguous = statement.lines.find(l => l.is.kind === 'invoices' && l.is.how === 'ambiguous')!
     const ambiguousRow = page.locator(`[data-testid="bank-line"][data-line="${ambiguous.description}"]`)
-    await expectText(ambiguousRow.getByTestId('bank-line-certainty'), 'Not sure')
+    await expectText(ambiguousRow.getByTestId('bank-line-certainty'), 'Likely: check it')
     await expectVisible(ambiguousRow.getByLabel('Which is it?'))
     await screenshot(page, 'bank-statement-proposals')
 

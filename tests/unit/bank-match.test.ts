@@ -13,7 +13,7 @@ const OPEN: OpenInvoice[] = [
   inv('i03', 'BRP-0022', 'Fernhill Homes', 57600),
   inv('i04', 'BRP-0023', 'Fernhill Homes', 31200),
   inv('i05', 'BRP-0024', 'Orchard Row Cafe', 25000),
-  inv('i06', 'BRP-0025', 'Alys Dunmore', 25000),
+  inv('i06', 'BRP-0025', 'Alys Dunmore', 25000, { person: true }),
   inv('i07', 'BRP-0026', 'Millbeck Lettings', 120000),
 ]
 const line = (description: string, amountPence: number, id = 'l1') => ({ id, date: '2026-12-04', description, amountPence })
@@ -46,6 +46,8 @@ describe('proposeMoneyIn', () => {
     ['no reference, amount equal and the name: sure', line('FP MILLBECK LETTINGS', 120000), { certainty: 'sure', parts: [['i07', 120000]] }],
     ['an amount two invoices are owed, no name: possible, never chosen for the partner', line('TRANSFER', 25000), { certainty: 'possible', parts: [['i05', 25000]], reasons: /amount equal to 2 invoices: choose which/ }],
     ['the same amount, with the name deciding: sure', line('DUNMORE ALYS', 25000), { certainty: 'sure', parts: [['i06', 25000]] }],
+    ['the same amount, the surname only: likely, never sure', line('FASTER PAYMENT DUNMORE', 25000), { certainty: 'likely', parts: [['i06', 25000]], reasons: /Dunmore in the description \(the surname only\)/ }],
+    ['a business\'s last word alone is no surname: still choose', line('FASTER PAYMENT CAFE', 25000), { certainty: 'possible', parts: [['i05', 25000]] }],
     ['no reference, two of the named customer\'s invoices add up: likely', line('FERNHILL HOMES', 88800), { certainty: 'likely', parts: [['i03', 57600], ['i04', 31200]] }],
     ['no reference, less than the named customer owes: their oldest first, possible', line('FERNHILL HOMES', 10000), { certainty: 'possible', parts: [['i03', 10000]] }],
     ['nothing fits: left for later', line('INTEREST', 123), null],
