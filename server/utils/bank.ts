@@ -115,6 +115,7 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
         .where(f.where(payments, lt(payments.amountPence, 0), gte(payments.receivedOn, from), lte(payments.receivedOn, to), unmatched(sql`m.payment_id = ${payments.id}`)))
     : []
   const ins = lines.filter(l => l.amountPence > 0).map(l => l.date).sort()
+  const amountsIn = [...new Set(lines.filter(l => l.amountPence > 0).map(l => l.amountPence))]
   // payments typed in by hand around the lines of money in and not matched yet: a line that is one of them records nothing more
   const recorded = ins.length
     ? await f.tx.select({
@@ -123,7 +124,7 @@ export async function linesWithProposals(f: FirmScope, accountId: string, state:
       }).from(payments)
         .innerJoin(invoices, and(eq(invoices.firmId, payments.firmId), eq(invoices.id, payments.invoiceId)))
         .innerJoin(customers, and(eq(customers.firmId, invoices.firmId), eq(customers.id, invoices.customerId)))
-        .where(f.where(payments, sql`${payments.amountPence} > 0`, inArray(payments.method, ['transfer', 'cheque']),
+        .where(f.where(payments, inArray(payments.amountPence, amountsIn), inArray(payments.method, ['transfer', 'cheque']),
           gte(payments.receivedOn, addDays(ins[0]!, -PURCHASE_DAYS)), lte(payments.receivedOn, addDays(ins.at(-1)!, PURCHASE_DAYS)),
           unmatched(sql`m.payment_id = ${payments.id}`)))
     : []

@@ -51,6 +51,8 @@ export interface RecordedPayment {
   typed: string
   receivedOn: string
   amountPence: number
+  /** What its invoice still owes: as much again or more, and the line may be the next payment, not this one. */
+  invoiceOwingPence?: number
 }
 const words = (s: string) => ` ${s.toUpperCase().replace(/[^A-Z0-9]+/g, ' ').trim()} `
 
@@ -190,16 +192,17 @@ function subsetAddingUp(invoices: readonly OpenInvoice[], pence: number): OpenIn
  */
 export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInvoice[], recorded: readonly RecordedPayment[] = []): Proposal[] {
   const left = new Map(open.map(i => [i.id, { ...i }]))
-  const unclaimed = new Map(recorded.map(r => [r.id, r]))
+  const byAmount = recordedByAmount(recorded)
+  const claimed = new Set<string>()
   const memo = matchMemo()
   const owingKeys = new Set(open.map(i => memo.key(i.reference)).filter(k => k !== null))
   const byDate = [...lines].sort((a, b) => a.date.localeCompare(b.date) || a.id.localeCompare(b.id))
   const naming = new Set(byDate.filter(l => [...keysInDescription(l.description)].some(k => owingKeys.has(k))))
   const out: Proposal[] = []
   for (const line of [...byDate.filter(l => naming.has(l)), ...byDate.filter(l => !naming.has(l))]) {
-    const already = isStripePayout(line) ? null : alreadyRecorded(line, [...unclaimed.values()])
+    const already = isStripePayout(line) ? null : alreadyRecorded(line, byAmount, claimed, naming.has(line))
     if (already) {
-      unclaimed.delete(already.recordedPaymentId!)
+      claimed.add(already.recordedPaymentId!)
       out.push(already)
       continue
     }
@@ -217,23 +220,38 @@ export function proposeAll(lines: readonly MoneyInLine[], open: readonly OpenInv
 
 /**
  * The payment typed in by hand that this line of money in is: the same amount, received within
- * PURCHASE_DAYS of it (a transfer is often recorded the day the customer says it was sent). Sure
- * when the description names the invoice or the customer; likely otherwise. Confirming it records
- * nothing more, so the money is never counted twice.
+ * PURCHASE_DAYS of it (a transfer is often recorded the day the customer says it was sent), and
+ * the description naming its invoice, its customer or what was typed as its reference. Without one
+ * of those it is not taken for that payment: at a busy firm many payments are of the same amount.
+ * Confirming it records nothing more, so the money is never counted twice. A line that names an
+ * owing invoice (`referenceOnly`) is taken for a recorded payment only when it names that payment's
+ * own invoice. `byAmount`: the
+ * recorded payments by amount (recordedByAmount), looked up rather than scanned for each line.
  */
-export function alreadyRecorded(line: MoneyInLine, recorded: readonly RecordedPayment[]): Proposal | null {
+export function alreadyRecorded(line: MoneyInLine, byAmount: ReadonlyMap<number, readonly RecordedPayment[]>, taken: ReadonlySet<string> = new Set(), referenceOnly = false): Proposal | null {
   if (line.amountPence <= 0) return null
-  const near = recorded.filter(r => r.amountPence === line.amountPence && daysApart(r.receivedOn, line.date) <= PURCHASE_DAYS)
-    .sort((a, b) => daysApart(a.receivedOn, line.date) - daysApart(b.receivedOn, line.date))
+  const near = (byAmount.get(line.amountPence) ?? []).filter(r => !taken.has(r.id) && daysApart(r.receivedOn, line.date) <= PURCHASE_DAYS)
+  if (!near.length) return null
   const keys = keysInDescription(line.description)
-  const named = near.filter(r => keys.has(referenceKey(r.reference) ?? '') || nameInDescription(r.customerName, line.description)
-    || (words(r.typed).trim().length >= 4 && words(line.description).includes(words(r.typed))))
-  const pick = named[0] ?? (near.length === 1 ? near[0] : undefined)
+  const text = words(line.description)
+  const pick = near.filter(r => keys.has(referenceKey(r.reference) ?? '') || (!referenceOnly && (nameInDescription(r.customerName, line.description)
+    || (words(r.typed).trim().length >= 4 && text.includes(words(r.typed))))))
+    .sort((a, b) => daysApart(a.receivedOn, line.date) - daysApart(b.receivedOn, line.date))[0]
   if (!pick) return null
+  // the invoice still owing as much again: the line may be its next payment (a second half of the same amount)
+  const more = (pick.invoiceOwingPence ?? 0) >= line.amountPence
   return {
-    lineId: line.id, parts: [], alternatives: [], recordedPaymentId: pick.id, certainty: named.length ? 'sure' : 'likely',
-    reasons: [`a payment of ${pounds(pick.amountPence)} on ${pick.reference} was recorded by hand already: nothing more is recorded`, ...(named.length ? ['its reference or the customer in the description'] : ['no other recorded payment is that amount'])],
+    lineId: line.id, parts: [], alternatives: [], recordedPaymentId: pick.id, certainty: more ? 'likely' : 'sure',
+    reasons: [`a payment of ${pounds(pick.amountPence)} on ${pick.reference} was recorded by hand already: nothing more is recorded`, 'its reference or the customer in the description',
+      ...(more ? [`${pick.reference} still owes ${pounds(pick.invoiceOwingPence!)}: if this is its next payment, record it on the invoice instead`] : [])],
   }
+}
+
+/** Recorded payments by amount, for alreadyRecorded. */
+export function recordedByAmount(recorded: readonly RecordedPayment[]): Map<number, RecordedPayment[]> {
+  const out = new Map<number, RecordedPayment[]>()
+  for (const r of recorded) out.set(r.amountPence, [...out.get(r.amountPence) ?? [], r])
+  return out
 }
 
 /** A purchase the firm recorded (what it bought, from whom, when, for how much with VAT). */

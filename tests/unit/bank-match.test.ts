@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { alreadyRecorded, keysInDescription, nameInDescription, proposeAll, proposeMoneyIn, proposeMoneyOut, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
+import { alreadyRecorded, keysInDescription, recordedByAmount, nameInDescription, proposeAll, proposeMoneyIn, proposeMoneyOut, referenceKey, type OpenInvoice } from '../../shared/utils/bank-match'
 
 // Statement lines against the firm's unsettled invoices, worked by hand. Invented customers and
 // references. The rules are our own ("common practice" for how transfers are referenced); the
@@ -84,12 +84,13 @@ describe('proposeAll: two transfers never settle the same invoice', () => {
   const RECORDED = [{ id: 'r1', reference: 'BRP-0030', customerName: 'Millbeck Lettings', typed: 'MILLBECK FLAT5 DEP', receivedOn: '2026-12-02', amountPence: 27363 }]
   it.each([
     ['the same amount two days later, naming the customer: sure, records nothing', line('FP MILLBECK FLAT5 DEP', 27363), 'sure'],
-    ['the same amount, no name: likely', line('FASTER PAYMENT', 27363), 'likely'],
+    ['the same amount, nothing named: not taken for it (many payments are of one amount)', line('FASTER PAYMENT', 27363), null],
     ['the same amount, the invoice\'s reference: sure', line('FP BRP 30', 27363), 'sure'],
     ['the same amount ten days later: not that payment', { ...line('FP MILLBECK', 27363), date: '2026-12-12' }, null],
     ['another amount: not that payment', line('FP MILLBECK', 27300), null],
-  ] as const)('a payment recorded by hand: %s', (_what, l, want) => {
-    expect(alreadyRecorded(l, RECORDED)?.certainty ?? null).toBe(want)
+    ['its invoice still owes as much again: likely, it may be the next payment', line('FP BRP 30', 27363), 'likely', 27363],
+  ] as const)('a payment recorded by hand: %s', (_what, l, want, owing = 0) => {
+    expect(alreadyRecorded(l, recordedByAmount(RECORDED.map(r => ({ ...r, invoiceOwingPence: owing }))))?.certainty ?? null).toBe(want)
   })
   it('gives a line already recorded by hand no invoice, even one it would fit, and the next line of that amount the invoice', () => {
     const got = proposeAll([line('FP MILLBECK LETTINGS', 120000, 'l1'), { ...line('FP MILLBECK LETTINGS', 120000, 'l2'), date: '2026-12-05' }], OPEN, [{ ...RECORDED[0]!, amountPence: 120000 }])
@@ -99,6 +100,10 @@ describe('proposeAll: two transfers never settle the same invoice', () => {
     // i05 and i06 are both owed £250: the earlier line names no reference, the later one names BRP-0024 (i05)
     const got = proposeAll([line('TRANSFER', 25000, 'l1'), { ...line('FP BRP-24', 25000, 'l2'), date: '2026-12-06' }], OPEN)
     expect(Object.fromEntries(got.map(p => [p.lineId, p.parts.map(x => x.invoiceId)]))).toEqual({ l2: ['i05'], l1: ['i06'] })
+  })
+  it('gives a line naming an owing invoice that invoice, not a payment of the same customer recorded by hand', () => {
+    const got = proposeAll([line('FP MILLBECK LETTINGS BRP-26', 120000, 'l1')], OPEN, [{ ...RECORDED[0]!, amountPence: 120000 }])
+    expect(got.map(p => [p.recordedPaymentId ?? null, p.parts.map(x => x.invoiceId)])).toEqual([[null, ['i07']]])
   })
   it('takes two part payments of one invoice in date order', () => {
     const got = proposeAll([{ ...line('BRP 26', 70000, 'l2'), date: '2026-12-05' }, line('BRP 26', 50000, 'l1')], OPEN)
